@@ -1,0 +1,32 @@
+// Installs what is missing: npm packages when node_modules is absent or older than the lock file,
+// and (as root, from Debian) PostgreSQL, Chromium and poppler-utils. Node built-ins only.
+import { existsSync, statSync } from 'node:fs';
+import { join } from 'node:path';
+import { commandExists, isRoot, run, runInherit } from './proc.mjs';
+
+export async function ensureNodeModules(root) {
+	const marker = join(root, 'node_modules', '.package-lock.json');
+	const lock = join(root, 'package-lock.json');
+	const stale = !existsSync(marker) || statSync(lock).mtimeMs > statSync(marker).mtimeMs + 1000;
+	if (!stale) return;
+	console.log('[restvolt] installing npm packages (npm ci)…');
+	const code = await runInherit('npm', ['ci', '--no-audit', '--no-fund'], { cwd: root });
+	if (code !== 0) throw new Error('npm ci failed');
+}
+
+/** Ensure Debian packages that provide `commands`; install them with apt-get when root. */
+export function ensureDebianPackages(packages, commands) {
+	const missing = commands.filter((cmd) => !commandExists(cmd));
+	if (missing.length === 0) return;
+	if (!isRoot()) {
+		throw new Error(
+			`Missing ${missing.join(', ')}. Install the Debian packages: sudo apt-get install -y ${packages.join(' ')}`
+		);
+	}
+	console.log(`[restvolt] installing Debian packages: ${packages.join(' ')}…`);
+	run('apt-get', ['update', '-qq'], { stdio: 'ignore' });
+	run('apt-get', ['install', '-y', '-qq', ...packages], {
+		env: { ...process.env, DEBIAN_FRONTEND: 'noninteractive' },
+		stdio: 'ignore'
+	});
+}

@@ -1,0 +1,15 @@
+// Applies the committed SQL migrations in drizzle/ (a second run does nothing).
+import { join } from 'node:path';
+
+export async function migrateDatabase(databaseUrl, root) {
+	const { default: pg } = await import('pg');
+	const { drizzle } = await import('drizzle-orm/node-postgres');
+	const { migrate } = await import('drizzle-orm/node-postgres/migrator');
+	// The options quieten "relation already exists, skipping" notices from the migrator's bookkeeping.
+	const pool = new pg.Pool({ connectionString: databaseUrl, max: 1, options: '-c client_min_messages=warning' });
+	try {
+		await migrate(drizzle(pool), { migrationsFolder: join(root, 'drizzle') });
+	} finally {
+		await pool.end();
+	}
+}

@@ -1,0 +1,67 @@
+#!/usr/bin/env node
+// `npm start`: install what is missing, start PostgreSQL and the local mail peer, migrate, seed the
+// demo scenario, build and serve Restvolt on http://127.0.0.1:$PORT. Ctrl-C stops everything.
+import { spawn } from 'node:child_process';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { ensureNodeModules } from './lib/deps.mjs';
+import { firstFreePort, runInherit, waitForHttp } from './lib/proc.mjs';
+
+const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
+const dataRoot = join(root, '.data');
+process.chdir(root);
+await ensureNodeModules(root);
+
+const { ensureDatabase, ensurePostgres } = await import('./lib/pg.mjs');
+const { startMailPeer } = await import('./lib/mail-peer.mjs');
+const { migrateDatabase } = await import('./lib/migrate.mjs');
+const { ensureBuild } = await import('./lib/build.mjs');
+const { appEnv, authSecret } = await import('./lib/env.mjs');
+
+const cleanups = [];
+let databaseUrl = process.env.DATABASE_URL;
+if (!databaseUrl) {
+	const pg = await ensurePostgres({ dataDir: join(dataRoot, 'pg'), preferredPort: Number(process.env.PGPORT ?? 5432) });
+	if (!pg.reused) cleanups.push(pg.stop);
+	databaseUrl = await ensureDatabase(pg.url, 'restvolt');
+}
+
+let smtpPort = null;
+let mailHttpPort = null;
+if (!process.env.SMTP_URL) {
+	smtpPort = await firstFreePort(Number(process.env.SMTP_PORT ?? 2525));
+	mailHttpPort = await firstFreePort(Number(process.env.MAIL_HTTP_PORT ?? 8025));
+	const peer = await startMailPeer({ smtpPort, httpPort: mailHttpPort, dir: join(dataRoot, 'mail') });
+	cleanups.unshift(peer.stop);
+}
+
+await migrateDatabase(databaseUrl, root);
+const seedCode = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...process.env, DATABASE_URL: databaseUrl } });
+if (seedCode !== 0) throw new Error('seeding the demo scenario failed');
+await ensureBuild(root);
+
+const port = await firstFreePort(Number(process.env.PORT ?? 3000));
+const env = appEnv({ port, databaseUrl, smtpPort, mailHttpPort, secret: authSecret(dataRoot) });
+const app = spawn(process.execPath, ['build'], { env, stdio: 'inherit' });
+cleanups.unshift(() => new Promise((r) => (app.exitCode !== null ? r() : (app.once('exit', r), app.kill('SIGTERM')))));
+await waitForHttp(`http://127.0.0.1:${port}/api/v1/health`, { timeoutMs: 60_000 });
+
+console.log(`
+  Restvolt is running at ${env.ORIGIN}
+  Demo sign-ins (password for staff: see README — demo only):
+    buyer@restvolt.example · inspector@restvolt.example · quality@restvolt.example · admin@restvolt.example
+    supplier contacts sign in by e-mailed link, e.g. notices@voltaria-cells.example
+  Sent mail: ${mailHttpPort ? `http://127.0.0.1:${mailHttpPort}/` : env.SMTP_URL}
+  Ctrl-C stops the app, the mail peer and PostgreSQL.
+`);
+
+let stopping = false;
+async function shutdown(code = 0) {
+	if (stopping) return;
+	stopping = true;
+	for (const cleanup of cleanups) await cleanup().catch((e) => console.error(e));
+	process.exit(code);
+}
+process.on('SIGINT', () => shutdown(0));
+process.on('SIGTERM', () => shutdown(0));
+app.on('exit', (code) => shutdown(code ?? 1));

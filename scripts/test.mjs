@@ -1,0 +1,77 @@
+#!/usr/bin/env node
+// `npm test`: install what is missing, start a throw-away PostgreSQL cluster and mail peer on free
+// ports, build the app, then run svelte-check, the unit and integration tests (vitest) and the
+// browser tests (Playwright + Debian's Chromium). Stops everything; non-zero exit on any failure.
+import { chmodSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { ensureDebianPackages, ensureNodeModules } from './lib/deps.mjs';
+import { freePort, runInherit } from './lib/proc.mjs';
+
+const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
+process.chdir(root);
+const only = process.argv.slice(2); // e.g. `npm test -- unit integration`
+const wants = (stage) => only.length === 0 || only.includes(stage);
+
+await ensureNodeModules(root);
+ensureDebianPackages(['chromium', 'poppler-utils'], ['chromium', 'pdftotext', 'pdfinfo', 'pdftoppm']);
+
+const { ensureDatabase, ensurePostgres } = await import('./lib/pg.mjs');
+const { startMailPeer } = await import('./lib/mail-peer.mjs');
+const { migrateDatabase } = await import('./lib/migrate.mjs');
+const { ensureBuild } = await import('./lib/build.mjs');
+
+const scratch = mkdtempSync(join(tmpdir(), 'restvolt-test-'));
+chmodSync(scratch, 0o755); // the postgres user must be able to enter it
+const pg = await ensurePostgres({ dataDir: join(scratch, 'pg'), preferredPort: await freePort(), throwaway: true });
+const smtpPort = await freePort();
+const mailHttpPort = await freePort();
+const peer = await startMailPeer({ smtpPort, httpPort: mailHttpPort, dir: join(scratch, 'mail') });
+
+const failures = [];
+try {
+	const templateUrl = await ensureDatabase(pg.url, 'restvolt_template');
+	await migrateDatabase(templateUrl, root);
+	const seedCode = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...process.env, DATABASE_URL: templateUrl } });
+	if (seedCode !== 0) throw new Error('seeding the template database failed');
+	if (wants('e2e') || wants('integration')) await ensureBuild(root);
+
+	const env = {
+		...process.env,
+		TEST_PG_URL: pg.url,
+		TEST_PG_BIN: pg.bin,
+		TEST_PG_DATA: pg.dataDir,
+		TEST_TEMPLATE_DB: 'restvolt_template',
+		TEST_SMTP_PORT: String(smtpPort),
+		TEST_MAIL_HTTP_URL: `http://127.0.0.1:${mailHttpPort}`,
+		TEST_SCRATCH: scratch,
+		DATABASE_URL: await ensureDatabase(pg.url, 'restvolt_test', 'restvolt_template')
+	};
+	const stages = [
+		['check', 'npx', ['svelte-kit', 'sync']],
+		['check', 'npx', ['svelte-check', '--tsconfig', './tsconfig.json', '--threshold', 'error']],
+		['unit', 'npx', ['vitest', 'run', '--project', 'unit']],
+		['integration', 'npx', ['vitest', 'run', '--project', 'integration']],
+		['e2e', 'npx', ['playwright', 'test']]
+	];
+	for (const [stage, cmd, args] of stages) {
+		if (!wants(stage)) continue;
+		console.log(`\n[restvolt] ── ${stage}: ${cmd} ${args.join(' ')}`);
+		const code = await runInherit(cmd, args, { env });
+		if (code !== 0) failures.push(stage);
+	}
+} catch (error) {
+	console.error(error);
+	failures.push('setup');
+} finally {
+	await peer.stop();
+	await pg.stop();
+	rmSync(scratch, { recursive: true, force: true });
+}
+
+if (failures.length) {
+	console.error(`\n[restvolt] FAILED: ${[...new Set(failures)].join(', ')}`);
+	process.exit(1);
+}
+console.log('\n[restvolt] all tests passed');

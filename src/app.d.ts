@@ -1,0 +1,30 @@
+import type { SessionUser } from '$lib/roles';
+
+declare global {
+	namespace App {
+		interface Locals {
+			/** The signed-in person (session cookie or API token), or null. Set once in hooks.server.ts. */
+			user: SessionUser | null;
+			/** How the user authenticated: an interactive session or an API token. */
+			authMethod: 'session' | 'token' | null;
+		}
+		interface Error {
+			message: string;
+			code?: string;
+		}
+	}
+}
+
+declare module '@auth/core/types' {
+	interface Session {
+		user: {
+			id: string;
+			email: string;
+			name?: string | null;
+			role: import('$lib/roles').Role;
+			organisationId: string | null;
+		} & Omit<import('@auth/core/types').DefaultSession['user'], 'id'>;
+	}
+}
+
+export {};

@@ -1,0 +1,100 @@
+import type { ScaleLinear } from 'd3-scale';
+import type { Tick } from './types';
+
+const MINUS = '\u2212';
+const NBSP = '\u00a0';
+
+/** Fixed decimals with a true minus sign and no "-0.000". */
+export function formatFixed(value: number, decimals: number): string {
+	const text = value.toFixed(decimals);
+	if (Number(text) === 0) return (0).toFixed(decimals);
+	return text.replace('-', MINUS);
+}
+
+/** Cell voltages: 3 decimals (1 mV) by default, 4 when a lot is tighter than that. */
+export function formatVolts(volts: number, decimals = 3): string {
+	return `${formatFixed(volts, decimals)}${NBSP}V`;
+}
+
+export function formatMillivolts(millivolts: number, decimals = 0): string {
+	return `${formatFixed(millivolts, decimals)}${NBSP}mV`;
+}
+
+/** `fraction` is 0–1 (SOC is stored as a fraction everywhere in Restvolt). */
+export function formatPercent(fraction: number, decimals = 0): string {
+	return `${formatFixed(fraction * 100, decimals)}${NBSP}%`;
+}
+
+export function formatCount(count: number): string {
+	return Math.round(count).toLocaleString('en-US');
+}
+
+export function formatPpm(ppm: number): string {
+	return `${formatCount(ppm)}${NBSP}ppm`;
+}
+
+/** Enough decimals that neighbouring ticks never print the same text. */
+export function decimalsForStep(step: number, min: number, max: number): number {
+	if (!(step > 0) || !Number.isFinite(step)) return min;
+	const needed = Math.ceil(-Math.log10(step) - 1e-9);
+	return Math.min(max, Math.max(min, needed));
+}
+
+/** Ticks of a linear scale, placed and labelled. */
+export function linearTicks(
+	scale: ScaleLinear<number, number>,
+	count: number,
+	format: (value: number, step: number) => string
+): Tick[] {
+	const values = scale.ticks(count);
+	const step = values.length > 1 ? values[1] - values[0] : 1;
+	return values.map((value) => ({ value, pos: Math.round(scale(value) * 100) / 100, label: format(value, step) }));
+}
+
+/** Volt ticks with 3 or 4 decimals depending on tick spacing. */
+export function voltTicks(scale: ScaleLinear<number, number>, count: number): Tick[] {
+	return linearTicks(scale, count, (v, step) => formatVolts(v, decimalsForStep(step, 3, 4)));
+}
+
+/** Integer-only ticks for counts (no "0.5 units"). */
+export function countTicks(scale: ScaleLinear<number, number>, count: number): Tick[] {
+	return linearTicks(scale, count, (v) => formatCount(v)).filter((t) => Number.isInteger(t.value));
+}
+
+/**
+ * Domain that covers every finite value with `padFraction` of the span on each side.
+ * `minSpan` keeps a single value (or a perfectly uniform lot) from collapsing the axis.
+ */
+export function paddedDomain(
+	values: Array<number | null | undefined>,
+	padFraction: number,
+	minSpan: number
+): [number, number] {
+	const range = extent(values.filter((v): v is number => typeof v === 'number'));
+	if (!range) return [0, minSpan];
+	let [lo, hi] = range;
+	if (hi - lo < minSpan) {
+		const mid = (lo + hi) / 2;
+		lo = mid - minSpan / 2;
+		hi = mid + minSpan / 2;
+	}
+	const pad = (hi - lo) * padFraction;
+	return [lo - pad, hi + pad];
+}
+
+/** Min and max of a (possibly huge) array without spreading it onto the call stack. */
+export function extent(values: number[]): [number, number] | null {
+	let lo = Infinity;
+	let hi = -Infinity;
+	for (const v of values) {
+		if (!Number.isFinite(v)) continue;
+		if (v < lo) lo = v;
+		if (v > hi) hi = v;
+	}
+	return lo <= hi ? [lo, hi] : null;
+}
+
+/** "1 outlier", "3 outliers" */
+export function plural(count: number, singular: string, pluralForm = `${singular}s`): string {
+	return `${formatCount(count)} ${count === 1 ? singular : pluralForm}`;
+}

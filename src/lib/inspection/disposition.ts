@@ -1,0 +1,336 @@
+// Lot disposition: count nonconforming units against the active plan and collect reasons.
+// Precedence: reject beats pending beats hold beats accept. Deterministic: same input, same output.
+import { lotStatistics, robustOutliers, selfDischargeMvPerDay, spreadCheck, median, type LotStatistics } from './statistics';
+import { variablesCheck, type VariablesCheck } from './variables';
+import type { SamplingPlan, Severity, UnitResult } from './types';
+
+export type Transport = 'air' | 'sea' | 'road' | 'rail';
+export type LotDocument = 'coc' | 'un38_3_summary' | 'sds' | 'other';
+
+export interface PartLimits {
+	/** Per-cell OCV window of the part (overrides the chemistry's own window), volts at 25 °C. */
+	ocv_min_v: number;
+	ocv_max_v: number;
+	residual_tolerance_v: number;
+	spread_limit_mv: number;
+	outlier_k: number;
+	self_discharge_limit_mv_per_day: number;
+	/** SOC fraction, e.g. 0.1 for ±10 points. */
+	declared_soc_tolerance: number;
+}
+
+export interface LotInfo {
+	quantity: number;
+	declared_soc: number | null;
+	transport: Transport;
+	lithium_ion: boolean;
+	documents: LotDocument[];
+}
+
+export interface UnitInput {
+	serial: string;
+	result: UnitResult;
+	self_discharge_mv_per_day?: number | null;
+}
+
+export interface DispositionInput {
+	lot: LotInfo;
+	plan: SamplingPlan;
+	severity: Severity;
+	limits: PartLimits;
+	units: UnitInput[];
+	/** AQL for the advisory variables check; omit to skip it. */
+	aql?: number | null;
+	/** Smallest OCV spread trusted by the outlier rule (meter resolution), volts. Default 0.0005. */
+	ocv_resolution_v?: number;
+}
+
+export type ReasonCode =
+	| 'deep_discharge'
+	| 'nonconforming_over_limit'
+	| 'sample_incomplete'
+	| 'dg_soc_over_limit'
+	| 'declared_soc_mismatch'
+	| 'soc_indeterminate'
+	| 'spread_over_limit'
+	| 'documents_missing'
+	| 'temperature_out_of_range'
+	| 'outliers_present'
+	| 'self_discharge_over_limit'
+	| 'outside_part_window'
+	| 'residual_over_tolerance'
+	| 'reduced_between_ac_re'
+	| 'normality_warning';
+
+export interface Reason {
+	code: ReasonCode;
+	severity: 'reject' | 'hold' | 'info';
+	message: string;
+	units?: string[];
+}
+
+export type UnitFlag =
+	| UnitResult['flags'][number]
+	| 'outlier'
+	| 'residual_over_tolerance'
+	| 'self_discharge_over_limit'
+	| 'outside_part_window';
+
+export interface UnitDisposition extends UnitResult {
+	serial: string;
+	self_discharge_mv_per_day: number | null;
+	nonconforming: boolean;
+	unit_flags: UnitFlag[];
+}
+
+export interface Disposition {
+	status: 'pending' | 'accept' | 'hold' | 'reject';
+	safety: boolean;
+	reasons: Reason[];
+	nonconforming: number;
+	nonconforming_serials: string[];
+	stats: LotStatistics;
+	variables: VariablesCheck;
+	units: UnitDisposition[];
+}
+
+/** Air transport limit for lithium-ion cells/batteries shipped alone: 30 % SOC. */
+export const AIR_SOC_LIMIT = 0.3;
+const NC_FLAGS: ReadonlySet<UnitFlag> = new Set<UnitFlag>([
+	'deep_discharge',
+	'outside_part_window',
+	'residual_over_tolerance',
+	'outlier',
+	'self_discharge_over_limit'
+]);
+
+/** Unit-level findings that count as nonconforming and are also listed as information. */
+const INFO_REASONS: ReadonlyArray<{ code: ReasonCode; flag: UnitFlag; message: string }> = [
+	{ code: 'outliers_present', flag: 'outlier', message: 'OCV far from the lot median (robust outlier rule); counted as nonconforming.' },
+	{ code: 'self_discharge_over_limit', flag: 'self_discharge_over_limit', message: 'Voltage drop per day above the part limit; counted as nonconforming.' },
+	{ code: 'outside_part_window', flag: 'outside_part_window', message: "OCV outside the part's window; counted as nonconforming." },
+	{
+		code: 'residual_over_tolerance',
+		flag: 'residual_over_tolerance',
+		message: 'OCV differs from the value expected at the declared SOC by more than the tolerance; counted as nonconforming.'
+	}
+];
+
+function unitFlags(u: UnitInput, limits: PartLimits, isOutlier: boolean): UnitFlag[] {
+	// Part limits replace the chemistry window, so the chemistry's below/above flags are not carried.
+	const flags: UnitFlag[] = u.result.flags.filter((f) => f !== 'below_window' && f !== 'above_window');
+	const v = u.result.ocv_at_25c_v;
+	if (v < limits.ocv_min_v || v > limits.ocv_max_v) flags.push('outside_part_window');
+	const r = u.result.residual_v;
+	if (r !== null && Math.abs(r) > limits.residual_tolerance_v) flags.push('residual_over_tolerance');
+	if (isOutlier) flags.push('outlier');
+	const sd = u.self_discharge_mv_per_day ?? null;
+	if (sd !== null && sd > limits.self_discharge_limit_mv_per_day) flags.push('self_discharge_over_limit');
+	return flags;
+}
+
+function serialsWith(units: readonly UnitDisposition[], flag: UnitFlag): string[] {
+	return units.filter((u) => u.unit_flags.includes(flag)).map((u) => u.serial);
+}
+
+function pct(x: number): string {
+	return `${Math.round(x * 100)} %`;
+}
+
+function documentReasons(lot: LotInfo): Reason[] {
+	const needed: LotDocument[] = lot.lithium_ion ? ['coc', 'un38_3_summary'] : ['coc'];
+	const missing = needed.filter((d) => !lot.documents.includes(d));
+	if (missing.length === 0) return [];
+	const names = missing.map((d) => (d === 'coc' ? 'certificate of conformity' : 'UN 38.3 test summary'));
+	return [{ code: 'documents_missing', severity: 'hold', message: `Missing: ${names.join(', ')}.` }];
+}
+
+/** SOC rules (air DG limit, declared SOC) and the hold when they needed a SOC they could not get. */
+function socReasons(lot: LotInfo, limits: PartLimits, units: readonly UnitDisposition[]): Reason[] {
+	const reasons: Reason[] = [];
+	const determinate = units.filter((u) => u.determinate);
+	const mostlyIndeterminate = units.length > 0 && determinate.length * 2 < units.length;
+	const needsSoc: string[] = [];
+
+	if (lot.lithium_ion && lot.transport === 'air') {
+		const over = units.filter((u) => u.soc_low > AIR_SOC_LIMIT).map((u) => u.serial);
+		const declaredOver = lot.declared_soc !== null && lot.declared_soc > AIR_SOC_LIMIT;
+		if (over.length > 0 || declaredOver) {
+			const what = over.length > 0 ? `${over.length} unit(s) read wholly above ${pct(AIR_SOC_LIMIT)} SOC` : `declared SOC ${pct(lot.declared_soc ?? 0)}`;
+			reasons.push({
+				code: 'dg_soc_over_limit',
+				severity: 'hold',
+				message: `Air shipment of lithium-ion cells: ${what}, above the ${pct(AIR_SOC_LIMIT)} limit. Check current DG regulations and the site's procedure before onward shipping.`,
+				units: over.length > 0 ? over : undefined
+			});
+		} else if (mostlyIndeterminate) needsSoc.push('air-transport SOC limit');
+	}
+
+	if (lot.declared_soc !== null) {
+		if (mostlyIndeterminate || determinate.length === 0) needsSoc.push('declared-SOC check');
+		else {
+			const declared = lot.declared_soc;
+			const tol = limits.declared_soc_tolerance;
+			const lo = median(determinate.map((u) => u.soc_low));
+			const hi = median(determinate.map((u) => u.soc_high));
+			const mid = median(determinate.map((u) => u.soc));
+			const excludes = lo > declared + tol || hi < declared - tol;
+			if (excludes && Math.abs(mid - declared) > tol) {
+				const off = determinate.filter((u) => u.soc_low > declared + tol || u.soc_high < declared - tol).map((u) => u.serial);
+				reasons.push({
+					code: 'declared_soc_mismatch',
+					severity: 'hold',
+					message: `Median estimated SOC ${pct(mid)} (interval ${pct(lo)}–${pct(hi)}) differs from the declared ${pct(declared)} by more than ±${pct(tol)}.`,
+					units: off
+				});
+			}
+		}
+	}
+
+	if (needsSoc.length > 0) {
+		reasons.push({
+			code: 'soc_indeterminate',
+			severity: 'hold',
+			message: `SOC could not be determined for most units (flat OCV region), so the ${needsSoc.join(' and ')} could not be checked. Use another method (e.g. a capacity check) to confirm.`,
+			units: units.filter((u) => !u.determinate).map((u) => u.serial)
+		});
+	}
+	return reasons;
+}
+
+function statusOf(reasons: readonly Reason[], incomplete: boolean): Disposition['status'] {
+	if (reasons.some((r) => r.severity === 'reject')) return 'reject';
+	if (incomplete) return 'pending';
+	if (reasons.some((r) => r.severity === 'hold')) return 'hold';
+	return 'accept';
+}
+
+export function decideLot(input: DispositionInput): Disposition {
+	const { lot, plan, limits } = input;
+	const ocv = input.units.map((u) => u.result.ocv_at_25c_v);
+	const outlierIdx = new Set(robustOutliers(ocv, limits.outlier_k, input.ocv_resolution_v ?? 0.0005));
+	const units: UnitDisposition[] = input.units.map((u, i) => {
+		const flags = unitFlags(u, limits, outlierIdx.has(i));
+		return {
+			serial: u.serial,
+			...u.result,
+			self_discharge_mv_per_day: u.self_discharge_mv_per_day ?? null,
+			nonconforming: flags.some((f) => NC_FLAGS.has(f)),
+			unit_flags: flags
+		};
+	});
+	const ncSerials = units.filter((u) => u.nonconforming).map((u) => u.serial);
+	const reasons: Reason[] = [];
+
+	const deep = serialsWith(units, 'deep_discharge');
+	if (deep.length > 0) {
+		reasons.push({
+			code: 'deep_discharge',
+			severity: 'reject',
+			message: `${deep.length} unit(s) rest below the safe minimum voltage. Quarantine them and do not recharge; handle per the site's procedure for damaged cells.`,
+			units: deep
+		});
+	}
+	if (ncSerials.length >= plan.reject) {
+		reasons.push({
+			code: 'nonconforming_over_limit',
+			severity: 'reject',
+			message: `${ncSerials.length} nonconforming unit(s) reach the rejection number Re ${plan.reject} (Ac ${plan.accept}, n ${plan.sample_size}).`,
+			units: ncSerials
+		});
+	} else if (input.severity === 'reduced' && ncSerials.length > plan.accept) {
+		reasons.push({
+			code: 'reduced_between_ac_re',
+			severity: 'info',
+			message: `${ncSerials.length} nonconforming on reduced inspection is between Ac ${plan.accept} and Re ${plan.reject}: lot accepted, normal inspection reinstated for the next lot.`,
+			units: ncSerials
+		});
+	}
+	const incomplete = units.length < plan.sample_size;
+	if (incomplete) {
+		reasons.push({
+			code: 'sample_incomplete',
+			severity: 'info',
+			message: `${units.length} of ${plan.sample_size} sample units measured; no disposition until the sample is complete.`
+		});
+	}
+
+	reasons.push(...socReasons(lot, limits, units));
+
+	const spread = spreadCheck(ocv, limits.spread_limit_mv);
+	if (spread?.over) {
+		reasons.push({
+			code: 'spread_over_limit',
+			severity: 'hold',
+			message: `OCV spread ${spread.spread_mv.toFixed(1)} mV exceeds the part limit of ${limits.spread_limit_mv} mV.`
+		});
+	}
+	reasons.push(...documentReasons(lot));
+	const hot = serialsWith(units, 'temperature_out_of_range');
+	if (hot.length > 0) {
+		reasons.push({
+			code: 'temperature_out_of_range',
+			severity: 'hold',
+			message: `${hot.length} reading(s) taken outside the model's temperature range; re-measure after the cells settle.`,
+			units: hot
+		});
+	}
+	for (const { code, flag, message } of INFO_REASONS) {
+		const serials = serialsWith(units, flag);
+		if (serials.length > 0) reasons.push({ code, severity: 'info', message, units: serials });
+	}
+
+	const variables = variablesCheck(ocv, limits.ocv_min_v, limits.ocv_max_v, input.aql ?? null);
+	if (variables.normality_warning) {
+		reasons.push({
+			code: 'normality_warning',
+			severity: 'info',
+			message: 'OCV values do not look like one normal population (possibly a mixed lot); the variables check is unreliable.'
+		});
+	}
+
+	return {
+		status: statusOf(reasons, incomplete),
+		safety: deep.length > 0,
+		reasons,
+		nonconforming: ncSerials.length,
+		nonconforming_serials: ncSerials,
+		stats: lotStatistics(ocv),
+		variables,
+		units
+	};
+}
+
+/** One reading of one unit, as produced by electrochem for that reading. */
+export interface TimedUnitReading {
+	serial: string;
+	measured_at: string;
+	result: UnitResult;
+}
+
+export interface EvaluateLotInput extends Omit<DispositionInput, 'units'> {
+	readings: TimedUnitReading[];
+}
+
+/**
+ * Server entry point: readings of all units (any order). The latest reading per serial is the unit's
+ * result; its earliest and latest readings ≥ 24 h apart give the self-discharge. Units keep the order
+ * in which their serial first appears.
+ */
+export function evaluateLot(input: EvaluateLotInput): Disposition {
+	const bySerial = new Map<string, TimedUnitReading[]>();
+	for (const r of input.readings) {
+		const list = bySerial.get(r.serial);
+		if (list) list.push(r);
+		else bySerial.set(r.serial, [r]);
+	}
+	const units: UnitInput[] = [];
+	for (const [serial, list] of bySerial) {
+		let latest = list[0];
+		for (const r of list) if (Date.parse(r.measured_at) > Date.parse(latest.measured_at)) latest = r;
+		const sd = selfDischargeMvPerDay(list.map((r) => ({ measured_at: r.measured_at, ocv_v: r.result.ocv_at_25c_v })));
+		units.push({ serial, result: latest.result, self_discharge_mv_per_day: sd });
+	}
+	const { readings: _readings, ...rest } = input;
+	return decideLot({ ...rest, units });
+}

@@ -1,0 +1,34 @@
+import { drizzle, type NodePgDatabase } from 'drizzle-orm/node-postgres';
+import pg from 'pg';
+import * as schema from './schema';
+
+export type Database = NodePgDatabase<typeof schema>;
+export type Tx = Parameters<Parameters<Database['transaction']>[0]>[0];
+export { schema };
+
+// One pool per process, created on first use: the only process-wide handle, and it holds no
+// business state (several app processes share one PostgreSQL).
+let pool: pg.Pool | undefined;
+let database: Database | undefined;
+
+export function databaseUrl(): string {
+	const url = process.env.DATABASE_URL;
+	if (!url) throw new Error('DATABASE_URL is not set (npm start and npm test set it for you)');
+	return url;
+}
+
+export function getPool(): pg.Pool {
+	pool ??= new pg.Pool({ connectionString: databaseUrl(), max: Number(process.env.PG_POOL_MAX ?? 10) });
+	return pool;
+}
+
+export function getDb(): Database {
+	database ??= drizzle(getPool(), { schema });
+	return database;
+}
+
+export async function closeDb(): Promise<void> {
+	await pool?.end();
+	pool = undefined;
+	database = undefined;
+}

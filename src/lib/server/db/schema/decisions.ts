@@ -1,0 +1,50 @@
+import { bigint, bigserial, boolean, index, jsonb, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { dispositionEnum, lotStatusEnum, severityEnum } from './enums';
+import { lots } from './lots';
+import { ocvModels } from './models';
+import { users } from './users';
+
+/**
+ * Every run of the disposition engine, kept forever: inputs snapshot, model, plan and result,
+ * so a decision can be reproduced later. Re-evaluation adds a row; nothing is overwritten.
+ */
+export const evaluations = pgTable(
+	'evaluations',
+	{
+		id: bigserial('id', { mode: 'number' }).primaryKey(),
+		lotId: uuid('lot_id')
+			.notNull()
+			.references(() => lots.id, { onDelete: 'cascade' }),
+		modelId: uuid('model_id').references(() => ocvModels.id),
+		modelVersion: text('model_version').notNull(),
+		severity: severityEnum('severity').notNull(),
+		plan: jsonb('plan').notNull(),
+		inputs: jsonb('inputs').notNull(),
+		result: jsonb('result').notNull(),
+		disposition: dispositionEnum('disposition').notNull(),
+		safety: boolean('safety').notNull().default(false),
+		createdBy: text('created_by').references(() => users.id),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [index('evaluations_lot_idx').on(t.lotId, t.createdAt)]
+);
+
+/** Status changes by the engine ('automatic') or by a quality manager ('override', e-signed). */
+export const decisions = pgTable(
+	'decisions',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		lotId: uuid('lot_id')
+			.notNull()
+			.references(() => lots.id, { onDelete: 'cascade' }),
+		evaluationId: bigint('evaluation_id', { mode: 'number' }).references(() => evaluations.id),
+		kind: text('kind', { enum: ['automatic', 'override'] }).notNull(),
+		fromStatus: lotStatusEnum('from_status').notNull(),
+		toStatus: lotStatusEnum('to_status').notNull(),
+		reason: text('reason'),
+		signature: jsonb('signature'),
+		decidedBy: text('decided_by').references(() => users.id),
+		decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [index('decisions_lot_idx').on(t.lotId, t.decidedAt)]
+);

@@ -1,0 +1,57 @@
+import { sql } from 'drizzle-orm';
+import { check, date, doublePrecision, index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { lotStatusEnum, severityEnum, transportEnum } from './enums';
+import { organisations } from './organisations';
+import { parts } from './parts';
+import { users } from './users';
+
+/** A purchase lot of cells or packs, from registration to disposition. */
+export const lots = pgTable(
+	'lots',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		lotCode: text('lot_code').notNull().unique(),
+		poNumber: text('po_number').notNull(),
+		supplierId: uuid('supplier_id')
+			.notNull()
+			.references(() => organisations.id),
+		partId: uuid('part_id')
+			.notNull()
+			.references(() => parts.id),
+		quantity: integer('quantity').notNull(),
+		declaredSoc: doublePrecision('declared_soc'),
+		transport: transportEnum('transport').notNull(),
+		unNumber: text('un_number'),
+		expectedArrival: date('expected_arrival'),
+		receivedAt: timestamp('received_at', { withTimezone: true }),
+		status: lotStatusEnum('status').notNull().default('draft'),
+		severity: severityEnum('severity'),
+		createdBy: text('created_by').references(() => users.id),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+		decidedAt: timestamp('decided_at', { withTimezone: true })
+	},
+	(t) => [
+		index('lots_created_idx').on(t.createdAt.desc(), t.id.desc()),
+		index('lots_status_created_idx').on(t.status, t.createdAt.desc(), t.id.desc()),
+		index('lots_supplier_created_idx').on(t.supplierId, t.createdAt.desc(), t.id.desc()),
+		index('lots_part_decided_idx').on(t.supplierId, t.partId, t.decidedAt),
+		check('lots_quantity_positive', sql`${t.quantity} > 0`),
+		check('lots_declared_soc_range', sql`${t.declaredSoc} is null or (${t.declaredSoc} >= 0 and ${t.declaredSoc} <= 1)`),
+		check('lots_un_number_format', sql`${t.unNumber} is null or ${t.unNumber} ~ '^UN[0-9]{4}$'`)
+	]
+);
+
+/** Inspection resumed by quality after a discontinuation (ISO 2859-1 9.4): restarts on tightened. */
+export const inspectionResumptions = pgTable('inspection_resumptions', {
+	id: uuid('id').primaryKey().defaultRandom(),
+	supplierId: uuid('supplier_id')
+		.notNull()
+		.references(() => organisations.id),
+	partId: uuid('part_id')
+		.notNull()
+		.references(() => parts.id),
+	reason: text('reason').notNull(),
+	resumedBy: text('resumed_by').references(() => users.id),
+	resumedAt: timestamp('resumed_at', { withTimezone: true }).notNull().defaultNow()
+});

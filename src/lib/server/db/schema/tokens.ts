@@ -1,0 +1,21 @@
+import { index, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { users } from './users';
+
+/** API tokens: shown once, stored as sha256, revocable. */
+export const apiTokens = pgTable(
+	'api_tokens',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		label: text('label').notNull(),
+		tokenHash: text('token_hash').notNull().unique(),
+		prefix: text('prefix').notNull(),
+		createdBy: text('created_by').references(() => users.id),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+		lastUsedAt: timestamp('last_used_at', { withTimezone: true }),
+		revokedAt: timestamp('revoked_at', { withTimezone: true })
+	},
+	(t) => [index('api_tokens_user_idx').on(t.userId)]
+);

@@ -1,0 +1,83 @@
+import { boolean, index, integer, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { roleEnum } from './enums';
+import { organisations } from './organisations';
+
+// Table and column names follow @auth/drizzle-adapter's pg tables so the adapter can use them,
+// extended with Restvolt's role, organisation and password hash.
+export const users = pgTable(
+	'user',
+	{
+		id: text('id')
+			.primaryKey()
+			.$defaultFn(() => crypto.randomUUID()),
+		name: text('name'),
+		email: text('email').notNull().unique(),
+		emailVerified: timestamp('emailVerified', { mode: 'date', withTimezone: true }),
+		image: text('image'),
+		role: roleEnum('role').notNull().default('supplier'),
+		organisationId: uuid('organisation_id').references(() => organisations.id),
+		passwordHash: text('password_hash'),
+		active: boolean('active').notNull().default(true),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [index('user_org_idx').on(t.organisationId)]
+);
+
+export const accounts = pgTable(
+	'account',
+	{
+		userId: text('userId')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		type: text('type').notNull(),
+		provider: text('provider').notNull(),
+		providerAccountId: text('providerAccountId').notNull(),
+		refresh_token: text('refresh_token'),
+		access_token: text('access_token'),
+		expires_at: integer('expires_at'),
+		token_type: text('token_type'),
+		scope: text('scope'),
+		id_token: text('id_token'),
+		session_state: text('session_state')
+	},
+	(t) => [primaryKey({ columns: [t.provider, t.providerAccountId] })]
+);
+
+export const sessions = pgTable('session', {
+	sessionToken: text('sessionToken').primaryKey(),
+	userId: text('userId')
+		.notNull()
+		.references(() => users.id, { onDelete: 'cascade' }),
+	expires: timestamp('expires', { mode: 'date', withTimezone: true }).notNull()
+});
+
+export const verificationTokens = pgTable(
+	'verificationToken',
+	{
+		identifier: text('identifier').notNull(),
+		token: text('token').notNull(),
+		expires: timestamp('expires', { mode: 'date', withTimezone: true }).notNull()
+	},
+	(t) => [primaryKey({ columns: [t.identifier, t.token] })]
+);
+
+/** Password-reset links for staff: only the sha256 of the token is stored. */
+export const passwordResets = pgTable('password_resets', {
+	tokenHash: text('token_hash').primaryKey(),
+	userId: text('user_id')
+		.notNull()
+		.references(() => users.id, { onDelete: 'cascade' }),
+	expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+	usedAt: timestamp('used_at', { withTimezone: true })
+});
+
+/** Failed sign-ins, counted over a sliding window per account and per address (throttle lives in PG). */
+export const signInFailures = pgTable(
+	'sign_in_failures',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		throttleKey: text('throttle_key').notNull(),
+		at: timestamp('at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [index('sign_in_failures_key_at_idx').on(t.throttleKey, t.at)]
+);

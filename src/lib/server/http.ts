@@ -1,0 +1,91 @@
+/**
+ * JSON API conventions: errors are `{"error":{"code","message","issues"?}}` with a 4xx status;
+ * bodies are parsed with zod; authorisation goes through the policy.
+ */
+import { json, type RequestEvent } from '@sveltejs/kit';
+import type { z } from 'zod';
+import { can, type Action, type Resource, type SessionUser } from './policy';
+
+export interface ApiIssue {
+	path: string;
+	message: string;
+}
+
+export class ApiError extends Error {
+	constructor(
+		readonly status: number,
+		readonly code: string,
+		message: string,
+		readonly issues?: ApiIssue[]
+	) {
+		super(message);
+	}
+}
+
+export function errorResponse(error: ApiError): Response {
+	const body = { error: { code: error.code, message: error.message, ...(error.issues ? { issues: error.issues } : {}) } };
+	return json(body, { status: error.status });
+}
+
+export const badRequest = (message: string, issues?: ApiIssue[]) => new ApiError(400, 'bad_request', message, issues);
+export const notFound = (what = 'resource') => new ApiError(404, 'not_found', `${what} not found`);
+export const conflict = (message: string) => new ApiError(409, 'conflict', message);
+export const unprocessable = (message: string, issues?: ApiIssue[]) =>
+	new ApiError(422, 'unprocessable', message, issues);
+
+export function zodIssues(error: z.ZodError): ApiIssue[] {
+	return error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
+}
+
+/** Parse a JSON body against a schema; 400 for unreadable JSON, 422 for a wrong shape. */
+export async function readJson<T extends z.ZodType>(request: Request, schema: T): Promise<z.infer<T>> {
+	let body: unknown;
+	try {
+		body = await request.json();
+	} catch {
+		throw badRequest('The request body is not valid JSON');
+	}
+	return parseWith(schema, body, 'The request body');
+}
+
+export function parseWith<T extends z.ZodType>(schema: T, value: unknown, what: string): z.infer<T> {
+	const parsed = schema.safeParse(value);
+	if (!parsed.success) throw unprocessable(`${what} does not match the expected shape`, zodIssues(parsed.error));
+	return parsed.data;
+}
+
+/** Parse query-string parameters (as an object of strings) against a schema; 400 on failure. */
+export function readQuery<T extends z.ZodType>(url: URL, schema: T): z.infer<T> {
+	const parsed = schema.safeParse(Object.fromEntries(url.searchParams));
+	if (!parsed.success) throw badRequest('The query parameters are not valid', zodIssues(parsed.error));
+	return parsed.data;
+}
+
+/** 401 when nobody is signed in, 403 when the role may not do this. */
+export function authorize(event: Pick<RequestEvent, 'locals'>, action: Action, resource?: Resource): SessionUser {
+	const user = event.locals.user;
+	if (!user) throw new ApiError(401, 'unauthenticated', 'Sign in or send an API token (Authorization: Bearer …)');
+	if (!can(user, action, resource)) throw new ApiError(403, 'forbidden', 'Your role may not do this');
+	return user;
+}
+
+/**
+ * Wrap a handler so ApiErrors become the error shape and nothing unexpected leaks as a 5xx body
+ * with internals (it is logged; the client sees a plain 500).
+ */
+export function api<E extends RequestEvent>(handler: (event: E) => Promise<Response> | Response) {
+	return async (event: E): Promise<Response> => {
+		try {
+			return await handler(event);
+		} catch (error) {
+			if (error instanceof ApiError) return errorResponse(error);
+			if (isKitResponse(error)) throw error;
+			console.error(`[api] ${event.request.method} ${event.url.pathname}`, error);
+			return errorResponse(new ApiError(500, 'internal', 'Something went wrong on the server'));
+		}
+	};
+}
+
+function isKitResponse(error: unknown): boolean {
+	return typeof error === 'object' && error !== null && 'status' in error && ('location' in error || 'body' in error);
+}

@@ -1,0 +1,2 @@
+// PLACEHOLDER — replaced by the outbox worker (notices issue).
+export function startOutboxWorker(): void {}

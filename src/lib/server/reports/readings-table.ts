@@ -1,0 +1,48 @@
+import type { PDFPage } from 'pdf-lib';
+import { paragraph } from './blocks';
+import { fixed, millivolts, MISSING } from './format';
+import type { Cursor } from './layout';
+import { palette } from './palette';
+import { cross } from './shapes';
+import { drawTable, type Column } from './table';
+import type { ReportUnit } from './types';
+
+/** SOC with its 1σ spread, or the plausible range when the OCV curve is too flat to decide. */
+export function socCell(unit: ReportUnit): string {
+	if (!unit.determinate) return `indeterminate ${fixed(unit.soc_low * 100, 0)}–${fixed(unit.soc_high * 100, 0)}`;
+	return `${fixed(unit.soc * 100, 1)} ± ${fixed(unit.soc_sigma * 100, 1)}`;
+}
+
+export function flagsCell(unit: ReportUnit): string {
+	const flags = unit.flags.join(', ');
+	if (unit.nonconforming) return flags ? `NC: ${flags}` : 'NC';
+	return flags || MISSING;
+}
+
+const COLUMNS: Column<ReportUnit>[] = [
+	{ title: '#', weight: 4.5, align: 'right', cell: (_u, i) => String(i + 1) },
+	{ title: 'serial', weight: 12, align: 'left', cell: (u) => u.serial },
+	{ title: 'OCV V', weight: 8, align: 'right', cell: (u) => fixed(u.ocv_v, 3) },
+	{ title: 'T °C', weight: 6, align: 'right', cell: (u) => fixed(u.temperature_c, 1) },
+	{ title: 'cell V @25 °C', weight: 10.5, align: 'right', cell: (u) => fixed(u.ocv_at_25c_v, 4) },
+	{ title: 'SOC % ± σ', weight: 13, align: 'right', cell: socCell },
+	{ title: 'expected V', weight: 8.5, align: 'right', cell: (u) => fixed(u.expected_ocv_v, 4) },
+	{ title: 'residual mV', weight: 9, align: 'right', cell: (u) => millivolts(u.residual_v, 1) },
+	{ title: 'flags', weight: 22.5, align: 'left', cell: flagsCell }
+];
+
+/** Nonconforming rows get a cross in the margin and a faint tint: shape and the "NC" word, not colour alone. */
+function markNonconforming(page: PDFPage, unit: ReportUnit, box: { x: number; y: number; width: number; height: number }): void {
+	if (!unit.nonconforming) return;
+	page.drawRectangle({ ...box, color: palette.rejectMist });
+	cross(page, box.x + 4, box.y + box.height / 2, 2.2, palette.reject, 1);
+}
+
+export function drawReadingsTable(cursor: Cursor, units: ReportUnit[]): void {
+	if (units.length === 0) {
+		paragraph(cursor, 'No readings recorded for this lot yet.', { size: 9, color: palette.inkSoft });
+		cursor.gap(8);
+		return;
+	}
+	drawTable(cursor, COLUMNS, units, { decorate: markNonconforming, continuedTitle: 'Readings (continued)' });
+}

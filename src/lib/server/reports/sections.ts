@@ -1,0 +1,100 @@
+import { pairColumns, paragraph, type Pair } from './blocks';
+import { dateTime, fixed, millivolts, percent, MISSING } from './format';
+import { sectionTitle, type Cursor } from './layout';
+import { palette } from './palette';
+import type { ReportData } from './types';
+
+export function drawLotSection(cursor: Cursor, data: ReportData): void {
+	const { lot, supplier, part } = data;
+	sectionTitle(cursor, 'Lot, supplier and part');
+	const left: Pair[] = [
+		['Lot code', lot.lot_code],
+		['PO number', lot.po_number],
+		['Lot status', lot.status],
+		['Quantity', `${lot.quantity} units`],
+		['Declared SOC', percent(lot.declared_soc)],
+		['Transport', lot.transport],
+		['UN number', lot.un_number ?? MISSING],
+		['Received', dateTime(lot.received_at)],
+		['Registered', dateTime(lot.created_at)]
+	];
+	const right: Pair[] = [
+		['Supplier', supplier.name],
+		['Part number', part.part_number],
+		['Description', part.description || MISSING],
+		['Chemistry', part.chemistry],
+		['Configuration', `${part.cells_in_series}S${part.cells_in_parallel}P`],
+		['Nominal capacity', `${fixed(part.nominal_capacity_ah, 2)} Ah`],
+		['Buyer', data.company.name]
+	];
+	pairColumns(cursor, left, right);
+}
+
+export function drawPlanSection(cursor: Cursor, data: ReportData): void {
+	sectionTitle(cursor, 'Sampling plan (ISO 2859-1)');
+	const { plan } = data;
+	if (!plan) {
+		paragraph(cursor, `No sampling plan recorded. Inspection severity: ${data.severity}.`, { size: 9, color: palette.ink });
+		cursor.gap(8);
+		return;
+	}
+	const size = plan.hundred_percent ? `${plan.sample_size} (100 % inspection)` : String(plan.sample_size);
+	const left: Pair[] = [
+		['Code letter', plan.code_letter],
+		['Plan code letter', plan.plan_code_letter],
+		['Inspection level', plan.level],
+		['Severity', data.severity]
+	];
+	const right: Pair[] = [
+		['Sample size n', size],
+		['Ac / Re', `${plan.accept} / ${plan.reject}`],
+		['AQL', `${plan.aql} %`]
+	];
+	pairColumns(cursor, left, right);
+}
+
+export function drawStatsSection(cursor: Cursor, data: ReportData): void {
+	sectionTitle(cursor, 'Statistics (cell OCV corrected to 25 °C)');
+	const { stats, variables } = data;
+	if (!stats) {
+		paragraph(cursor, 'No statistics: no readings recorded.', { size: 9, color: palette.inkSoft });
+		cursor.gap(8);
+	} else {
+		const left: Pair[] = [
+			['Units measured', String(stats.count)],
+			['Mean', `${fixed(stats.mean, 4)} V`],
+			['Standard deviation', `${millivolts(stats.sd, 1)} mV`],
+			['Median', `${fixed(stats.median, 4)} V`]
+		];
+		const right: Pair[] = [
+			['MAD', `${millivolts(stats.mad, 1)} mV`],
+			['Minimum', `${fixed(stats.min, 4)} V`],
+			['Maximum', `${fixed(stats.max, 4)} V`],
+			['Range', `${millivolts(stats.range, 1)} mV`]
+		];
+		pairColumns(cursor, left, right);
+	}
+	if (variables) {
+		paragraph(cursor, `Variables check (${variables.method}): ${variables.result}. ${variables.detail}`, { size: 9, color: palette.ink });
+		cursor.gap(6);
+	}
+}
+
+export function drawModelSection(cursor: Cursor, data: ReportData): void {
+	sectionTitle(cursor, 'Model and decision');
+	const { model, decision } = data;
+	const left: Pair[] = [
+		['Model version', model.version],
+		['Model chemistry', model.chemistry],
+		['Model source', model.source]
+	];
+	const right: Pair[] = decision
+		? [
+				['Decided by', decision.kind === 'automatic' ? `automatic (${decision.by})` : decision.by],
+				['Decided at', dateTime(decision.at)],
+				['Kind', decision.kind],
+				['Override reason', decision.reason ?? MISSING]
+			]
+		: [['Decided by', 'no decision recorded yet']];
+	pairColumns(cursor, left, right);
+}

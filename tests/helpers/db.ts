@@ -1,0 +1,39 @@
+/**
+ * Each test file gets its own database, copied from the migrated and seeded template, so files
+ * cannot disturb each other and every file starts from the demo scenario.
+ */
+import pg from 'pg';
+import { randomBytes } from 'node:crypto';
+import { testEnv } from './env';
+
+export async function freshDatabase(label = 'db'): Promise<{ url: string; name: string; drop: () => Promise<void> }> {
+	const { pgUrl, templateDb } = testEnv();
+	const name = `t_${label.replace(/\W/g, '_').slice(0, 30)}_${randomBytes(4).toString('hex')}`;
+	await admin(`create database "${name}" template "${templateDb}"`);
+	return {
+		url: `${pgUrl}/${name}`,
+		name,
+		drop: () => admin(`drop database if exists "${name}" with (force)`)
+	};
+}
+
+async function admin(sql: string) {
+	const client = new pg.Client({ connectionString: `${testEnv().pgUrl}/postgres` });
+	await client.connect();
+	try {
+		await client.query(sql);
+	} finally {
+		await client.end();
+	}
+}
+
+/** A short-lived client for assertions on the database. */
+export async function withClient<T>(url: string, fn: (client: pg.Client) => Promise<T>): Promise<T> {
+	const client = new pg.Client({ connectionString: url });
+	await client.connect();
+	try {
+		return await fn(client);
+	} finally {
+		await client.end();
+	}
+}

@@ -1,0 +1,83 @@
+import { describe, expect, it } from 'vitest';
+import { renderInspectionReport } from '../../../src/lib/server/reports/pdf';
+import { makeReport } from './fixtures';
+import { pdfFonts, pdfInfo, pdfText, writeTemp } from './poppler';
+
+// Fixture data is invented (see fixtures.ts); the checks read the PDF back with poppler-utils.
+describe('renderInspectionReport', () => {
+	it('writes a multi-page A4 report with Restvolt metadata', async () => {
+		const data = makeReport();
+		const file = writeTemp('report.pdf', await renderInspectionReport(data));
+		const info = pdfInfo(file);
+		expect(Number(info.Pages)).toBeGreaterThanOrEqual(2);
+		// ISO 216: A4 is 210 × 297 mm = 595.28 × 841.89 pt at 72 pt per inch (25.4 mm).
+		expect(info['Page size']).toMatch(/^595\.28 x 841\.89 pts/);
+		expect(info.Author).toBe('Restvolt');
+		expect(info.Title).toContain(data.lot.lot_code);
+		expect(info.Subject).toContain(data.supplier.name);
+	});
+
+	it('keeps all text extractable, with the lot code and the disposition word', async () => {
+		const data = makeReport();
+		const file = writeTemp('report.pdf', await renderInspectionReport(data));
+		const text = pdfText(file);
+		expect(text).toContain(data.lot.lot_code);
+		expect(text).toContain('REJECT');
+		expect(text).toContain('SAFETY');
+		expect(text).toContain('SOC % ± σ');
+		expect(text).toMatch(/no more than 30 % SOC/);
+	});
+
+	it('lists every unit exactly once across the pages, the last one on the last page', async () => {
+		const data = makeReport();
+		const file = writeTemp('report.pdf', await renderInspectionReport(data));
+		const pages = Number(pdfInfo(file).Pages);
+		const text = pdfText(file);
+		const named = new Set(data.disposition.reasons.flatMap((r) => r.units ?? []));
+		for (const unit of data.units) {
+			// once in the table, plus once where a reason names the unit
+			expect(text.split(unit.serial).length - 1, unit.serial).toBe(named.has(unit.serial) ? 2 : 1);
+		}
+		const lastSerial = data.units.at(-1)!.serial;
+		expect(pdfText(file, pages)).toContain(lastSerial);
+	});
+
+	it('numbers every page as "page x of y"', async () => {
+		const file = writeTemp('report.pdf', await renderInspectionReport(makeReport()));
+		const pages = Number(pdfInfo(file).Pages);
+		for (let page = 1; page <= pages; page++) expect(pdfText(file, page)).toContain(`page ${page} of ${pages}`);
+	});
+
+	it('embeds only the shipped Roboto Flex faces', async () => {
+		const file = writeTemp('report.pdf', await renderInspectionReport(makeReport()));
+		const rows = pdfFonts(file).split('\n').slice(2).filter(Boolean);
+		expect(rows.length).toBeGreaterThan(0);
+		for (const row of rows) {
+			expect(row).toMatch(/^RobotoFlex/);
+			expect(row).toMatch(/\byes\b/); // the "emb" column
+		}
+	});
+
+	it('shows HOLD for a held lot and formats readings to the instrument precision', async () => {
+		const data = makeReport(
+			{ disposition: { status: 'hold', safety: false, nonconforming: 0, reasons: [{ code: 'SOC_HIGH', severity: 'hold', message: 'Estimated SOC is above the declared value.' }] }, decision: null },
+			12
+		);
+		const file = writeTemp('hold.pdf', await renderInspectionReport(data));
+		const text = pdfText(file);
+		expect(text).toContain('HOLD');
+		expect(text).not.toContain('REJECT');
+		expect(text).toContain('no decision recorded yet');
+		expect(text).toContain(data.units[0].ocv_v.toFixed(3)); // OCV to 1 mV
+		expect(Number(pdfInfo(file).Pages)).toBeGreaterThanOrEqual(1);
+	});
+
+	it('renders a lot without readings, plan or statistics', async () => {
+		const data = makeReport({ plan: null, stats: null, variables: null, disposition: { status: 'pending', safety: false, nonconforming: 0, reasons: [] } }, 0);
+		const file = writeTemp('empty.pdf', await renderInspectionReport(data));
+		const text = pdfText(file);
+		expect(text).toContain('PENDING');
+		expect(text).toContain('No readings recorded yet');
+		expect(text).toContain('No sampling plan recorded');
+	});
+});
