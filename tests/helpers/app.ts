@@ -4,7 +4,6 @@
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { resolve } from 'node:path';
-// @ts-expect-error plain ESM helper shared with the start scripts
 import { freePort, waitForHttp } from '../../scripts/lib/proc.mjs';
 import { testEnv } from './env';
 

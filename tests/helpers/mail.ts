@@ -1,6 +1,5 @@
 /** Reads what the local SMTP peer received (its HTTP reader), and runs private peers for fault tests. */
 import { testEnv } from './env';
-// @ts-expect-error plain ESM helper shared with the start scripts
 import { startMailPeer } from '../../scripts/lib/mail-peer.mjs';
 
 export interface ReceivedMail {
@@ -50,5 +49,5 @@ export interface PrivatePeer {
 /** A mail peer of the test's own (e.g. to stop and start it during a fault test). */
 export async function startPrivatePeer(smtpPort: number, httpPort: number, dir: string): Promise<PrivatePeer> {
 	const peer = await startMailPeer({ smtpPort, httpPort, dir, log: () => {} });
-	return { smtpPort, httpUrl: `http://127.0.0.1:${httpPort}`, stop: () => peer.stop() };
+	return { smtpPort, httpUrl: `http://127.0.0.1:${httpPort}`, stop: async () => void (await peer.stop()) };
 }

@@ -19,14 +19,24 @@ export interface CurvePoint {
 export const EPSILON_GRID = [0.0005, 0.001, 0.002, 0.005, 0.01, 0.02, 0.03, 0.05, 0.08] as const;
 const MIN_POINTS = 6;
 
-/** Weighted linear least squares via QR; null when the design matrix is rank deficient. */
+const RANK_TOLERANCE = 1e-10;
+
+/**
+ * Weighted linear least squares via QR; null when the design matrix is (numerically) rank deficient.
+ * Columns are scaled to unit norm first so the rank test on diag(R) is scale-free.
+ */
 export function leastSquares(rows: number[][], target: number[], weights?: number[]): number[] | null {
 	const w = weights ?? target.map(() => 1);
 	const a = new Matrix(rows.map((r, i) => r.map((v) => v * Math.sqrt(w[i]))));
+	const norms = Array.from({ length: a.columns }, (_, j) => a.getColumnVector(j).norm());
+	if (norms.some((n) => !(n > 0) || !Number.isFinite(n))) return null;
+	for (let j = 0; j < a.columns; j++) a.setColumn(j, a.getColumn(j).map((v) => v / norms[j]));
 	const b = Matrix.columnVector(target.map((v, i) => v * Math.sqrt(w[i])));
 	const qr = new QrDecomposition(a);
-	if (!qr.isFullRank()) return null;
-	return qr.solve(b).getColumn(0);
+	const r = qr.upperTriangularMatrix;
+	const diag = Array.from({ length: a.columns }, (_, j) => Math.abs(r.get(j, j)));
+	if (Math.min(...diag) <= RANK_TOLERANCE * Math.max(...diag)) return null;
+	return qr.solve(b).getColumn(0).map((x, j) => x / norms[j]);
 }
 
 export function residualStats(fn: FormFunctions, points: CurvePoint[]): { rmse_v: number; max_error_v: number } {

@@ -84,8 +84,11 @@ export function jarqueBera(m: Moments): number | null {
 /** χ²(2) upper 1 % point: −2·ln(0.01). */
 export const JB_CRITICAL_1PCT = -2 * Math.log(0.01);
 export const BC_THRESHOLD = 5 / 9;
-/** Below this many values the shape statistics are too noisy to warn on (our choice). */
-export const NORMALITY_MIN_N = 8;
+/**
+ * Below this many values skewness/kurtosis are too noisy to warn on (our choice): with a dozen values
+ * even a normal or evenly spread sample often shows BC > 5/9.
+ */
+export const NORMALITY_MIN_N = 20;
 
 export interface VariablesCheck {
 	status: 'accept' | 'reject' | 'not_applicable';

@@ -50,14 +50,15 @@ describe('fitCombinedModel', () => {
 		expect(fit.error).toMatch(/not increasing/);
 	});
 
-	it('rejects a curve with a dip in the middle', () => {
-		// a local maximum makes OCV → SOC two-valued (not invertible)
-		const pts = Array.from({ length: 21 }, (_, i) => {
-			const z = i / 20;
-			return { soc: z, ocv_v: 3.6 + 0.5 * z - 0.4 * Math.exp(-((z - 0.5) ** 2) / 0.005) + 0.4 * Math.exp(-((z - 0.3) ** 2) / 0.005) };
-		});
-		const fit = fitCombinedModel({ chemistry: 'NMC', temperature_c: 25, points: pts, epsilon: 0.01 });
+	it.each([
+		['an S-bend that turns back at both ends', (z: number) => 3.7 + 0.3 * (z - 0.5) - 2 * (z - 0.5) ** 3],
+		['a hump in the middle', (z: number) => 3.5 + 0.5 * z + 0.3 * Math.sin(3 * Math.PI * z)]
+	])('rejects %s', (_label, f) => {
+		// a local maximum makes OCV → SOC two-valued, so the curve cannot be inverted
+		const pts = Array.from({ length: 21 }, (_, i) => ({ soc: i / 20, ocv_v: f(i / 20) }));
+		const fit = fitCombinedModel({ chemistry: 'NMC', temperature_c: 25, points: pts });
 		expect(fit.ok).toBe(false);
+		expect(fit.monotonic).toBe(false);
 		expect(fit.model).toBeNull();
 	});
 
@@ -68,7 +69,7 @@ describe('fitCombinedModel', () => {
 		['unknown chemistry', { chemistry: 'XYZ', points: curve(getLibraryModel('NMC'), 25, 11) }]
 	])('rejects bad input: %s', (_label, patch) => {
 		// five parameters need more than five distinct points; SOC is a fraction in [0, 1]
-		const input = { chemistry: 'NMC', temperature_c: 25, points: [] as Array<{ soc: number; ocv_v: number }>, ...patch };
+		const input = { chemistry: 'NMC', temperature_c: 25, ...patch };
 		const fit = fitCombinedModel(input as Parameters<typeof fitCombinedModel>[0]);
 		expect(fit.ok).toBe(false);
 		expect(fit.error).toBeTruthy();

@@ -132,7 +132,7 @@ describe('arrows, 100 % inspection and validation', () => {
 	});
 });
 
-describe('two transcriptions of Table II-A agree', () => {
+describe('two encodings of Table II-A agree', () => {
 	it('explicit grid equals the diagonal-structure table in all 16 × 26 cells', () => {
 		expect(NORMAL_GRID).toHaveLength(16);
 		let compared = 0;

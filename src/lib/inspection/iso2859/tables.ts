@@ -1,7 +1,7 @@
 // Single sampling tables by attributes.
 // Source: MIL-STD-105E (10 May 1989), Table I (sample size code letters), Tables II-A (normal),
 // II-B (tightened) and II-C (reduced). The same plans appear in ANSI/ASQ Z1.4 and ISO 2859-1
-// (Tables 1, 2-A, 2-B, 2-C). Transcribed from memory, then cross-checked two ways:
+// (Tables 1, 2-A, 2-B, 2-C). Written out from memory, then cross-checked two ways:
 //   1. Table II-A is typed out below row by row as an explicit grid (NORMAL_GRID), and
 //   2. all three master tables are also generated from the standard's diagonal structure
 //      (DIAGONAL_SEQUENCE): along a diagonal of constant (letter index + AQL index), i.e. roughly
@@ -63,7 +63,7 @@ export function tableOneLetter(lotSize: number, level: InspectionLevel): CodeLet
 /** A table cell: an Ac/Re pair, or an arrow to the first plan below ('down') or above ('up'). */
 export type Cell = { ac: number; re: number } | 'down' | 'up';
 
-// ---- Transcription 1: Table II-A as an explicit grid -------------------------------------------------
+// ---- Encoding 1: Table II-A as an explicit grid -------------------------------------------------
 // One string per letter A..R, 26 cells for AQL 0.010..1000. Tokens: "v" = arrow down, "^" = arrow up,
 // "vN"/"^N" = N arrows in a row, "a/r" = Ac/Re.
 const NORMAL_GRID_ROWS: readonly string[] = [
@@ -100,10 +100,10 @@ function parseGridRow(row: string): Cell[] {
 	return cells;
 }
 
-/** Table II-A, explicit transcription: NORMAL_GRID[letterIndex][aqlIndex]. */
+/** Table II-A, explicit encoding: NORMAL_GRID[letterIndex][aqlIndex]. */
 export const NORMAL_GRID: readonly (readonly Cell[])[] = NORMAL_GRID_ROWS.map(parseGridRow);
 
-// ---- Transcription 2: the diagonal structure -------------------------------------------------------
+// ---- Encoding 2: the diagonal structure -------------------------------------------------------
 // Diagonal index d = letterIndex + aqlIndex (A = 0, AQL 0.010 = 0). Below FIRST_DIAGONAL every cell is
 // an arrow down; after the listed cells every cell is an arrow up. The last `wideOnly` pairs
 // (Ac >= 30-ish) exist only in rows A..E (n <= 13 on normal), i.e. for nonconformities per 100 units.

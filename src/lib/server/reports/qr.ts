@@ -33,7 +33,7 @@ export function drawQr(page: PDFPage, text: string, x: number, y: number, side: 
 	for (const run of runs) {
 		page.drawRectangle({
 			x: originX + run.col * module,
-			y: y + QUIET_MODULES * module + run.row * module,
+			y: topY - (run.row + 1) * module,
 			width: run.length * module,
 			height: module,
 			color
