@@ -1,9 +1,204 @@
-// PLACEHOLDER — replaced by the Auth.js integration (sign-in issue).
-import type { Handle } from '@sveltejs/kit';
+/**
+ * Auth.js for Restvolt: staff sign in with e-mail + password (argon2id), supplier users with an
+ * e-mailed one-time link. Sessions are JWT cookies; who the person is *now* (role, organisation,
+ * still active?) is read from the database on every request in `resolveUser`, so a role change
+ * or deactivation takes effect at once. The API also accepts `Authorization: Bearer <token>`.
+ *
+ * Auth.js's own POST endpoints are closed: sign-in goes through /signin's form actions, which
+ * throttle and audit, and call `signInWith` below.
+ */
+import { isRedirect, redirect, type Handle, type RequestEvent } from '@sveltejs/kit';
+import { SvelteKitAuth, CredentialsSignin, type SvelteKitAuthConfig } from '@auth/sveltekit';
+import Credentials from '@auth/sveltekit/providers/credentials';
+import Nodemailer from '@auth/sveltekit/providers/nodemailer';
+import { DrizzleAdapter } from '@auth/drizzle-adapter';
+import { env } from '$env/dynamic/private';
+import { getDb } from './db';
+import { accounts, sessions, users, verificationTokens } from './db/schema';
+import { activeSessionUser } from './services/users';
+import { checkStaffPassword, recordSignIn, sendMail, supplierMayUseLink } from './services/sign-in';
+import { userForToken } from './services/tokens';
+import type { Role } from '$lib/roles';
 
-export const authHandle: Handle = ({ event, resolve }) => resolve(event);
-export const resolveUser: Handle = ({ event, resolve }) => {
+export const LINK_MINUTES = 30;
+
+/** A refused sign-in because of too many failures; the page shows the throttle message. */
+class TooManyAttempts extends CredentialsSignin {
+	code = 'throttled';
+}
+
+export function clientAddress(event: RequestEvent): string {
+	try {
+		return event.getClientAddress();
+	} catch {
+		return 'unknown';
+	}
+}
+
+function config(event: RequestEvent): SvelteKitAuthConfig {
+	const address = clientAddress(event);
+	return {
+		adapter: DrizzleAdapter(getDb(), {
+			usersTable: users,
+			accountsTable: accounts,
+			sessionsTable: sessions,
+			verificationTokensTable: verificationTokens
+		}),
+		session: { strategy: 'jwt', maxAge: 12 * 60 * 60 },
+		trustHost: env.AUTH_TRUST_HOST === 'true',
+		secret: env.AUTH_SECRET,
+		pages: { signIn: '/signin', verifyRequest: '/signin/link-sent', error: '/signin' },
+		logger: {
+			// A wrong password is an expected outcome, not a server error.
+			error: (error) => {
+				if (!(error instanceof CredentialsSignin)) console.error('[auth]', error);
+			}
+		},
+		providers: [
+			Credentials({
+				id: 'credentials',
+				credentials: { email: {}, password: {} },
+				authorize: async (credentials) => {
+					const email = String(credentials.email ?? '');
+					const password = String(credentials.password ?? '');
+					if (!email || !password) return null;
+					const result = await checkStaffPassword({ email, password, address });
+					if (!result.ok && result.reason === 'throttled') throw new TooManyAttempts();
+					return result.ok ? { id: result.user.id, email: result.user.email, name: result.user.name } : null;
+				}
+			}),
+			Nodemailer({
+				server: env.SMTP_URL ?? 'smtp://127.0.0.1:25',
+				from: env.MAIL_FROM,
+				maxAge: LINK_MINUTES * 60,
+				sendVerificationRequest: ({ identifier, url }) =>
+					sendMail(identifier, 'Your Restvolt sign-in link', [
+						'Hello,',
+						'',
+						`Open this link within ${LINK_MINUTES} minutes to sign in to the Restvolt supplier portal (it works once):`,
+						'',
+						url,
+						'',
+						'If you did not ask for it, ignore this message; nobody can sign in without the link.'
+					])
+			})
+		],
+		callbacks: {
+			// The e-mail link is for active supplier users only, both when sending and when following it.
+			signIn: async ({ user, account }) => {
+				if (account?.provider === 'nodemailer') return !!user.email && (await supplierMayUseLink(user.email));
+				return true;
+			},
+			jwt: async ({ token, user }) => {
+				if (user?.id) {
+					const fresh = await activeSessionUser(user.id);
+					if (!fresh) return null;
+					token.sub = fresh.id;
+					token.role = fresh.role;
+					token.organisationId = fresh.organisationId;
+				}
+				return token;
+			},
+			session: ({ session, token }) => {
+				session.user = {
+					...session.user,
+					id: String(token.sub),
+					role: token.role as Role,
+					organisationId: (token.organisationId as string | null) ?? null
+				};
+				return session;
+			}
+		},
+		events: {
+			signIn: async ({ user, account }) => {
+				if (user.id && user.email) await recordSignIn({ id: user.id, email: user.email }, account?.provider ?? 'unknown', address);
+			}
+		}
+	};
+}
+
+const auth = SvelteKitAuth(async (event) => config(event));
+
+/** Auth.js's routes under /auth (the e-mail link callback, session), minus its POST endpoints. */
+export const authHandle: Handle = async (input) => {
+	const { request, url } = input.event;
+	if (request.method === 'POST' && url.pathname.startsWith('/auth/')) {
+		return new Response('Sign in at /signin', { status: 404 });
+	}
+	return auth.handle(input);
+};
+
+/** Rebuild the request with these fields: superforms has already read the original body. */
+function withForm(event: RequestEvent, fields: Record<string, string>): RequestEvent {
+	const body = new FormData();
+	for (const [key, value] of Object.entries(fields)) body.set(key, value);
+	const headers = new Headers(event.request.headers);
+	headers.delete('content-type');
+	headers.delete('content-length');
+	return { ...event, request: new Request(event.request.url, { method: 'POST', headers, body }) };
+}
+
+export type SignInOutcome = 'invalid' | 'throttled' | 'refused';
+
+/**
+ * Sign in through Auth.js from a form action. On success this throws a 303 redirect to
+ * `redirectTo` (or, for the e-mail provider, to the "link sent" page); otherwise it says why not.
+ */
+export async function signInWith(
+	event: RequestEvent,
+	provider: 'credentials' | 'nodemailer',
+	fields: Record<string, string> & { redirectTo: string }
+): Promise<SignInOutcome> {
+	try {
+		await auth.signIn(withForm(event, { providerId: provider, ...fields }));
+	} catch (error) {
+		if (isRedirect(error)) redirect(303, error.location);
+		if (error instanceof CredentialsSignin) return error.code === 'throttled' ? 'throttled' : 'invalid';
+		if (error instanceof Error && error.name === 'AccessDenied') return 'refused';
+		throw error;
+	}
+	return 'refused';
+}
+
+/** Clear the session cookie (Auth.js sign-out), then go to `redirectTo` with a 303. */
+export async function signOutOf(event: RequestEvent, redirectTo: string): Promise<never> {
+	try {
+		await auth.signOut(withForm(event, { redirectTo }));
+	} catch (error) {
+		if (!isRedirect(error)) throw error;
+	}
+	redirect(303, redirectTo);
+}
+
+function bearerToken(request: Request): string | null | undefined {
+	const header = request.headers.get('authorization');
+	if (header === null) return undefined;
+	const match = /^Bearer\s+(\S+)\s*$/i.exec(header);
+	return match ? match[1] : null;
+}
+
+/**
+ * Sets `locals.user` and `locals.authMethod`. An Authorization header on an API call decides
+ * alone (no falling back to the cookie); otherwise the Auth.js session, re-checked in the DB.
+ */
+export const resolveUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	event.locals.authMethod = null;
+	const token = bearerToken(event.request);
+	if (token !== undefined && event.url.pathname.startsWith('/api/')) {
+		const user = token ? await userForToken(token) : null;
+		if (user) {
+			event.locals.user = user;
+			event.locals.authMethod = 'token';
+		}
+		return resolve(event);
+	}
+	const session = await event.locals.auth();
+	const id = session?.user?.id;
+	const user = id ? await activeSessionUser(id) : null;
+	if (user) {
+		event.locals.user = user;
+		event.locals.authMethod = 'session';
+	}
 	return resolve(event);
 };

@@ -1,0 +1,98 @@
+/**
+ * Request shapes of the electrochemistry API and the model pages. The readings array of
+ * /ocv/evaluate is checked by a hand-written loop (readingsIssues) instead of a per-element zod
+ * object: the call carries up to 10,000 readings and must stay close to a static file in speed.
+ */
+import { z } from 'zod';
+import { CHEMISTRY_CODES, type ChemistryCode, type ReadingInput } from '$lib/electrochem';
+
+export const MAX_READINGS = 10_000;
+export const MAX_CURVE_POINTS = 5_000;
+
+// zod 4's z.number() already refuses NaN and ±Infinity.
+const finite = () => z.number();
+const celsius = () => finite().gt(-273.15, 'must be above absolute zero (−273.15 °C)');
+
+export const chemistryCode = z.enum(CHEMISTRY_CODES as [ChemistryCode, ...ChemistryCode[]], {
+	error: `must be one of ${CHEMISTRY_CODES.join(', ')}`
+});
+
+export const cellPotentialBody = z.object({
+	e0_v: finite(),
+	n: z.number().int('must be a whole number of electrons').positive(),
+	temperature_c: celsius(),
+	q: finite().positive('must be > 0 (a reaction quotient)')
+});
+
+export const curveQuery = z.object({
+	temperature_c: z.coerce.number().pipe(celsius()).default(25),
+	points: z.coerce.number().int().min(2).max(1001).default(101)
+});
+
+/** Everything of an evaluate body except the readings themselves. */
+export const evaluateHeader = z.object({
+	chemistry: chemistryCode,
+	cells_in_series: z.number().int().positive().max(1000).optional(),
+	declared_soc: finite().min(0).max(1).nullable().optional(),
+	meter_accuracy_v: finite().min(0).max(10).optional(),
+	readings: z.array(z.unknown()).min(1, 'at least one reading is needed')
+});
+
+export interface ReadingIssue {
+	path: string;
+	message: string;
+}
+
+const MAX_REPORTED_ISSUES = 20;
+
+/** Each reading must be {ocv_v ≥ 0, temperature_c > −273.15}, both finite numbers. */
+export function readingsIssues(readings: unknown[]): ReadingIssue[] {
+	const issues: ReadingIssue[] = [];
+	for (let i = 0; i < readings.length && issues.length < MAX_REPORTED_ISSUES; i++) {
+		const r = readings[i] as Partial<ReadingInput> | null;
+		if (typeof r !== 'object' || r === null || Array.isArray(r)) {
+			issues.push({ path: `readings.${i}`, message: 'must be an object {ocv_v, temperature_c}' });
+			continue;
+		}
+		const v = r.ocv_v;
+		const t = r.temperature_c;
+		if (typeof v !== 'number' || !Number.isFinite(v)) issues.push({ path: `readings.${i}.ocv_v`, message: 'must be a finite number (V)' });
+		else if (v < 0) issues.push({ path: `readings.${i}.ocv_v`, message: 'must be >= 0 V (check the probe polarity)' });
+		if (typeof t !== 'number' || !Number.isFinite(t)) issues.push({ path: `readings.${i}.temperature_c`, message: 'must be a finite number (°C)' });
+		else if (t <= -273.15) issues.push({ path: `readings.${i}.temperature_c`, message: 'must be above absolute zero (−273.15 °C)' });
+	}
+	return issues;
+}
+
+export const curvePoint = z.object({
+	soc: finite().min(0).max(1),
+	ocv_v: finite().positive()
+});
+
+export const fitBody = z.object({
+	chemistry: chemistryCode,
+	temperature_c: celsius(),
+	points: z.array(curvePoint).min(6, 'at least 6 points are needed').max(MAX_CURVE_POINTS)
+});
+
+/** Saving a fitted version: the server refits from the points, so stored parameters are its own. */
+export const saveModelBody = fitBody.extend({
+	label: z.string().trim().max(80).optional()
+});
+
+export const modelListQuery = z.object({
+	chemistry: chemistryCode.optional(),
+	status: z.enum(['approved', 'awaiting_approval']).optional()
+});
+
+/** The page's save form: the pasted (or uploaded) CSV travels as text and is parsed on the server too. */
+export const saveFitForm = z.object({
+	chemistry: chemistryCode,
+	temperature_c: celsius().default(25),
+	csv: z.string().min(1, 'paste or upload a reference curve first').max(400_000),
+	label: z.string().trim().max(80).default('')
+});
+
+export const approveForm = z.object({
+	id: z.uuid()
+});

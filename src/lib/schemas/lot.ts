@@ -1,0 +1,169 @@
+/**
+ * Lot registration: one set of field rules shared by the register form (declared SOC in %), the
+ * JSON API (declared SOC as a fraction 0–1) and the service.
+ */
+import { z } from 'zod';
+
+export const TRANSPORTS = ['air', 'sea', 'road', 'rail'] as const;
+export type TransportMode = (typeof TRANSPORTS)[number];
+export const TRANSPORT_LABEL: Record<TransportMode, string> = { air: 'Air', sea: 'Sea', road: 'Road', rail: 'Rail' };
+
+export const LOT_STATUSES = [
+	'draft',
+	'awaiting_arrival',
+	'in_inspection',
+	'pending_decision',
+	'accepted',
+	'on_hold',
+	'rejected',
+	'cancelled'
+] as const;
+export type LotStatus = (typeof LOT_STATUSES)[number];
+
+/** Lithium chemistries (library codes) and the UN numbers their shipments travel under. */
+export const LITHIUM_ION_CHEMISTRIES = ['LCO', 'NMC', 'NCA', 'LMO', 'LFP', 'LTO'] as const;
+export const LITHIUM_METAL_CHEMISTRIES = ['LIMNO2', 'LISOCL2'] as const;
+const UN_FOR = {
+	ion: ['UN3480', 'UN3481'],
+	metal: ['UN3090', 'UN3091']
+} as const;
+
+export const isLithiumIon = (chemistry: string) => (LITHIUM_ION_CHEMISTRIES as readonly string[]).includes(chemistry);
+export const isLithiumMetal = (chemistry: string) => (LITHIUM_METAL_CHEMISTRIES as readonly string[]).includes(chemistry);
+export const isLithium = (chemistry: string) => isLithiumIon(chemistry) || isLithiumMetal(chemistry);
+
+/** The air-transport SOC ceiling for lithium-ion cells/batteries packed alone (UN 3480), as a fraction. */
+export const AIR_LITHIUM_ION_SOC_LIMIT = 0.3;
+
+export const UN_NUMBER_PATTERN = /^UN\d{4}$/;
+
+/**
+ * Why the UN number does not fit the part's chemistry, or null when it fits. Lithium shipments need
+ * one of the lithium UN numbers (UN3480/3481 ion, UN3090/3091 metal); other chemistries may leave it empty.
+ */
+export function unNumberProblem(chemistry: string, unNumber: string | null | undefined): string | null {
+	const value = unNumber?.trim() ? unNumber.trim() : null;
+	if (value && !UN_NUMBER_PATTERN.test(value)) return 'Write the UN number as UN followed by four digits, e.g. UN3480';
+	const allowed = isLithiumIon(chemistry) ? UN_FOR.ion : isLithiumMetal(chemistry) ? UN_FOR.metal : null;
+	if (!allowed) return null;
+	if (!value) return `A lithium shipment needs its UN number (${allowed.join(' or ')})`;
+	if (!(allowed as readonly string[]).includes(value)) return `For this chemistry the UN number is ${allowed.join(' or ')}`;
+	return null;
+}
+
+const poNumber = z
+	.string({ error: 'Enter the purchase order number' })
+	.trim()
+	.min(1, 'Enter the purchase order number')
+	.max(40, 'A PO number has at most 40 characters');
+const uuidField = (what: string) => z.uuid({ error: `Choose a ${what}` });
+const quantity = z
+	.number({ error: 'Enter the number of units as a whole number' })
+	.int('Enter the number of units as a whole number')
+	.positive('The quantity must be at least 1')
+	.max(10_000_000, 'The quantity can be at most 10,000,000');
+const transport = z.enum(TRANSPORTS, { error: 'Choose air, sea, road or rail' });
+const unNumber = z
+	.string({ error: 'Write the UN number as text, e.g. UN3480' })
+	.trim()
+	.toUpperCase()
+	.refine((v) => v === '' || UN_NUMBER_PATTERN.test(v), 'Write the UN number as UN followed by four digits, e.g. UN3480');
+const isoDate = z.iso.date({ error: 'Use a date like 2026-03-31' });
+
+/** The register form: declared SOC in percent; empty optional fields arrive as ''. */
+export const lotFormSchema = z.object({
+	po_number: poNumber,
+	supplier_id: uuidField('supplier'),
+	part_id: uuidField('part'),
+	quantity,
+	declared_soc_pct: z
+		.number({ error: 'Enter the declared SOC in %' })
+		.min(0, 'The declared SOC is between 0 and 100 %')
+		.max(100, 'The declared SOC is between 0 and 100 %'),
+	transport,
+	un_number: unNumber.default(''),
+	expected_arrival: z.union([z.literal(''), isoDate]).default('')
+});
+export type LotForm = z.infer<typeof lotFormSchema>;
+
+/** The API body: declared SOC as a fraction; strict types (a string where a number belongs is refused). */
+export const lotApiSchema = z.object({
+	po_number: poNumber,
+	supplier_id: z.uuid({ error: 'supplier_id must be a UUID' }),
+	part_id: z.uuid({ error: 'part_id must be a UUID' }),
+	quantity,
+	declared_soc: z
+		.number({ error: 'declared_soc must be a number between 0 and 1' })
+		.min(0, 'declared_soc is a fraction between 0 and 1')
+		.max(1, 'declared_soc is a fraction between 0 and 1'),
+	transport,
+	un_number: unNumber.nullish(),
+	expected_arrival: isoDate.nullish()
+});
+export type LotApiInput = z.infer<typeof lotApiSchema>;
+
+/** What the lot service takes (both entry points map to it). */
+export interface LotInput {
+	poNumber: string;
+	supplierId: string;
+	partId: string;
+	quantity: number;
+	declaredSoc: number;
+	transport: TransportMode;
+	unNumber: string | null;
+	expectedArrival: string | null;
+}
+
+export function lotInputFromForm(form: LotForm): LotInput {
+	return {
+		poNumber: form.po_number,
+		supplierId: form.supplier_id,
+		partId: form.part_id,
+		quantity: form.quantity,
+		declaredSoc: Math.round(form.declared_soc_pct * 100) / 10_000,
+		transport: form.transport,
+		unNumber: form.un_number || null,
+		expectedArrival: form.expected_arrival || null
+	};
+}
+
+export function lotInputFromApi(body: LotApiInput): LotInput {
+	return {
+		poNumber: body.po_number,
+		supplierId: body.supplier_id,
+		partId: body.part_id,
+		quantity: body.quantity,
+		declaredSoc: body.declared_soc,
+		transport: body.transport,
+		unNumber: body.un_number || null,
+		expectedArrival: body.expected_arrival ?? null
+	};
+}
+
+/** Field names of the service input in API (snake_case) spelling, for field errors. */
+export const LOT_FIELD: Record<keyof LotInput, string> = {
+	poNumber: 'po_number',
+	supplierId: 'supplier_id',
+	partId: 'part_id',
+	quantity: 'quantity',
+	declaredSoc: 'declared_soc',
+	transport: 'transport',
+	unNumber: 'un_number',
+	expectedArrival: 'expected_arrival'
+};
+
+/** GET /api/v1/lots query. */
+export const lotListQuerySchema = z.object({
+	status: z.enum(LOT_STATUSES, { error: `status is one of ${LOT_STATUSES.join(', ')}` }).optional(),
+	supplier_id: z.uuid({ error: 'supplier_id must be a UUID' }).optional(),
+	part_id: z.uuid({ error: 'part_id must be a UUID' }).optional(),
+	search: z.string().trim().max(60).optional(),
+	limit: z.coerce
+		.number({ error: 'limit must be a whole number from 1 to 100' })
+		.int('limit must be a whole number from 1 to 100')
+		.min(1, 'limit must be a whole number from 1 to 100')
+		.max(100, 'limit must be a whole number from 1 to 100')
+		.default(25),
+	cursor: z.string().max(200).optional()
+});
+export type LotListQuery = z.infer<typeof lotListQuerySchema>;

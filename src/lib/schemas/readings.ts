@@ -1,0 +1,68 @@
+// Shapes of readings, meter-file mappings and sampling-plan queries, shared by the API, the
+// services and the browser grid.
+import { z } from 'zod';
+
+/** Most readings accepted in one call; beyond it the API answers 413. */
+export const MAX_READINGS_PER_CALL = 10_000;
+/** Largest meter file accepted (CSV or XLSX). */
+export const MAX_IMPORT_BYTES = 10 * 1024 * 1024;
+
+const finite = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, `${what} must be finite`);
+
+export const readingSchema = z.object({
+	serial: z.string().trim().min(1, 'serial is required').max(64, 'serial is at most 64 characters'),
+	// Pack voltage for packs (the server divides by the cells in series), cell voltage for cells.
+	ocv_v: finite('ocv_v').min(0, 'ocv_v must be ≥ 0 V (check the probe polarity)').lt(1000, 'ocv_v must be below 1000 V'),
+	temperature_c: finite('temperature_c').gt(-60, 'temperature_c must be above −60 °C').lt(120, 'temperature_c must be below 120 °C'),
+	ac_resistance_mohm: finite('ac_resistance_mohm').positive('ac_resistance_mohm must be > 0 mΩ').nullish(),
+	measured_at: z.iso.datetime({ offset: true, error: 'measured_at must be an ISO 8601 date-time with zone' }).nullish(),
+	client_key: z.string().min(8).max(64).nullish()
+});
+export type ReadingInputRow = z.infer<typeof readingSchema>;
+
+export const readingsBodySchema = z.object({
+	readings: z.array(readingSchema).min(1, 'send at least one reading')
+});
+
+/** A correction of a wrong value before the lot is decided; the reason goes to the audit trail. */
+export const readingCorrectionSchema = z
+	.object({
+		serial: readingSchema.shape.serial.optional(),
+		ocv_v: readingSchema.shape.ocv_v.optional(),
+		temperature_c: readingSchema.shape.temperature_c.optional(),
+		ac_resistance_mohm: readingSchema.shape.ac_resistance_mohm,
+		reason: z.string().trim().min(3, 'say why the value was wrong').max(500)
+	})
+	.refine((c) => c.serial !== undefined || c.ocv_v !== undefined || c.temperature_c !== undefined || c.ac_resistance_mohm !== undefined, {
+		error: 'change at least one value'
+	});
+export type ReadingCorrection = z.infer<typeof readingCorrectionSchema>;
+
+export const IMPORT_FIELDS = ['serial', 'ocv', 'temperature', 'ac_resistance', 'time'] as const;
+export type ImportField = (typeof IMPORT_FIELDS)[number];
+
+/** Which column (0-based) holds which value; the OCV unit is V or mV. */
+export const importMappingSchema = z.object({
+	serial: z.int().min(0),
+	ocv: z.int().min(0),
+	ocv_unit: z.enum(['V', 'mV']).default('V'),
+	temperature: z.int().min(0).nullish(),
+	/** Used when the file has no temperature column. */
+	default_temperature_c: z.number().gt(-60).lt(120).nullish(),
+	ac_resistance: z.int().min(0).nullish(),
+	time: z.int().min(0).nullish(),
+	/** First data row (0-based); rows before it (headers) are skipped. */
+	first_row: z.int().min(0).default(1),
+	/** Leave rows with errors out instead of refusing the file. */
+	skip_invalid: z.boolean().default(false)
+});
+export type ImportMapping = z.infer<typeof importMappingSchema>;
+
+export const INSPECTION_LEVELS = ['I', 'II', 'III', 'S-1', 'S-2', 'S-3', 'S-4'] as const;
+
+export const planQuerySchema = z.object({
+	lot_size: z.coerce.number().int('lot_size must be a whole number').min(1, 'lot_size must be ≥ 1').max(100_000_000),
+	aql: z.coerce.number().positive('aql must be > 0'),
+	level: z.enum(INSPECTION_LEVELS).default('II'),
+	severity: z.enum(['normal', 'tightened', 'reduced']).default('normal')
+});

@@ -1,0 +1,129 @@
+/**
+ * Supplier notice bodies (plain text and HTML) for accept, hold, reject and quality overrides.
+ * Rendered when the decision is written, so the outbox row holds exactly what will be sent.
+ */
+
+export type NoticeKind = 'accept' | 'hold' | 'reject' | 'override';
+export type FinalStatus = 'accepted' | 'on_hold' | 'rejected';
+
+export interface NoticeInput {
+	kind: NoticeKind;
+	status: FinalStatus;
+	companyName: string;
+	supplierName: string;
+	lotCode: string;
+	poNumber: string;
+	partNumber: string;
+	partDescription: string;
+	quantity: number;
+	transport: string;
+	lithium: boolean;
+	safety: boolean;
+	reasons: string[];
+	/** The quality manager's reason, for overrides. */
+	decisionReason: string | null;
+	portalUrl: string;
+}
+
+export interface NoticeBody {
+	subject: string;
+	text: string;
+	html: string;
+}
+
+const WORDS: Record<FinalStatus, string> = { accepted: 'ACCEPTED', on_hold: 'ON HOLD', rejected: 'REJECTED' };
+
+function dispositionSentence(n: NoticeInput): string {
+	const after = n.kind === 'override' ? ' after review by our quality team' : '';
+	if (n.status === 'accepted') return `The lot was accepted${after} and released for use.`;
+	if (n.status === 'on_hold') return 'The lot is on hold in our quarantine area until our quality team has reviewed it.';
+	return `The lot was rejected${after}${n.safety ? ' for safety reasons' : ''} and will not be used.`;
+}
+
+function actionsFor(n: NoticeInput): string[] {
+	if (n.status === 'accepted') return ['No action is needed. Keep the attached inspection report with your shipment records.'];
+	const common = [
+		'Acknowledge this notice in the supplier portal.',
+		'Reply in the portal with any information that explains the findings (production and charge records, certificate of conformity corrections).'
+	];
+	if (n.status === 'on_hold') return [...common, 'Do not ship further units of this part until you hear from us.'];
+	return [
+		...common,
+		'Send a corrective-action report (for example an 8D) through the portal.',
+		'Agree the return or disposal of the lot with our buyer; do not collect or ship units before that is arranged.'
+	];
+}
+
+/** Calm cautions for quarantined and deep-discharged lithium units and for shipping them. */
+export function noticeCautions(n: Pick<NoticeInput, 'status' | 'lithium' | 'safety' | 'transport'>): string[] {
+	if (n.status === 'accepted' || !n.lithium) return [];
+	const cautions = [
+		'Quarantined units stay in their packaging in a marked area, apart from combustible material. Swollen, damaged, leaking or hot units are separated at once.',
+		'A lithium-ion cell that has rested below its minimum voltage must not be recharged: it may have internal damage and can heat up when charged.',
+		'Returning cells is a dangerous-goods shipment. Damaged or defective lithium cells and batteries fall under special provisions and are generally not accepted by air (from memory). Lithium-ion cells and batteries shipped by air packed on their own must be at no more than 30 % SOC.'
+	];
+	cautions.push('Follow your site procedure, local codes and the current dangerous-goods regulations before handling or shipping these units.');
+	return cautions;
+}
+
+const escapeHtml = (s: string) =>
+	s.replaceAll('&', '&amp;').replaceAll('<', '&lt;').replaceAll('>', '&gt;').replaceAll('"', '&quot;');
+
+export function noticeSubject(n: NoticeInput): string {
+	const prefix = n.kind === 'override' ? 'Quality decision' : 'Inspection result';
+	return `${prefix}: lot ${n.lotCode} ${WORDS[n.status]} (PO ${n.poNumber}, ${n.partNumber})`;
+}
+
+function textBody(n: NoticeInput): string {
+	const lines = [
+		`Dear ${n.supplierName} team,`,
+		'',
+		`${n.companyName} has inspected your lot on arrival.`,
+		'',
+		`Lot: ${n.lotCode}`,
+		`Purchase order: ${n.poNumber}`,
+		`Part: ${n.partNumber} (${n.partDescription})`,
+		`Quantity: ${n.quantity}`,
+		`Disposition: ${WORDS[n.status]}`,
+		'',
+		dispositionSentence(n)
+	];
+	if (n.decisionReason) lines.push('', `Reason given by our quality team: ${n.decisionReason}`);
+	if (n.reasons.length) lines.push('', 'Findings:', ...n.reasons.map((r) => `- ${r}`));
+	lines.push('', 'What we ask of you:', ...actionsFor(n).map((a) => `- ${a}`));
+	const cautions = noticeCautions(n);
+	if (cautions.length) lines.push('', 'Handling cautions:', ...cautions.map((c) => `- ${c}`));
+	lines.push('', `The inspection report is attached as a PDF. Supplier portal: ${n.portalUrl}`, '', `${n.companyName} receiving inspection (sent by Restvolt)`);
+	return lines.join('\n');
+}
+
+function htmlBody(n: NoticeInput): string {
+	const e = escapeHtml;
+	const list = (items: string[]) => `<ul>${items.map((i) => `<li>${e(i)}</li>`).join('')}</ul>`;
+	const row = (k: string, v: string) => `<tr><th align="left" style="padding:2px 12px 2px 0">${e(k)}</th><td>${e(v)}</td></tr>`;
+	const cautions = noticeCautions(n);
+	return [
+		'<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1c2430">',
+		`<p>Dear ${e(n.supplierName)} team,</p>`,
+		`<p>${e(n.companyName)} has inspected your lot on arrival.</p>`,
+		'<table>',
+		row('Lot', n.lotCode),
+		row('Purchase order', n.poNumber),
+		row('Part', `${n.partNumber} (${n.partDescription})`),
+		row('Quantity', String(n.quantity)),
+		row('Disposition', WORDS[n.status]),
+		'</table>',
+		`<p><strong>${e(dispositionSentence(n))}</strong></p>`,
+		n.decisionReason ? `<p>Reason given by our quality team: ${e(n.decisionReason)}</p>` : '',
+		n.reasons.length ? `<h3>Findings</h3>${list(n.reasons)}` : '',
+		`<h3>What we ask of you</h3>${list(actionsFor(n))}`,
+		cautions.length ? `<h3>Handling cautions</h3>${list(cautions)}` : '',
+		`<p>The inspection report is attached as a PDF. <a href="${e(n.portalUrl)}">Open the supplier portal</a>.</p>`,
+		`<p>${e(n.companyName)} receiving inspection (sent by Restvolt)</p>`,
+		'</body></html>'
+	].join('\n');
+}
+
+export function renderNotice(n: NoticeInput): NoticeBody {
+	return { subject: noticeSubject(n), text: textBody(n), html: htmlBody(n) };
+}

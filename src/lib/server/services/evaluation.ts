@@ -1,0 +1,212 @@
+/**
+ * The lot evaluation computed now from the stored readings: plan and severity, per-unit results
+ * from the electrochemistry core, statistics, variables check and the disposition with reasons.
+ * A pure read (works inside the caller's transaction); the decisions service stores its result.
+ */
+import { asc, eq, sql } from 'drizzle-orm';
+import { evaluateReadings, getLibraryModel, isChemistryCode, validateModel, type OcvModel } from '$lib/electrochem';
+import {
+	evaluateLot,
+	samplingPlan,
+	type Disposition,
+	type InspectionLevel,
+	type LotDocument,
+	type LotInfo,
+	type PartLimits,
+	type Reason,
+	type SamplingPlan,
+	type Severity,
+	type SwitchingState,
+	type TimedUnitReading
+} from '$lib/inspection';
+import type { Database, Tx } from '../db';
+import { lots, ocvModels, parts, readings } from '../db/schema';
+import { currentSeverity } from './switching';
+
+/** Added by the service when switching has discontinued inspection (ISO 2859-1 9.4). */
+export interface DiscontinuedReason {
+	code: 'inspection_discontinued';
+	severity: 'hold';
+	message: string;
+}
+export type EvaluationReason = Reason | DiscontinuedReason;
+
+export interface EvaluationInputs {
+	lot: LotInfo & { id: string; lot_code: string; status: string };
+	part: { id: string; part_number: string; chemistry: string; cells_in_series: number; cells_in_parallel: number; meter_accuracy_v: number; aql: number; inspection_level: InspectionLevel };
+	limits: PartLimits;
+	plan_request: { lot_size: number; aql: number; level: InspectionLevel; severity: Severity };
+	switching_state: SwitchingState;
+	model: OcvModel;
+	/** Columnar copy of the readings used, in insertion order. */
+	readings: { id: number[]; serial: string[]; ocv_v: number[]; temperature_c: number[]; measured_at: string[] };
+}
+
+export interface LotEvaluation {
+	lot_id: string;
+	status: Disposition['status'];
+	reasons: EvaluationReason[];
+	plan: SamplingPlan;
+	severity: SwitchingState;
+	stats: Disposition['stats'];
+	variables: Disposition['variables'];
+	nonconforming: number;
+	nonconforming_serials: string[];
+	units: Disposition['units'];
+	safety: boolean;
+	/** Readings stored (a unit measured twice counts twice); units = distinct serials. */
+	reading_count: number;
+	model: { id: string | null; version: string; chemistry: string; source: 'part' | 'library' };
+	inputs: EvaluationInputs;
+	evaluated_at: string;
+}
+
+export class EvaluationError extends Error {
+	constructor(readonly code: 'lot_not_found' | 'model_invalid' | 'part_invalid', message: string) {
+		super(message);
+	}
+}
+
+async function loadLot(db: Database | Tx, lotId: string) {
+	const [row] = await db
+		.select({ lot: lots, part: parts, modelParameters: ocvModels.parameters, modelId: ocvModels.id })
+		.from(lots)
+		.innerJoin(parts, eq(parts.id, lots.partId))
+		.leftJoin(ocvModels, eq(ocvModels.id, parts.modelId))
+		.where(eq(lots.id, lotId));
+	return row ?? null;
+}
+
+function resolveModel(chemistry: string, modelId: string | null, parameters: unknown): LotEvaluation['model'] & { ocv: OcvModel } {
+	const stored = parameters === null || parameters === undefined ? null : validateModel(parameters);
+	if (stored) return { id: modelId, version: stored.version, chemistry: stored.chemistry, source: 'part', ocv: stored };
+	if (!isChemistryCode(chemistry)) throw new EvaluationError('model_invalid', `No OCV model for chemistry ${chemistry}`);
+	const library = getLibraryModel(chemistry);
+	return { id: null, version: library.version, chemistry: library.chemistry, source: 'library', ocv: library };
+}
+
+async function documentKinds(db: Database | Tx, lotId: string): Promise<LotDocument[]> {
+	const result = await db.execute<{ kind: string }>(sql`select distinct kind::text as kind from documents where lot_id = ${lotId}`);
+	return result.rows.map((r) => r.kind).filter((k): k is LotDocument => ['coc', 'un38_3_summary', 'sds', 'other'].includes(k));
+}
+
+async function loadReadings(db: Database | Tx, lotId: string): Promise<EvaluationInputs['readings']> {
+	const rows = await db
+		.select({ id: readings.id, serial: readings.serial, ocv: readings.ocvV, t: readings.temperatureC, at: readings.measuredAt })
+		.from(readings)
+		.where(eq(readings.lotId, lotId))
+		.orderBy(asc(readings.id));
+	const out: EvaluationInputs['readings'] = { id: [], serial: [], ocv_v: [], temperature_c: [], measured_at: [] };
+	for (const r of rows) {
+		out.id.push(r.id);
+		out.serial.push(r.serial);
+		out.ocv_v.push(r.ocv);
+		out.temperature_c.push(r.t);
+		out.measured_at.push(r.at.toISOString());
+	}
+	return out;
+}
+
+type LoadedLot = NonNullable<Awaited<ReturnType<typeof loadLot>>>;
+
+function limitsOf(part: LoadedLot['part']): PartLimits {
+	return {
+		ocv_min_v: part.ocvMinCellV,
+		ocv_max_v: part.ocvMaxCellV,
+		residual_tolerance_v: part.residualToleranceMv / 1000,
+		spread_limit_mv: part.spreadLimitMv,
+		outlier_k: part.outlierK,
+		self_discharge_limit_mv_per_day: part.selfDischargeLimitMvPerDay,
+		declared_soc_tolerance: part.declaredSocTolerance
+	};
+}
+
+/** The severity that applies to this lot: the history before its own original decision. */
+async function severityFor(db: Database | Tx, lot: LoadedLot['lot']): Promise<SwitchingState> {
+	const view = await currentSeverity(db, lot.supplierId, lot.partId, { excludeLotId: lot.id, before: lot.decidedAt ?? null });
+	return view.severity;
+}
+
+/** Everything computed from the stored readings, reproducible from `inputs`. */
+export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<LotEvaluation> {
+	const row = await loadLot(db, lotId);
+	if (!row) throw new EvaluationError('lot_not_found', 'lot not found');
+	const { lot, part } = row;
+	const model = resolveModel(part.chemistry, row.modelId, row.modelParameters);
+	const [documents, stored, state] = await Promise.all([documentKinds(db, lotId), loadReadings(db, lotId), severityFor(db, lot)]);
+	const level = part.inspectionLevel as InspectionLevel;
+	// Discontinued inspection has no plan of its own: the next plan on resumption is tightened (9.4).
+	const severity: Severity = state === 'discontinued' ? 'tightened' : state;
+	const planRequest = { lot_size: lot.quantity, aql: part.aql, level, severity };
+	const plan = samplingPlan({ lotSize: lot.quantity, aql: part.aql, level, severity });
+	const lotInfo: LotInfo = {
+		quantity: lot.quantity,
+		declared_soc: lot.declaredSoc,
+		transport: lot.transport,
+		lithium_ion: model.ocv.lithium_ion,
+		documents
+	};
+	const limits = limitsOf(part);
+	const inputs: EvaluationInputs = {
+		lot: { ...lotInfo, id: lot.id, lot_code: lot.lotCode, status: lot.status },
+		part: {
+			id: part.id,
+			part_number: part.partNumber,
+			chemistry: part.chemistry,
+			cells_in_series: part.cellsInSeries,
+			cells_in_parallel: part.cellsInParallel,
+			meter_accuracy_v: part.meterAccuracyV,
+			aql: part.aql,
+			inspection_level: level
+		},
+		limits,
+		plan_request: planRequest,
+		switching_state: state,
+		model: model.ocv,
+		readings: stored
+	};
+	return { ...computeEvaluation(inputs, plan), lot_id: lot.id, model: { id: model.id, version: model.version, chemistry: model.chemistry, source: model.source } };
+}
+
+/** The pure part: inputs snapshot → evaluation. Re-running it on a stored snapshot reproduces the result. */
+export function computeEvaluation(inputs: EvaluationInputs, plan = planOf(inputs)): Omit<LotEvaluation, 'lot_id' | 'model'> {
+	const r = inputs.readings;
+	const results = evaluateReadings(
+		inputs.model,
+		r.ocv_v.map((ocv_v, i) => ({ ocv_v, temperature_c: r.temperature_c[i] })),
+		{ cells_in_series: inputs.part.cells_in_series, declared_soc: inputs.lot.declared_soc, meter_accuracy_v: inputs.part.meter_accuracy_v }
+	);
+	const timed: TimedUnitReading[] = results.map((result, i) => ({ serial: r.serial[i], measured_at: r.measured_at[i], result }));
+	const { id: _id, lot_code: _code, status: _status, ...lot } = inputs.lot;
+	const disposition = evaluateLot({ lot, plan, severity: inputs.plan_request.severity, limits: inputs.limits, readings: timed, aql: inputs.part.aql });
+	const reasons: EvaluationReason[] = [...disposition.reasons];
+	let status = disposition.status;
+	if (inputs.switching_state === 'discontinued') {
+		reasons.unshift({
+			code: 'inspection_discontinued',
+			severity: 'hold',
+			message: 'Inspection of this supplier and part is discontinued (5 lots not accepted on tightened inspection). Quality must approve the supplier’s corrective action and resume inspection.'
+		});
+		if (status === 'accept') status = 'hold';
+	}
+	return {
+		status,
+		reasons,
+		plan,
+		severity: inputs.switching_state,
+		stats: disposition.stats,
+		variables: disposition.variables,
+		nonconforming: disposition.nonconforming,
+		nonconforming_serials: disposition.nonconforming_serials,
+		units: disposition.units,
+		safety: disposition.safety,
+		reading_count: r.serial.length,
+		inputs,
+		evaluated_at: new Date().toISOString()
+	};
+}
+
+function planOf(inputs: EvaluationInputs): SamplingPlan {
+	const p = inputs.plan_request;
+	return samplingPlan({ lotSize: p.lot_size, aql: p.aql, level: p.level, severity: p.severity });
+}

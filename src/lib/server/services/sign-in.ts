@@ -1,0 +1,165 @@
+/**
+ * Signing in and out: staff passwords (argon2id), who may ask for an e-mailed supplier link,
+ * password-reset and invitation links, and the audit entries for all of it.
+ */
+import { createHash, randomBytes } from 'node:crypto';
+import { hash, verify } from '@node-rs/argon2';
+import { and, eq, gt, isNull } from 'drizzle-orm';
+import { getDb } from '../db';
+import { passwordResets, users } from '../db/schema';
+import { createTransport, mailFrom } from '../mail/transport';
+import { recordAudit } from './audit';
+import { accountKey, addressKey, clearFailures, isThrottled, recordFailure } from './throttle';
+import { findUserByEmail, normaliseEmail, toSessionUser } from './users';
+import type { SessionUser } from '../../roles';
+
+/** Verified against when the account is unknown, so a miss costs as long as a wrong password. */
+const DECOY_HASH = '$argon2id$v=19$m=19456,t=2,p=1$o1XfHbm+j644r4qCYRa8Kg$hxoRiZTVNqP0CDi/uSW9bnW27cWzMwb6ij+66qt1g6c';
+
+export const RESET_MINUTES = 60;
+export const INVITE_MINUTES = 3 * 24 * 60;
+
+export type PasswordCheck = { ok: true; user: SessionUser } | { ok: false; reason: 'throttled' | 'invalid' };
+
+/**
+ * The whole staff password check: throttle first, then the hash. Only active staff with a password
+ * may pass; every refusal looks the same from outside and is counted and audited.
+ */
+export async function checkStaffPassword(input: { email: string; password: string; address: string }): Promise<PasswordCheck> {
+	const email = normaliseEmail(input.email);
+	const keys = [accountKey(email), addressKey(input.address)];
+	if (await isThrottled(keys)) {
+		await audit('auth.sign_in_throttled', { email, ip: input.address });
+		return { ok: false, reason: 'throttled' };
+	}
+	const user = await findUserByEmail(email);
+	const usable = !!user && user.active && user.role !== 'supplier' && !!user.passwordHash;
+	const matches = await verify(usable ? user.passwordHash! : DECOY_HASH, input.password).catch(() => false);
+	if (!usable || !matches) {
+		await recordFailure(keys);
+		await audit('auth.sign_in_failed', { email, ip: input.address, userId: user?.id, method: 'password' });
+		return { ok: false, reason: 'invalid' };
+	}
+	await clearFailures(accountKey(email));
+	return { ok: true, user: toSessionUser(user) };
+}
+
+/** Only active supplier users get e-mailed sign-in links. */
+export async function supplierMayUseLink(email: string): Promise<boolean> {
+	const user = await findUserByEmail(email);
+	return !!user && user.active && user.role === 'supplier';
+}
+
+export async function recordSignIn(user: { id: string; email: string }, method: string, ip: string | null) {
+	await audit('auth.sign_in', { userId: user.id, email: user.email, ip, method });
+}
+
+export async function recordSignOut(user: SessionUser, ip: string | null) {
+	await audit('auth.sign_out', { userId: user.id, email: user.email, ip });
+}
+
+async function audit(action: string, e: { email: string; ip: string | null; userId?: string; method?: string }) {
+	await recordAudit(getDb(), {
+		actorId: e.userId ?? null,
+		actorEmail: e.email,
+		action,
+		entityType: 'user',
+		entityId: e.userId,
+		details: e.method ? { method: e.method } : {},
+		ip: e.ip
+	});
+}
+
+// ---- password links (reset and invitation share one mechanism) ----
+
+const hashLinkToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+/** A single-use link token; only its sha256 is stored. */
+export async function createPasswordLink(userId: string, minutes: number): Promise<string> {
+	const token = randomBytes(32).toString('base64url');
+	await getDb()
+		.insert(passwordResets)
+		.values({ tokenHash: hashLinkToken(token), userId, expiresAt: new Date(Date.now() + minutes * 60_000) });
+	return token;
+}
+
+/** The person a live (unused, unexpired) link belongs to, or null. */
+export async function userForPasswordLink(token: string) {
+	const [row] = await getDb()
+		.select({ id: users.id, email: users.email, name: users.name })
+		.from(passwordResets)
+		.innerJoin(users, eq(users.id, passwordResets.userId))
+		.where(and(eq(passwordResets.tokenHash, hashLinkToken(token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date()), eq(users.active, true)));
+	return row ?? null;
+}
+
+/** Set the password through a link, once. Returns false if the link is not (or no longer) valid. */
+export async function usePasswordLink(token: string, password: string, ip: string | null): Promise<boolean> {
+	const passwordHash = await hash(password);
+	const tokenHash = hashLinkToken(token);
+	const done = await getDb().transaction(async (tx) => {
+		const [link] = await tx
+			.select({ userId: passwordResets.userId })
+			.from(passwordResets)
+			.where(and(eq(passwordResets.tokenHash, tokenHash), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date())))
+			.for('update');
+		if (!link) return null;
+		const [user] = await tx
+			.update(users)
+			.set({ passwordHash, emailVerified: new Date() })
+			.where(and(eq(users.id, link.userId), eq(users.active, true)))
+			.returning({ id: users.id, email: users.email });
+		if (!user) return null;
+		await tx.update(passwordResets).set({ usedAt: new Date() }).where(eq(passwordResets.tokenHash, tokenHash));
+		await recordAudit(tx, { actorId: user.id, actorEmail: user.email, action: 'auth.password_set', entityType: 'user', entityId: user.id, ip });
+		return user;
+	});
+	if (done) await clearFailures(accountKey(done.email));
+	return !!done;
+}
+
+/** Mail a reset link to active staff; silently nothing for anyone else (no account enumeration). */
+export async function requestPasswordReset(email: string, origin: string, ip: string | null): Promise<void> {
+	const user = await findUserByEmail(email);
+	if (!user || !user.active || user.role === 'supplier') return;
+	const token = await createPasswordLink(user.id, RESET_MINUTES);
+	await audit('auth.password_reset_requested', { userId: user.id, email: user.email, ip });
+	await sendMail(user.email, 'Reset your Restvolt password', [
+		`Hello${user.name ? ' ' + user.name : ''},`,
+		'',
+		'Someone (hopefully you) asked to reset the password of your Restvolt account.',
+		`Choose a new password here within ${RESET_MINUTES} minutes (the link works once):`,
+		'',
+		`${origin}/signin/reset/${token}`,
+		'',
+		'If you did not ask for this, ignore this message; your password stays as it is.'
+	]);
+}
+
+/** Tell a newly invited person how to get in: a set-password link for staff, the portal for suppliers. */
+export async function sendInvitation(user: { id: string; email: string; name: string | null; role: string }, origin: string) {
+	const hello = `Hello${user.name ? ' ' + user.name : ''},`;
+	if (user.role === 'supplier') {
+		await sendMail(user.email, 'Your Restvolt supplier portal access', [
+			hello,
+			'',
+			'You now have access to the Restvolt supplier portal, where you see your lots, reports and notices.',
+			'There is no password: open the page below, enter this e-mail address and we e-mail you a sign-in link.',
+			'',
+			`${origin}/signin`
+		]);
+		return;
+	}
+	const token = await createPasswordLink(user.id, INVITE_MINUTES);
+	await sendMail(user.email, 'You are invited to Restvolt', [
+		hello,
+		'',
+		'An administrator created a Restvolt account for you. Choose your password here (the link works once, for 3 days):',
+		'',
+		`${origin}/signin/reset/${token}`
+	]);
+}
+
+export async function sendMail(to: string, subject: string, lines: string[]): Promise<void> {
+	await createTransport().sendMail({ from: mailFrom(), to, subject, text: lines.join('\n') });
+}

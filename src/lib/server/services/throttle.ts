@@ -1,0 +1,38 @@
+/**
+ * Failed sign-ins are counted in PostgreSQL over a sliding window, per account and per client
+ * address, so every app process sees the same count. The message never says which key tripped,
+ * so it does not reveal whether an account exists.
+ */
+import { and, eq, gt, inArray, lt, sql } from 'drizzle-orm';
+import { getDb } from '../db';
+import { signInFailures } from '../db/schema';
+
+export const THROTTLE = { maxFailures: 5, windowMinutes: 15 } as const;
+export const THROTTLED_MESSAGE = 'Too many attempts — wait a few minutes and try again.';
+
+export const accountKey = (email: string) => `account:${email.trim().toLowerCase()}`;
+export const addressKey = (address: string) => `address:${address}`;
+
+const windowStart = () => sql`now() - make_interval(mins => ${THROTTLE.windowMinutes})`;
+
+/** True when any key has reached the limit inside the window. */
+export async function isThrottled(keys: string[]): Promise<boolean> {
+	const rows = await getDb()
+		.select({ key: signInFailures.throttleKey, n: sql<number>`count(*)::int` })
+		.from(signInFailures)
+		.where(and(inArray(signInFailures.throttleKey, keys), gt(signInFailures.at, windowStart())))
+		.groupBy(signInFailures.throttleKey);
+	return rows.some((r) => r.n >= THROTTLE.maxFailures);
+}
+
+/** Count one failure against every key, and drop this key's rows that fell out of the window. */
+export async function recordFailure(keys: string[]): Promise<void> {
+	const db = getDb();
+	await db.insert(signInFailures).values(keys.map((throttleKey) => ({ throttleKey })));
+	await db.delete(signInFailures).where(and(inArray(signInFailures.throttleKey, keys), lt(signInFailures.at, windowStart())));
+}
+
+/** A successful sign-in or password change clears the account's count (not the address's). */
+export async function clearFailures(key: string): Promise<void> {
+	await getDb().delete(signInFailures).where(eq(signInFailures.throttleKey, key));
+}

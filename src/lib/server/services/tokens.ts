@@ -1,0 +1,114 @@
+/**
+ * API tokens: `rv_` + 32 random bytes (base64url). The plaintext is returned once at creation;
+ * only its sha256 is stored. A token acts as its user, with that user's role, while the user is
+ * active and the token is not revoked.
+ */
+import { createHash, randomBytes } from 'node:crypto';
+import { and, desc, eq, isNull, sql } from 'drizzle-orm';
+import { getDb } from '../db';
+import { apiTokens, users } from '../db/schema';
+import { recordAudit } from './audit';
+import { findUserByEmail, toSessionUser, type Actor } from './users';
+import type { SessionUser } from '../../roles';
+
+export const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+function generateToken() {
+	const token = `rv_${randomBytes(32).toString('base64url')}`;
+	return { token, hash: hashToken(token), prefix: token.slice(0, 10) };
+}
+
+export interface CreatedToken {
+	id: string;
+	token: string;
+	prefix: string;
+}
+
+/** Create a token for a user. `actor` is null when created from the command line. */
+export async function createToken(input: { userId: string; label: string; actor: Actor | null }): Promise<CreatedToken> {
+	const { token, hash, prefix } = generateToken();
+	return getDb().transaction(async (tx) => {
+		const [row] = await tx
+			.insert(apiTokens)
+			.values({ userId: input.userId, label: input.label, tokenHash: hash, prefix, createdBy: input.actor?.id ?? null })
+			.returning({ id: apiTokens.id });
+		await recordAudit(tx, {
+			actorId: input.actor?.id ?? null,
+			actorEmail: input.actor?.email ?? 'command line',
+			action: 'token.created',
+			entityType: 'api_token',
+			entityId: row.id,
+			details: { userId: input.userId, label: input.label, prefix }
+		});
+		return { id: row.id, token, prefix };
+	});
+}
+
+export class UnknownUserError extends Error {}
+
+/** For `npm run token`: a token for an existing, active user found by e-mail. */
+export async function createTokenForEmail(email: string, label = 'command line'): Promise<CreatedToken> {
+	const user = await findUserByEmail(email);
+	if (!user) throw new UnknownUserError(`No user with the e-mail address ${email}`);
+	if (!user.active) throw new UnknownUserError(`The user ${email} is deactivated`);
+	return createToken({ userId: user.id, label, actor: null });
+}
+
+/** Revoke; returns false when there was no such live token. */
+export async function revokeToken(actor: Actor, id: string): Promise<boolean> {
+	return getDb().transaction(async (tx) => {
+		const [row] = await tx
+			.update(apiTokens)
+			.set({ revokedAt: new Date() })
+			.where(and(eq(apiTokens.id, id), isNull(apiTokens.revokedAt)))
+			.returning({ id: apiTokens.id, userId: apiTokens.userId, prefix: apiTokens.prefix });
+		if (!row) return false;
+		await recordAudit(tx, {
+			actorId: actor.id,
+			actorEmail: actor.email,
+			action: 'token.revoked',
+			entityType: 'api_token',
+			entityId: row.id,
+			details: { userId: row.userId, prefix: row.prefix }
+		});
+		return true;
+	});
+}
+
+export async function listTokens() {
+	return getDb()
+		.select({
+			id: apiTokens.id,
+			label: apiTokens.label,
+			prefix: apiTokens.prefix,
+			userEmail: users.email,
+			userRole: users.role,
+			createdAt: apiTokens.createdAt,
+			lastUsedAt: apiTokens.lastUsedAt,
+			revokedAt: apiTokens.revokedAt
+		})
+		.from(apiTokens)
+		.innerJoin(users, eq(users.id, apiTokens.userId))
+		.orderBy(sql`${apiTokens.revokedAt} is not null`, desc(apiTokens.createdAt));
+}
+
+/** The user a bearer token acts as, or null. Notes the use at most once a minute. */
+export async function userForToken(token: string): Promise<SessionUser | null> {
+	const db = getDb();
+	const [row] = await db
+		.select({ tokenId: apiTokens.id, user: users })
+		.from(apiTokens)
+		.innerJoin(users, eq(users.id, apiTokens.userId))
+		.where(and(eq(apiTokens.tokenHash, hashToken(token)), isNull(apiTokens.revokedAt), eq(users.active, true)));
+	if (!row) return null;
+	await db
+		.update(apiTokens)
+		.set({ lastUsedAt: new Date() })
+		.where(
+			and(
+				eq(apiTokens.id, row.tokenId),
+				sql`(${apiTokens.lastUsedAt} is null or ${apiTokens.lastUsedAt} < now() - interval '1 minute')`
+			)
+		);
+	return toSessionUser(row.user);
+}

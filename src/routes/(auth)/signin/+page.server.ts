@@ -1,0 +1,56 @@
+import { fail, redirect } from '@sveltejs/kit';
+import { message, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { signInWith } from '$lib/server/auth';
+import { THROTTLED_MESSAGE } from '$lib/server/services/throttle';
+import { linkRequestAllowed } from '$lib/server/services/sign-in';
+import { clientAddress } from '$lib/server/auth';
+import { linkSignIn, passwordSignIn } from './schemas';
+import type { Actions, PageServerLoad } from './$types';
+
+/** Why Auth.js sent someone back here (`?error=`), in our words. */
+const ERRORS: Record<string, string> = {
+	Verification: 'That sign-in link has expired or was already used. Ask for a new one below.',
+	AccessDenied: 'That sign-in link cannot be used. Ask for a new one below.',
+	CredentialsSignin: 'That e-mail address and password do not match.'
+};
+
+export const load: PageServerLoad = async ({ locals, url }) => {
+	if (locals.user) redirect(303, '/');
+	const redirectTo = url.searchParams.get('redirectTo') ?? '';
+	const error = url.searchParams.get('error');
+	return {
+		passwordForm: await superValidate({ redirectTo }, zod4(passwordSignIn), { id: 'password', errors: false }),
+		linkForm: await superValidate({ redirectTo }, zod4(linkSignIn), { id: 'link', errors: false }),
+		notice: error ? (ERRORS[error] ?? 'Signing in did not work. Please try again.') : null,
+		passwordSet: url.searchParams.has('password-set'),
+		signedOut: url.searchParams.has('signed-out')
+	};
+};
+
+export const actions: Actions = {
+	password: async (event) => {
+		const form = await superValidate(event, zod4(passwordSignIn), { id: 'password' });
+		const password = form.data.password;
+		form.data.password = ''; // never echo a password back to the browser
+		if (!form.valid) return fail(400, { passwordForm: form });
+		const outcome = await signInWith(event, 'credentials', {
+			email: form.data.email,
+			password,
+			redirectTo: form.data.redirectTo || '/'
+		});
+		const text = outcome === 'throttled' ? THROTTLED_MESSAGE : 'That e-mail address and password do not match.';
+		return message(form, text, { status: outcome === 'throttled' ? 429 : 400 });
+	},
+
+	link: async (event) => {
+		const form = await superValidate(event, zod4(linkSignIn), { id: 'link' });
+		if (!form.valid) return fail(400, { linkForm: form });
+		if (!(await linkRequestAllowed(form.data.email, clientAddress(event)))) {
+			return message(form, THROTTLED_MESSAGE, { status: 429 });
+		}
+		await signInWith(event, 'nodemailer', { email: form.data.email, redirectTo: form.data.redirectTo || '/portal' });
+		// Not a supplier account (or inactive): the same page as when a link went out.
+		redirect(303, '/signin/link-sent');
+	}
+};

@@ -1,0 +1,31 @@
+import { z } from 'zod';
+
+/** Only same-site paths, so a crafted link cannot send people elsewhere after signing in. */
+export const redirectTo = z
+	.string()
+	.default('')
+	.transform((v) => (v.startsWith('/') && !v.startsWith('//') && !v.startsWith('/\\') ? v : ''));
+
+export const passwordSignIn = z.object({
+	email: z.email('Enter your work e-mail address').max(320),
+	password: z.string().min(1, 'Enter your password').max(1024),
+	redirectTo
+});
+
+export const linkSignIn = z.object({
+	email: z.email('Enter the e-mail address your account uses').max(320),
+	redirectTo
+});
+
+export const resetRequest = z.object({
+	email: z.email('Enter your work e-mail address').max(320)
+});
+
+export const MIN_PASSWORD = 12;
+
+export const newPassword = z
+	.object({
+		password: z.string().min(MIN_PASSWORD, `Use at least ${MIN_PASSWORD} characters`).max(256),
+		confirm: z.string()
+	})
+	.refine((v) => v.password === v.confirm, { message: 'The two passwords differ', path: ['confirm'] });
