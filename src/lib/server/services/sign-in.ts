@@ -9,7 +9,7 @@ import { getDb } from '../db';
 import { passwordResets, users } from '../db/schema';
 import { createTransport, mailFrom } from '../mail/transport';
 import { recordAudit } from './audit';
-import { accountKey, addressKey, clearFailures, isThrottled, recordFailure } from './throttle';
+import { accountKey, addressKey, clearFailures, isThrottled, recordFailure, signInLimits, type Limit } from './throttle';
 import { findUserByEmail, normaliseEmail, toSessionUser } from './users';
 import type { SessionUser } from '../../roles';
 
@@ -27,8 +27,8 @@ export type PasswordCheck = { ok: true; user: SessionUser } | { ok: false; reaso
  */
 export async function checkStaffPassword(input: { email: string; password: string; address: string }): Promise<PasswordCheck> {
 	const email = normaliseEmail(input.email);
-	const keys = [accountKey(email), addressKey(input.address)];
-	if (await isThrottled(keys)) {
+	const limits = signInLimits(email, input.address);
+	if (await isThrottled(limits)) {
 		await audit('auth.sign_in_throttled', { email, ip: input.address });
 		return { ok: false, reason: 'throttled' };
 	}
@@ -36,12 +36,26 @@ export async function checkStaffPassword(input: { email: string; password: strin
 	const usable = !!user && user.active && user.role !== 'supplier' && !!user.passwordHash;
 	const matches = await verify(usable ? user.passwordHash! : DECOY_HASH, input.password).catch(() => false);
 	if (!usable || !matches) {
-		await recordFailure(keys);
+		await recordFailure(limits);
 		await audit('auth.sign_in_failed', { email, ip: input.address, userId: user?.id, method: 'password' });
 		return { ok: false, reason: 'invalid' };
 	}
 	await clearFailures(accountKey(email));
 	return { ok: true, user: toSessionUser(user) };
+}
+
+/**
+ * Sign-in link requests are counted like failures (5 per e-mail address, 20 per client address
+ * per window), so the form cannot be used to flood someone's inbox.
+ */
+export async function linkRequestAllowed(email: string, address: string): Promise<boolean> {
+	const limits: Limit[] = [
+		{ key: `link:${normaliseEmail(email)}`, max: 5 },
+		{ key: `link-${addressKey(address)}`, max: 20 }
+	];
+	if (await isThrottled(limits)) return false;
+	await recordFailure(limits);
+	return true;
 }
 
 /** Only active supplier users get e-mailed sign-in links. */

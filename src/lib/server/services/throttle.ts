@@ -7,7 +7,8 @@ import { and, eq, gt, inArray, lt, sql } from 'drizzle-orm';
 import { getDb } from '../db';
 import { signInFailures } from '../db/schema';
 
-export const THROTTLE = { maxFailures: 5, windowMinutes: 15 } as const;
+/** Per account 5 failures; per address more, because a whole site may share one address. */
+export const THROTTLE = { perAccount: 5, perAddress: 20, windowMinutes: 15 } as const;
 export const THROTTLED_MESSAGE = 'Too many attempts — wait a few minutes and try again.';
 
 export const accountKey = (email: string) => `account:${email.trim().toLowerCase()}`;
@@ -15,18 +16,31 @@ export const addressKey = (address: string) => `address:${address}`;
 
 const windowStart = () => sql`now() - make_interval(mins => ${THROTTLE.windowMinutes})`;
 
-/** True when any key has reached the limit inside the window. */
-export async function isThrottled(keys: string[]): Promise<boolean> {
+export interface Limit {
+	key: string;
+	max: number;
+}
+
+/** The usual pair: this account and this client address. */
+export const signInLimits = (email: string, address: string): Limit[] => [
+	{ key: accountKey(email), max: THROTTLE.perAccount },
+	{ key: addressKey(address), max: THROTTLE.perAddress }
+];
+
+/** True when any key has reached its limit inside the window. */
+export async function isThrottled(limits: Limit[]): Promise<boolean> {
+	const keys = limits.map((l) => l.key);
 	const rows = await getDb()
 		.select({ key: signInFailures.throttleKey, n: sql<number>`count(*)::int` })
 		.from(signInFailures)
 		.where(and(inArray(signInFailures.throttleKey, keys), gt(signInFailures.at, windowStart())))
 		.groupBy(signInFailures.throttleKey);
-	return rows.some((r) => r.n >= THROTTLE.maxFailures);
+	return rows.some((r) => r.n >= limits.find((l) => l.key === r.key)!.max);
 }
 
 /** Count one failure against every key, and drop this key's rows that fell out of the window. */
-export async function recordFailure(keys: string[]): Promise<void> {
+export async function recordFailure(limits: Limit[]): Promise<void> {
+	const keys = limits.map((l) => l.key);
 	const db = getDb();
 	await db.insert(signInFailures).values(keys.map((throttleKey) => ({ throttleKey })));
 	await db.delete(signInFailures).where(and(inArray(signInFailures.throttleKey, keys), lt(signInFailures.at, windowStart())));

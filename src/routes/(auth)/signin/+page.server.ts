@@ -1,10 +1,9 @@
 import { fail, redirect } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
-import { signInWith } from '$lib/server/auth';
+import { clientAddress, signInWith } from '$lib/server/auth';
 import { THROTTLED_MESSAGE } from '$lib/server/services/throttle';
 import { linkRequestAllowed } from '$lib/server/services/sign-in';
-import { clientAddress } from '$lib/server/auth';
 import { linkSignIn, passwordSignIn } from './schemas';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -33,7 +32,7 @@ export const actions: Actions = {
 		const form = await superValidate(event, zod4(passwordSignIn), { id: 'password' });
 		const password = form.data.password;
 		form.data.password = ''; // never echo a password back to the browser
-		if (!form.valid) return fail(400, { passwordForm: form });
+		if (!form.valid) return fail(400, { form });
 		const outcome = await signInWith(event, 'credentials', {
 			email: form.data.email,
 			password,
@@ -45,7 +44,7 @@ export const actions: Actions = {
 
 	link: async (event) => {
 		const form = await superValidate(event, zod4(linkSignIn), { id: 'link' });
-		if (!form.valid) return fail(400, { linkForm: form });
+		if (!form.valid) return fail(400, { form });
 		if (!(await linkRequestAllowed(form.data.email, clientAddress(event)))) {
 			return message(form, THROTTLED_MESSAGE, { status: 429 });
 		}

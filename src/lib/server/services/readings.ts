@@ -1,0 +1,199 @@
+/**
+ * Unit readings of a lot: all-or-nothing batch insert (keyboard grid, meter import, API), listing,
+ * and audited corrections before the decision. The first reading of a lot awaiting arrival records
+ * its arrival and moves it into inspection.
+ */
+import { and, asc, eq, sql } from 'drizzle-orm';
+import type { z } from 'zod';
+import type { SessionUser } from '$lib/roles';
+import { MAX_READINGS_PER_CALL, readingSchema, type ReadingCorrection, type ReadingInputRow } from '$lib/schemas/readings';
+import type { Database, Tx } from '../db';
+import { readings } from '../db/schema';
+import { ApiError, conflict, notFound, unprocessable, type ApiIssue } from '../http';
+import { recordAudit } from './audit';
+
+export type ReadingSource = 'keyboard' | 'import' | 'api';
+/** Lots that take new readings; awaiting_arrival is moved into inspection by the first batch. */
+const OPEN_STATUSES = ['awaiting_arrival', 'in_inspection'] as const;
+/** Rows per INSERT … SELECT FROM unnest(…): one round trip per chunk, parameters stay arrays. */
+const CHUNK = 5000;
+
+export interface AddReadingsResult {
+	inserted: number;
+	/** Rows skipped because their client_key was already stored (a retried save). */
+	duplicates: number;
+	lot_status: string;
+	arrived: boolean;
+}
+
+export interface StoredReading {
+	id: number;
+	serial: string;
+	ocv_v: number;
+	temperature_c: number;
+	ac_resistance_mohm: number | null;
+	measured_at: string;
+	source: ReadingSource;
+	client_key: string | null;
+	import_id: string | null;
+}
+
+interface LockedLot {
+	id: string;
+	status: string;
+	supplier_id: string;
+}
+
+/** Lock the lot row so concurrent batches and the submit see one order of events. */
+async function lockLot(tx: Tx, lotId: string): Promise<LockedLot> {
+	const result = await tx.execute<LockedLot & Record<string, unknown>>(
+		sql`select id, status::text as status, supplier_id from lots where id = ${lotId} for update`
+	);
+	const lot = result.rows[0];
+	if (!lot) throw notFound('lot');
+	return lot;
+}
+
+/** Validate every row before anything is written; row-level issues are reported together. */
+export function validateReadings(rows: unknown[]): ReadingInputRow[] {
+	if (rows.length === 0) throw unprocessable('Send at least one reading');
+	if (rows.length > MAX_READINGS_PER_CALL) {
+		throw new ApiError(413, 'too_many_readings', `At most ${MAX_READINGS_PER_CALL} readings per call (got ${rows.length}); split the batch`);
+	}
+	const issues: ApiIssue[] = [];
+	const valid: ReadingInputRow[] = [];
+	rows.forEach((row, i) => {
+		const parsed = readingSchema.safeParse(row);
+		if (parsed.success) valid.push(parsed.data);
+		else for (const issue of (parsed.error as z.ZodError).issues) issues.push({ path: ['readings', i, ...issue.path].join('.'), message: issue.message });
+	});
+	if (issues.length > 0) throw unprocessable(`${new Set(issues.map((i) => i.path.split('.')[1])).size} reading(s) are not valid; nothing was stored`, issues.slice(0, 200));
+	return valid;
+}
+
+/** Moves an awaiting lot into inspection and records the arrival time (first reading = arrival). */
+async function recordArrival(tx: Tx, user: SessionUser, lotId: string): Promise<void> {
+	await tx.execute(sql`
+		update lots set status = 'in_inspection', received_at = coalesce(received_at, now()), updated_at = now()
+		where id = ${lotId} and status = 'awaiting_arrival'`);
+	await recordAudit(tx, {
+		actorId: user.id,
+		actorEmail: user.email,
+		action: 'lot.arrived',
+		entityType: 'lot',
+		entityId: lotId,
+		lotId,
+		details: { from: 'awaiting_arrival', to: 'in_inspection', by: 'first reading' }
+	});
+}
+
+async function insertChunk(tx: Tx, lotId: string, user: SessionUser, rows: ReadingInputRow[], source: ReadingSource, importId: string | null): Promise<number> {
+	const now = new Date().toISOString();
+	const result = await tx.execute(sql`
+		insert into readings (lot_id, serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key, source, import_id, entered_by)
+		select ${lotId}::uuid, u.serial, u.ocv_v, u.temperature_c, u.ac_resistance_mohm, u.measured_at, u.client_key,
+		       ${source}::reading_source, ${importId}::uuid, ${user.id}
+		from unnest(
+			${sql.param(rows.map((r) => r.serial))}::text[],
+			${sql.param(rows.map((r) => r.ocv_v))}::float8[],
+			${sql.param(rows.map((r) => r.temperature_c))}::float8[],
+			${sql.param(rows.map((r) => r.ac_resistance_mohm ?? null))}::float8[],
+			${sql.param(rows.map((r) => r.measured_at ?? now))}::timestamptz[],
+			${sql.param(rows.map((r) => r.client_key ?? null))}::text[]
+		) as u(serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key)
+		on conflict (lot_id, client_key) do nothing`);
+	return result.rowCount ?? 0;
+}
+
+/** Inside an open transaction (used by the meter import, which also writes its import row). */
+export async function addReadingsTx(
+	tx: Tx,
+	user: SessionUser,
+	lotId: string,
+	rows: ReadingInputRow[],
+	source: ReadingSource,
+	importId: string | null = null
+): Promise<AddReadingsResult> {
+	const lot = await lockLot(tx, lotId);
+	if (!(OPEN_STATUSES as readonly string[]).includes(lot.status)) {
+		throw conflict(`This lot is ${lot.status.replace('_', ' ')}; readings can only be added while it awaits arrival or is in inspection`);
+	}
+	const arrived = lot.status === 'awaiting_arrival';
+	if (arrived) await recordArrival(tx, user, lotId);
+	let inserted = 0;
+	for (let i = 0; i < rows.length; i += CHUNK) inserted += await insertChunk(tx, lotId, user, rows.slice(i, i + CHUNK), source, importId);
+	if (inserted > 0) {
+		await recordAudit(tx, {
+			actorId: user.id,
+			actorEmail: user.email,
+			action: 'readings.added',
+			entityType: 'lot',
+			entityId: lotId,
+			lotId,
+			details: { count: inserted, source, import_id: importId }
+		});
+	}
+	return { inserted, duplicates: rows.length - inserted, lot_status: 'in_inspection', arrived };
+}
+
+/**
+ * Store a batch of readings, all or nothing. `clientKeys[i]` (or rows[i].client_key) makes a retried
+ * save idempotent: a key already stored for the lot is skipped, not duplicated.
+ */
+export async function addReadings(
+	db: Database,
+	user: SessionUser,
+	lotId: string,
+	rows: unknown[],
+	source: ReadingSource,
+	opts: { clientKeys?: Array<string | null>; importId?: string | null } = {}
+): Promise<AddReadingsResult> {
+	const valid = validateReadings(rows);
+	if (opts.clientKeys) valid.forEach((r, i) => (r.client_key = opts.clientKeys?.[i] ?? r.client_key ?? null));
+	return db.transaction((tx) => addReadingsTx(tx, user, lotId, valid, source, opts.importId ?? null));
+}
+
+const selectColumns = {
+	id: readings.id,
+	serial: readings.serial,
+	ocv_v: readings.ocvV,
+	temperature_c: readings.temperatureC,
+	ac_resistance_mohm: readings.acResistanceMohm,
+	measured_at: readings.measuredAt,
+	source: readings.source,
+	client_key: readings.clientKey,
+	import_id: readings.importId
+};
+
+/** All readings of a lot in the order they were stored. */
+export async function listReadings(db: Database | Tx, lotId: string): Promise<StoredReading[]> {
+	const rows = await db.select(selectColumns).from(readings).where(eq(readings.lotId, lotId)).orderBy(asc(readings.id));
+	return rows.map((r) => ({ ...r, measured_at: r.measured_at.toISOString() }));
+}
+
+/** Fix a wrongly typed value before the decision; the old and new values go to the audit trail. */
+export async function correctReading(db: Database, user: SessionUser, lotId: string, readingId: number, change: ReadingCorrection): Promise<StoredReading> {
+	return db.transaction(async (tx) => {
+		const lot = await lockLot(tx, lotId);
+		if (lot.status !== 'in_inspection') throw conflict(`Readings can only be corrected while the lot is in inspection (it is ${lot.status.replace('_', ' ')})`);
+		const [before] = await tx.select(selectColumns).from(readings).where(and(eq(readings.id, readingId), eq(readings.lotId, lotId)));
+		if (!before) throw notFound('reading');
+		const patch = {
+			...(change.serial !== undefined ? { serial: change.serial } : {}),
+			...(change.ocv_v !== undefined ? { ocvV: change.ocv_v } : {}),
+			...(change.temperature_c !== undefined ? { temperatureC: change.temperature_c } : {}),
+			...(change.ac_resistance_mohm !== undefined ? { acResistanceMohm: change.ac_resistance_mohm } : {})
+		};
+		const [after] = await tx.update(readings).set(patch).where(eq(readings.id, readingId)).returning(selectColumns);
+		await recordAudit(tx, {
+			actorId: user.id,
+			actorEmail: user.email,
+			action: 'reading.corrected',
+			entityType: 'reading',
+			entityId: String(readingId),
+			lotId,
+			details: { reason: change.reason, before: { ...before, measured_at: before.measured_at.toISOString() }, after: { ...after, measured_at: after.measured_at.toISOString() } }
+		});
+		return { ...after, measured_at: after.measured_at.toISOString() };
+	});
+}
