@@ -1,7 +1,7 @@
 // A PostgreSQL cluster owned by the project: initdb'd into a folder of its own, listening on
 // 127.0.0.1 only, run as the `postgres` system user when we are root (initdb refuses root).
 import { spawnSync } from 'node:child_process';
-import { chownSync, existsSync, mkdirSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { chownSync, existsSync, mkdirSync, readdirSync, readFileSync, realpathSync, writeFileSync } from 'node:fs';
 import { createHash } from 'node:crypto';
 import { dirname, join } from 'node:path';
 import { ensureDebianPackages } from './deps.mjs';
@@ -9,7 +9,8 @@ import { firstFreePort, isRoot, run } from './proc.mjs';
 
 export function findPgBin() {
 	const found = spawnSync('sh', ['-c', 'command -v pg_ctl'], { encoding: 'utf8' });
-	if (found.status === 0) return dirname(found.stdout.trim());
+	// Follow links (e.g. /usr/local/bin/pg_ctl -> /usr/lib/postgresql/15/bin) to find pg_dump and friends too.
+	if (found.status === 0) return dirname(realpathSync(found.stdout.trim()));
 	const base = '/usr/lib/postgresql';
 	if (!existsSync(base)) return null;
 	const versions = readdirSync(base).filter((v) => existsSync(join(base, v, 'bin', 'pg_ctl')));

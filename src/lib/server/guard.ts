@@ -5,7 +5,8 @@
  */
 import { redirect, type Handle } from '@sveltejs/kit';
 
-const PUBLIC_PREFIXES = ['/signin', '/auth/', '/api/', '/favicon', '/robots.txt', '/_app/'];
+// /signout is open to every role (and harmless when nobody is signed in).
+const PUBLIC_PREFIXES = ['/signin', '/signout', '/auth/', '/api/', '/favicon', '/robots.txt', '/_app/'];
 
 function isPublic(pathname: string): boolean {
 	return pathname === '/' || PUBLIC_PREFIXES.some((p) => pathname === p || pathname.startsWith(p));

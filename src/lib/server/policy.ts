@@ -35,7 +35,11 @@ export type Action =
 	| 'admin:users'
 	| 'admin:orgs'
 	| 'admin:tokens'
-	| 'admin:outbox';
+	| 'admin:outbox'
+	| 'self:read';
+
+/** Actions about the signed-in person themself: every role, no resource needed. */
+const SELF_ACTIONS: readonly Action[] = ['self:read'];
 
 /** What each role may do, before resource checks. */
 const GRANTS: Record<Role, readonly Action[]> = {
@@ -64,6 +68,7 @@ export interface Resource {
 
 export function can(user: SessionUser | null, action: Action, resource?: Resource): boolean {
 	if (!user) return false;
+	if (SELF_ACTIONS.includes(action)) return true;
 	if (!GRANTS[user.role].includes(action)) return false;
 	if (user.role === 'supplier') {
 		// A supplier acts only on its own organisation's things, and only on things that name one.

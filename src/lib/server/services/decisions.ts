@@ -1,0 +1,277 @@
+/**
+ * Dispositions: the engine's decision on submit (and on re-evaluation of a held lot), and the
+ * quality manager's e-signed override of a held lot. Each writes the evaluation, the lot status,
+ * the decision row, the supplier notice (outbox) and the audit entry in ONE transaction.
+ */
+import { verify } from '@node-rs/argon2';
+import { and, desc, eq, sql } from 'drizzle-orm';
+import { getDb, type Tx } from '../db';
+import { decisions, evaluations, lots, users } from '../db/schema';
+import { ApiError, conflict, notFound, unprocessable } from '../http';
+import { can } from '../policy';
+import { recordAudit } from './audit';
+import { evaluateLotNow, type LotEvaluation } from './evaluation';
+import { queueNotice } from './notices';
+import { isThrottled, recordFailure, clearFailures } from './throttle';
+import type { FinalStatus } from '../mail/templates';
+import type { SessionUser } from '../../roles';
+
+type LotStatus = (typeof lots.$inferSelect)['status'];
+const STATUS_OF = { accept: 'accepted', hold: 'on_hold', reject: 'rejected' } as const satisfies Record<string, FinalStatus>;
+const SUBMITTABLE: LotStatus[] = ['in_inspection', 'pending_decision'];
+
+export interface DecisionOutcome {
+	lotId: string;
+	status: FinalStatus;
+	previousStatus: LotStatus;
+	evaluationId: number | null;
+	decisionId: string | null;
+	noticeId: string | null;
+	evaluation: Omit<LotEvaluation, 'inputs'> | null;
+}
+
+/** Lock the lot row for the rest of the transaction; 404 when the user may not see it. */
+async function lockLot(tx: Tx, user: SessionUser, lotId: string) {
+	const [lot] = await tx.select().from(lots).where(eq(lots.id, lotId)).for('update');
+	if (!lot || !can(user, 'lot:read', { supplierId: lot.supplierId })) throw notFound('lot');
+	return lot;
+}
+
+async function storeEvaluation(tx: Tx, user: SessionUser, evaluation: LotEvaluation): Promise<number> {
+	const { inputs, plan, ...result } = evaluation;
+	const [row] = await tx
+		.insert(evaluations)
+		.values({
+			lotId: evaluation.lot_id,
+			modelId: evaluation.model.id,
+			modelVersion: evaluation.model.version,
+			severity: evaluation.severity,
+			plan,
+			inputs,
+			result,
+			disposition: evaluation.status,
+			safety: evaluation.safety,
+			createdBy: user.id
+		})
+		.returning({ id: evaluations.id });
+	return row.id;
+}
+
+const reasonTexts = (e: LotEvaluation) => e.reasons.filter((r) => r.severity !== 'info').map((r) => r.message);
+const withoutInputs = ({ inputs: _inputs, ...rest }: LotEvaluation) => rest;
+
+function evaluateOrExplain(evaluation: LotEvaluation): asserts evaluation is LotEvaluation & { status: 'accept' | 'hold' | 'reject' } {
+	if (evaluation.status !== 'pending') return;
+	const why = evaluation.reasons.find((r) => r.code === 'sample_incomplete')?.message;
+	throw new ApiError(422, 'sample_incomplete', why ?? `The sample is not complete: ${evaluation.plan.sample_size} units are needed.`);
+}
+
+/** Write the engine's decision (status, decision row, notice, audit) for a finished evaluation. */
+async function applyAutomatic(
+	tx: Tx,
+	user: SessionUser,
+	evaluation: LotEvaluation & { status: 'accept' | 'hold' | 'reject' },
+	from: LotStatus,
+	evaluationId: number,
+	reason: string | null
+) {
+	const status = STATUS_OF[evaluation.status];
+	const severity = evaluation.severity;
+	await tx
+		.update(lots)
+		.set({ status, severity, decidedAt: sql`coalesce(${lots.decidedAt}, now())`, updatedAt: new Date() })
+		.where(eq(lots.id, evaluation.lot_id));
+	const [decision] = await tx
+		.insert(decisions)
+		.values({ lotId: evaluation.lot_id, evaluationId, kind: 'automatic', fromStatus: from, toStatus: status, reason, decidedBy: user.id })
+		.returning({ id: decisions.id });
+	const noticeId = await queueNotice(tx, {
+		lotId: evaluation.lot_id,
+		decisionId: decision.id,
+		kind: evaluation.status,
+		status,
+		safety: evaluation.safety,
+		reasons: reasonTexts(evaluation),
+		decisionReason: null
+	});
+	await recordAudit(tx, {
+		actorId: user.id,
+		actorEmail: user.email,
+		action: 'lot.decided',
+		entityType: 'lot',
+		entityId: evaluation.lot_id,
+		lotId: evaluation.lot_id,
+		details: { kind: 'automatic', from, to: status, evaluationId, safety: evaluation.safety, reason }
+	});
+	return { status, decisionId: decision.id, noticeId };
+}
+
+/** Inspector or quality submits a complete sample: the engine decides, all in one transaction. */
+export async function submitLot(user: SessionUser, lotId: string): Promise<DecisionOutcome> {
+	return getDb().transaction(async (tx) => {
+		const lot = await lockLot(tx, user, lotId);
+		if (!can(user, 'lot:submit', { supplierId: lot.supplierId })) throw new ApiError(403, 'forbidden', 'Your role may not submit lots');
+		if (!SUBMITTABLE.includes(lot.status)) {
+			throw conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a lot in inspection can be submitted for decision`);
+		}
+		const evaluation = await evaluateLotNow(tx, lotId);
+		evaluateOrExplain(evaluation);
+		const evaluationId = await storeEvaluation(tx, user, evaluation);
+		const applied = await applyAutomatic(tx, user, evaluation, lot.status, evaluationId, null);
+		return { lotId, previousStatus: lot.status, evaluationId, ...applied, evaluation: withoutInputs(evaluation) };
+	});
+}
+
+/**
+ * Quality re-runs the engine on a held lot after readings were corrected. A new evaluation row is
+ * always added (old ones stay); the status changes only when the engine now decides otherwise.
+ */
+export async function reevaluateLot(user: SessionUser, lotId: string): Promise<DecisionOutcome> {
+	return getDb().transaction(async (tx) => {
+		const lot = await lockLot(tx, user, lotId);
+		if (!can(user, 'lot:decide', { supplierId: lot.supplierId })) throw new ApiError(403, 'forbidden', 'Only quality may re-evaluate a held lot');
+		if (lot.status !== 'on_hold') throw conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a held lot can be re-evaluated`);
+		const evaluation = await evaluateLotNow(tx, lotId);
+		evaluateOrExplain(evaluation);
+		const evaluationId = await storeEvaluation(tx, user, evaluation);
+		if (STATUS_OF[evaluation.status] === 'on_hold') {
+			await recordAudit(tx, { actorId: user.id, actorEmail: user.email, action: 'lot.reevaluated', entityType: 'lot', entityId: lotId, lotId, details: { evaluationId, result: 'hold' } });
+			return { lotId, previousStatus: lot.status, status: 'on_hold', evaluationId, decisionId: null, noticeId: null, evaluation: withoutInputs(evaluation) };
+		}
+		const applied = await applyAutomatic(tx, user, evaluation, lot.status, evaluationId, 'Re-evaluated after corrected readings');
+		return { lotId, previousStatus: lot.status, evaluationId, ...applied, evaluation: withoutInputs(evaluation) };
+	});
+}
+
+export interface OverrideInput {
+	decision: 'accept' | 'reject';
+	reason: string;
+	password: string;
+}
+
+export const SAFETY_RELEASE_REFUSED =
+	'This lot was rejected for safety (a unit rested below its minimum voltage). It cannot be released: deep-discharged lithium-ion units must not be recharged or used.';
+
+/** The password check of the e-signature: throttled per signer, failures audited. */
+async function verifySignature(user: SessionUser, password: string, ip: string | null): Promise<void> {
+	const key = `signature:${user.id}`;
+	if (await isThrottled([key])) throw new ApiError(429, 'throttled', 'Too many wrong passwords — wait a few minutes and try again.');
+	const [row] = await getDb().select({ hash: users.passwordHash, active: users.active }).from(users).where(eq(users.id, user.id));
+	const ok = !!row?.hash && row.active && (await verify(row.hash, password).catch(() => false));
+	if (!ok) {
+		await recordFailure([key]);
+		await recordAudit(getDb(), { actorId: user.id, actorEmail: user.email, action: 'decision.signature_failed', ip });
+		throw new ApiError(403, 'signature_invalid', 'The password is not correct; nothing was decided.');
+	}
+	await clearFailures(key);
+}
+
+async function latestEvaluation(tx: Tx, lotId: string) {
+	const [row] = await tx.select().from(evaluations).where(eq(evaluations.lotId, lotId)).orderBy(desc(evaluations.id)).limit(1);
+	return row ?? null;
+}
+
+/** Why a lot is no longer on hold: who moved it and when, for the conflict message. */
+async function alreadyDecided(tx: Tx, lotId: string, status: LotStatus): Promise<ApiError> {
+	const [last] = await tx
+		.select({ at: decisions.decidedAt, by: users.name, email: users.email })
+		.from(decisions)
+		.leftJoin(users, eq(users.id, decisions.decidedBy))
+		.where(eq(decisions.lotId, lotId))
+		.orderBy(desc(decisions.decidedAt))
+		.limit(1);
+	const who = last ? ` by ${last.by ?? last.email ?? 'someone else'} at ${last.at.toISOString()}` : '';
+	return conflict(`Another decision was recorded first: the lot is now ${status.replaceAll('_', ' ')}${who}. Nothing was changed.`);
+}
+
+/**
+ * Quality releases or rejects a held lot, e-signed by re-entering the password. The conditional
+ * UPDATE … WHERE status = 'on_hold' makes exactly one of two simultaneous overrides win.
+ */
+export async function decideOverride(user: SessionUser, lotId: string, input: OverrideInput, ip: string | null = null): Promise<DecisionOutcome> {
+	const reason = input.reason.trim();
+	if (reason.length < 5) throw unprocessable('Give a reason for the decision (at least 5 characters)', [{ path: 'reason', message: 'Required' }]);
+	const [visible] = await getDb().select({ supplierId: lots.supplierId }).from(lots).where(eq(lots.id, lotId));
+	if (!visible || !can(user, 'lot:read', { supplierId: visible.supplierId })) throw notFound('lot');
+	if (!can(user, 'lot:decide', { supplierId: visible.supplierId })) throw new ApiError(403, 'forbidden', 'Only quality managers decide held lots');
+	await verifySignature(user, input.password, ip);
+	return getDb().transaction(async (tx) => {
+		const latest = await latestEvaluation(tx, lotId);
+		if (input.decision === 'accept' && latest?.safety) throw conflict(`Rejected for safety: ${SAFETY_RELEASE_REFUSED}`);
+		const status: FinalStatus = input.decision === 'accept' ? 'accepted' : 'rejected';
+		const [won] = await tx
+			.update(lots)
+			.set({ status, decidedAt: new Date(), updatedAt: new Date() })
+			.where(and(eq(lots.id, lotId), eq(lots.status, 'on_hold')))
+			.returning({ id: lots.id });
+		if (!won) {
+			const [now] = await tx.select({ status: lots.status }).from(lots).where(eq(lots.id, lotId));
+			throw await alreadyDecided(tx, lotId, now.status);
+		}
+		const signedAt = new Date();
+		const signature = {
+			signer_id: user.id,
+			signer_email: user.email,
+			signer_name: user.name,
+			meaning: input.decision === 'accept' ? 'release of a held lot' : 'rejection of a held lot',
+			decision: input.decision,
+			reason,
+			signed_at: signedAt.toISOString(),
+			method: 'password re-entered',
+			evaluation_id: latest?.id ?? null
+		};
+		const [decision] = await tx
+			.insert(decisions)
+			.values({ lotId, evaluationId: latest?.id ?? null, kind: 'override', fromStatus: 'on_hold', toStatus: status, reason, signature, decidedBy: user.id, decidedAt: signedAt })
+			.returning({ id: decisions.id });
+		const noticeId = await queueNotice(tx, {
+			lotId,
+			decisionId: decision.id,
+			kind: 'override',
+			status,
+			safety: latest?.safety ?? false,
+			reasons: [],
+			decisionReason: reason
+		});
+		await recordAudit(tx, {
+			actorId: user.id,
+			actorEmail: user.email,
+			action: 'lot.override_signed',
+			entityType: 'lot',
+			entityId: lotId,
+			lotId,
+			ip,
+			details: { from: 'on_hold', to: status, signature }
+		});
+		return { lotId, previousStatus: 'on_hold' as const, status, evaluationId: latest?.id ?? null, decisionId: decision.id, noticeId, evaluation: null };
+	});
+}
+
+/** Held lots for the quality queue, oldest decision first, with the latest evaluation's reasons. */
+export async function reviewQueue() {
+	const rows = await getDb().execute<{
+		id: string;
+		lot_code: string;
+		po_number: string;
+		supplier: string;
+		part_number: string;
+		quantity: number;
+		decided_at: Date | string | null;
+		result: { reasons?: { code: string; severity: string; message: string }[] } | null;
+	}>(sql`
+		select l.id, l.lot_code, l.po_number, o.name as supplier, p.part_number, l.quantity, l.decided_at,
+		       (select e.result from evaluations e where e.lot_id = l.id order by e.id desc limit 1) as result
+		from lots l join organisations o on o.id = l.supplier_id join parts p on p.id = l.part_id
+		where l.status = 'on_hold'
+		order by l.decided_at asc nulls last, l.created_at asc`);
+	return rows.rows.map((r) => ({
+		id: r.id,
+		lotCode: r.lot_code,
+		poNumber: r.po_number,
+		supplier: r.supplier,
+		partNumber: r.part_number,
+		quantity: r.quantity,
+		heldSince: r.decided_at ? new Date(r.decided_at).toISOString() : null,
+		reasons: (r.result?.reasons ?? []).filter((x) => x.severity !== 'info')
+	}));
+}

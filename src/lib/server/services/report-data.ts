@@ -1,0 +1,170 @@
+/**
+ * Builds the plain ReportData handed to the PDF report, the quarantine tag and the XLSX export,
+ * from the latest stored evaluation (or, before any decision, a preliminary evaluation computed now).
+ */
+import { desc, eq } from 'drizzle-orm';
+import type { Database, Tx } from '../db';
+import { decisions, evaluations, lots, organisations, parts, readings, users } from '../db/schema';
+import { notFound } from '../http';
+import type { ReportData, ReportReason, ReportUnit, TagData } from '../reports';
+import { evaluateLotNow, type EvaluationInputs, type LotEvaluation } from './evaluation';
+import { appOrigin } from './notices';
+
+type Db = Database | Tx;
+type StoredResult = Omit<LotEvaluation, 'inputs' | 'plan'>;
+type Engine = { result: StoredResult; plan: LotEvaluation['plan']; inputs: EvaluationInputs; decided: boolean; modelSource: string };
+
+async function loadHeader(db: Db, lotId: string) {
+	const [row] = await db
+		.select({ lot: lots, part: parts, supplier: organisations.name })
+		.from(lots)
+		.innerJoin(parts, eq(parts.id, lots.partId))
+		.innerJoin(organisations, eq(organisations.id, lots.supplierId))
+		.where(eq(lots.id, lotId));
+	if (!row) throw notFound('lot');
+	return row;
+}
+
+async function engineFor(db: Db, lotId: string): Promise<Engine> {
+	const [stored] = await db.select().from(evaluations).where(eq(evaluations.lotId, lotId)).orderBy(desc(evaluations.id)).limit(1);
+	if (stored) {
+		const result = stored.result as StoredResult;
+		return { result, plan: stored.plan as LotEvaluation['plan'], inputs: stored.inputs as EvaluationInputs, decided: true, modelSource: result.model?.source ?? 'stored' };
+	}
+	const { inputs, plan, ...result } = await evaluateLotNow(db, lotId);
+	return { result, plan, inputs, decided: false, modelSource: result.model.source };
+}
+
+/** The raw reading behind each unit's result: the latest per serial, as the engine chose it. */
+function rawBySerial(inputs: EvaluationInputs, acById: Map<number, number | null>) {
+	const r = inputs.readings;
+	const out = new Map<string, { ocv_v: number; temperature_c: number; ac: number | null; at: number }>();
+	r.serial.forEach((serial, i) => {
+		const at = Date.parse(r.measured_at[i]);
+		const seen = out.get(serial);
+		if (!seen || at > seen.at) out.set(serial, { ocv_v: r.ocv_v[i], temperature_c: r.temperature_c[i], ac: acById.get(r.id[i]) ?? null, at });
+	});
+	return out;
+}
+
+function unitsOf(engine: Engine, acById: Map<number, number | null>): ReportUnit[] {
+	const raw = rawBySerial(engine.inputs, acById);
+	return engine.result.units.map((u) => {
+		const reading = raw.get(u.serial);
+		return {
+			serial: u.serial,
+			ocv_v: reading?.ocv_v ?? u.ocv_cell_v * engine.inputs.part.cells_in_series,
+			temperature_c: reading?.temperature_c ?? 25,
+			ac_resistance_mohm: reading?.ac ?? null,
+			ocv_cell_v: u.ocv_cell_v,
+			ocv_at_25c_v: u.ocv_at_25c_v,
+			soc: u.soc,
+			soc_sigma: u.soc_sigma,
+			soc_low: u.soc_low,
+			soc_high: u.soc_high,
+			determinate: u.determinate,
+			expected_ocv_v: u.expected_ocv_v,
+			residual_v: u.residual_v,
+			flags: [...new Set([...u.flags, ...u.unit_flags])],
+			nonconforming: u.nonconforming
+		};
+	});
+}
+
+function statsOf(s: StoredResult['stats']): ReportData['stats'] {
+	if (!s || s.count === 0 || s.mean === null) return null;
+	const n = (x: number | null) => x ?? 0;
+	return { count: s.count, mean: s.mean, sd: n(s.sd), median: n(s.median), mad: n(s.mad), min: n(s.min), max: n(s.max), range: n(s.range) };
+}
+
+function variablesOf(v: StoredResult['variables']): ReportData['variables'] {
+	if (!v || v.status === 'not_applicable') return null;
+	const detail = [v.reason, v.k !== null ? `k = ${v.k.toFixed(3)}` : null, v.normality_warning ? 'normality doubtful' : null].filter(Boolean).join('; ');
+	return { method: 's-method (variables, advisory)', result: v.status, detail };
+}
+
+async function latestDecision(db: Db, lotId: string): Promise<ReportData['decision']> {
+	const [d] = await db
+		.select({ d: decisions, name: users.name, email: users.email })
+		.from(decisions)
+		.leftJoin(users, eq(users.id, decisions.decidedBy))
+		.where(eq(decisions.lotId, lotId))
+		.orderBy(desc(decisions.decidedAt))
+		.limit(1);
+	if (!d) return null;
+	const by = d.d.kind === 'automatic' ? `Disposition engine (submitted by ${d.name ?? d.email ?? 'unknown'})` : (d.name ?? d.email ?? 'unknown');
+	return { by, at: d.d.decidedAt.toISOString(), kind: d.d.kind, reason: d.d.reason };
+}
+
+export async function buildReportData(db: Db, lotId: string): Promise<ReportData> {
+	const { lot, part, supplier } = await loadHeader(db, lotId);
+	const [engine, own, acRows, decision] = await Promise.all([
+		engineFor(db, lotId),
+		db.select({ name: organisations.name }).from(organisations).where(eq(organisations.kind, 'own')).limit(1),
+		db.select({ id: readings.id, ac: readings.acResistanceMohm }).from(readings).where(eq(readings.lotId, lotId)),
+		latestDecision(db, lotId)
+	]);
+	const result = engine.result;
+	const reasons: ReportReason[] = result.reasons.map((r) => ({ code: r.code, severity: r.severity, message: r.message, ...('units' in r && r.units ? { units: r.units } : {}) }));
+	if (!engine.decided) reasons.unshift({ code: 'preliminary', severity: 'info', message: 'Preliminary: the lot has not been submitted for decision yet.' });
+	const units = unitsOf(engine, new Map(acRows.map((r) => [r.id, r.ac])));
+	return {
+		generated_at: new Date().toISOString(),
+		company: { name: own[0]?.name ?? 'Receiving inspection' },
+		lot: {
+			id: lot.id,
+			lot_code: lot.lotCode,
+			po_number: lot.poNumber,
+			status: lot.status,
+			quantity: lot.quantity,
+			declared_soc: lot.declaredSoc,
+			transport: lot.transport,
+			un_number: lot.unNumber,
+			received_at: lot.receivedAt?.toISOString() ?? null,
+			created_at: lot.createdAt.toISOString()
+		},
+		supplier: { name: supplier },
+		part: {
+			part_number: part.partNumber,
+			description: part.description,
+			chemistry: part.chemistry,
+			cells_in_series: part.cellsInSeries,
+			cells_in_parallel: part.cellsInParallel,
+			nominal_capacity_ah: part.nominalCapacityAh
+		},
+		plan: {
+			...engine.plan,
+			aql: engine.inputs.plan_request.aql,
+			level: engine.inputs.plan_request.level
+		},
+		severity: result.severity,
+		disposition: { status: engine.decided ? result.status : 'pending', safety: result.safety, reasons, nonconforming: result.nonconforming },
+		stats: statsOf(result.stats),
+		variables: variablesOf(result.variables),
+		limits: { ocv_min_v: part.ocvMinCellV, ocv_max_v: part.ocvMaxCellV, expected_ocv_v: units.find((u) => u.expected_ocv_v !== null)?.expected_ocv_v ?? null },
+		units,
+		model: { version: result.model.version, chemistry: result.model.chemistry, source: engine.modelSource },
+		decision
+	};
+}
+
+/** The quarantine tag's data; null when the lot is neither on hold nor rejected. */
+export function tagDataFrom(report: ReportData): TagData | null {
+	const status = report.lot.status;
+	if (status !== 'on_hold' && status !== 'rejected') return null;
+	const main = report.disposition.reasons.find((r) => r.severity !== 'info');
+	const reason = report.decision?.kind === 'override' && report.decision.reason ? report.decision.reason : (main?.message ?? 'See the inspection report');
+	return {
+		lot_code: report.lot.lot_code,
+		po_number: report.lot.po_number,
+		status,
+		supplier: report.supplier.name,
+		part_number: report.part.part_number,
+		chemistry: report.part.chemistry,
+		quantity: report.lot.quantity,
+		reason,
+		safety: report.disposition.safety,
+		date: report.decision?.at ?? report.generated_at,
+		url: `${appOrigin()}/lots/${report.lot.id}`
+	};
+}

@@ -1,0 +1,14 @@
+// A quality manager approves a stored version; only approved versions may be chosen for parts.
+import { json } from '@sveltejs/kit';
+import { api, authorize, conflict, notFound } from '$lib/server/http';
+import { approveModel, getModelVersion } from '$lib/server/services/models';
+import type { RequestHandler } from './$types';
+
+export const POST: RequestHandler = api(async (event) => {
+	const user = authorize(event, 'model:approve');
+	const outcome = await approveModel(user, event.params.id);
+	if (outcome === 'not_found') throw notFound('model version');
+	if (outcome === 'already_approved') throw conflict('This model version is already approved');
+	const { model: _model, ...version } = (await getModelVersion(event.params.id))!;
+	return json(version);
+});

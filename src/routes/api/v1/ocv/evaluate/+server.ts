@@ -1,0 +1,47 @@
+// Many readings of one chemistry → SOC with interval, expected OCV, residual and flags per reading.
+// Validation is split: zod for the small header, a plain loop for the (up to 10,000) readings.
+import { ElectrochemError, evaluateReadings, getLibraryModel, type ReadingInput } from '$lib/electrochem';
+import { api, ApiError, authorize, badRequest, parseWith, unprocessable } from '$lib/server/http';
+import { evaluateHeader, MAX_READINGS, readingsIssues } from '$lib/schemas/electrochem';
+import { serialiseResults } from './serialise';
+import type { RequestHandler } from './$types';
+
+async function readBody(request: Request): Promise<unknown> {
+	try {
+		return await request.json();
+	} catch {
+		throw badRequest('The request body is not valid JSON');
+	}
+}
+
+function checkCount(body: unknown): void {
+	const readings = (body as { readings?: unknown } | null)?.readings;
+	if (Array.isArray(readings) && readings.length > MAX_READINGS) {
+		throw new ApiError(
+			413,
+			'too_many_readings',
+			`At most ${MAX_READINGS} readings per call; this body has ${readings.length}. Split it into several calls.`,
+			[{ path: 'readings', message: `must hold at most ${MAX_READINGS} readings` }]
+		);
+	}
+}
+
+export const POST: RequestHandler = api(async (event) => {
+	authorize(event, 'electrochem:use');
+	const body = await readBody(event.request);
+	checkCount(body);
+	const header = parseWith(evaluateHeader, body, 'The request body');
+	const issues = readingsIssues(header.readings);
+	if (issues.length > 0) throw unprocessable('Some readings are not valid', issues);
+	try {
+		const results = evaluateReadings(getLibraryModel(header.chemistry), header.readings as ReadingInput[], {
+			cells_in_series: header.cells_in_series,
+			declared_soc: header.declared_soc,
+			meter_accuracy_v: header.meter_accuracy_v
+		});
+		return new Response(serialiseResults(results), { headers: { 'content-type': 'application/json' } });
+	} catch (e) {
+		if (e instanceof ElectrochemError) throw unprocessable(e.message, [{ path: e.field, message: e.message }]);
+		throw e;
+	}
+});
