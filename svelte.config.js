@@ -6,8 +6,8 @@ const config = {
 	preprocess: vitePreprocess(),
 	kit: {
 		// Separate output folders let several builds run side by side (e.g. parallel developer sessions).
-		adapter: adapter({ out: process.env.RESTVOLT_BUILD_DIR ?? 'build' }),
-		outDir: process.env.RESTVOLT_KIT_DIR ?? '.svelte-kit',
+		adapter: adapter({ out: process.env.RESTVOLT_BUILD_DIR || 'build' }),
+		outDir: process.env.RESTVOLT_KIT_DIR || '.svelte-kit',
 		csp: {
 			mode: 'hash',
 			directives: {

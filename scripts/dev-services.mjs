@@ -11,9 +11,11 @@ import { ensureDatabase, ensurePostgres } from './lib/pg.mjs';
 import { startMailPeer } from './lib/mail-peer.mjs';
 import { migrateDatabase } from './lib/migrate.mjs';
 import { freePort, runInherit } from './lib/proc.mjs';
+import { ensureKitSync } from './lib/deps.mjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const envFile = resolve(process.argv[2] ?? join(root, '.data', 'test-env.sh'));
+await ensureKitSync(root);
 const scratch = mkdtempSync(join(tmpdir(), 'restvolt-dev-'));
 chmodSync(scratch, 0o755); // the postgres user must be able to enter it
 const pg = await ensurePostgres({ dataDir: join(scratch, 'pg'), preferredPort: await freePort(), throwaway: true });

@@ -4,13 +4,14 @@
 import { spawn } from 'node:child_process';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { ensureNodeModules } from './lib/deps.mjs';
+import { ensureKitSync, ensureNodeModules } from './lib/deps.mjs';
 import { firstFreePort, runInherit, waitForHttp } from './lib/proc.mjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 const dataRoot = join(root, '.data');
 process.chdir(root);
 await ensureNodeModules(root);
+await ensureKitSync(root);
 
 const { ensureDatabase, ensurePostgres } = await import('./lib/pg.mjs');
 const { startMailPeer } = await import('./lib/mail-peer.mjs');

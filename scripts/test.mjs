@@ -6,7 +6,7 @@ import { chmodSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { ensureDebianPackages, ensureNodeModules } from './lib/deps.mjs';
+import { ensureDebianPackages, ensureKitSync, ensureNodeModules } from './lib/deps.mjs';
 import { freePort, runInherit } from './lib/proc.mjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
@@ -15,6 +15,7 @@ const only = process.argv.slice(2); // e.g. `npm test -- unit integration`
 const wants = (stage) => only.length === 0 || only.includes(stage);
 
 await ensureNodeModules(root);
+await ensureKitSync(root);
 ensureDebianPackages(['chromium', 'poppler-utils'], ['chromium', 'pdftotext', 'pdfinfo', 'pdftoppm']);
 
 const { ensureDatabase, ensurePostgres } = await import('./lib/pg.mjs');

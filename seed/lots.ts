@@ -1,8 +1,106 @@
+/**
+ * Seeds the thirty demo lots through the same services the app uses (register, documents,
+ * readings, submit, e-signed override), so every verdict in the demo is the engine's own.
+ * A lot whose PO number already exists is left alone, which keeps the seed idempotent.
+ */
+import { eq, sql } from 'drizzle-orm';
 import type { Database } from '../src/lib/server/db';
+import { decisions, evaluations, lots } from '../src/lib/server/db/schema';
+import type { SessionUser } from '../src/lib/roles';
+import { cancelLot, createLot, markAwaitingArrival } from '../src/lib/server/services/lots';
+import { uploadDocument } from '../src/lib/server/services/documents';
+import { addReadings } from '../src/lib/server/services/readings';
+import { evaluateLotNow } from '../src/lib/server/services/evaluation';
+import { decideOverride, submitLot } from '../src/lib/server/services/decisions';
+import { isLithium, isLithiumIon } from '../src/lib/schemas/lot';
+import { demoDocument, type DemoDocumentKind } from './documents';
+import { LOTS, type LotSeed } from './lot-plan';
 import type { SeededPeople } from './people';
 import type { SeededPart } from './parts';
+import { demoReadings } from './readings-gen';
+import { DEMO_PASSWORD, STAFF, SUPPLIERS } from './scenario';
 
-// Filled in once the lot, reading and decision services exist.
-export async function seedLots(_db: Database, _people: SeededPeople, _parts: Map<string, SeededPart>): Promise<number> {
-	return 0;
+const DAY = 86_400_000;
+
+function staffUser(people: SeededPeople, role: 'buyer' | 'inspector' | 'quality'): SessionUser {
+	const person = STAFF.find((s) => s.role === role)!;
+	return { id: people.staff.get(person.email)!, email: person.email, name: person.name, role, organisationId: people.ownId };
+}
+
+function unNumberFor(part: SeededPart): string | null {
+	if (!isLithium(part.chemistry)) return null;
+	const pack = part.series * part.parallel > 1;
+	if (isLithiumIon(part.chemistry)) return pack ? 'UN3480' : 'UN3480';
+	return 'UN3090';
+}
+
+async function attachDocuments(db: Database, buyer: SessionUser, lotId: string, spec: LotSeed, part: SeededPart) {
+	const supplierName = SUPPLIERS.find((s) => s.key === part.supplier)!.name;
+	const kinds = (spec.stage === 'draft' ? ['coc'] : part.requiredDocuments) as DemoDocumentKind[];
+	for (const kind of kinds) {
+		if (spec.finding === 'documents_missing' && kind === 'un38_3_summary') continue;
+		const bytes = await demoDocument(kind, supplierName, part.partNumber, spec.po);
+		await uploadDocument(db, buyer, lotId, { kind, fileName: `${kind}-${spec.po}.pdf`, bytes });
+	}
+}
+
+/** Move the lot's dates back so the demo has a history (switching rules, scorecard trends). */
+async function backdate(db: Database, lotId: string, when: Date) {
+	await db.update(lots).set({ createdAt: when, updatedAt: when, decidedAt: sql`case when ${lots.decidedAt} is null then null else ${new Date(when.getTime() + DAY)}::timestamptz end` }).where(eq(lots.id, lotId));
+	await db.update(decisions).set({ decidedAt: new Date(when.getTime() + DAY) }).where(eq(decisions.lotId, lotId));
+	await db.update(evaluations).set({ createdAt: new Date(when.getTime() + DAY) }).where(eq(evaluations.lotId, lotId));
+}
+
+async function inspect(db: Database, people: SeededPeople, lotId: string, spec: LotSeed, part: SeededPart, index: number, when: Date) {
+	const { plan } = await evaluateLotNow(db, lotId);
+	const full = Math.min(plan.sample_size, spec.quantity);
+	const count = spec.stage === 'in_inspection' ? Math.max(1, Math.floor(full / 2)) : full;
+	const rows = demoReadings(part, spec.finding ?? 'as_declared', spec.declaredSoc, count, 1000 + index, new Date(when.getTime() + DAY / 2));
+	await addReadings(db, staffUser(people, 'inspector'), lotId, rows, 'import');
+}
+
+async function seedOne(db: Database, people: SeededPeople, part: SeededPart, spec: LotSeed, index: number) {
+	const buyer = staffUser(people, 'buyer');
+	const when = new Date(Date.now() - spec.daysAgo * DAY);
+	const lot = await createLot(
+		db,
+		buyer,
+		{
+			poNumber: spec.po,
+			supplierId: part.supplierId,
+			partId: part.id,
+			quantity: spec.quantity,
+			declaredSoc: spec.declaredSoc,
+			transport: spec.transport,
+			unNumber: unNumberFor(part),
+			expectedArrival: new Date(when.getTime() + 7 * DAY).toISOString().slice(0, 10)
+		},
+		{ status: 'draft' }
+	);
+	await attachDocuments(db, buyer, lot.id, spec, part);
+	if (spec.stage === 'cancelled') await cancelLot(db, buyer, lot.id, 'Order merged into a later PO');
+	if (spec.stage !== 'draft' && spec.stage !== 'cancelled') await markAwaitingArrival(db, buyer, lot.id);
+	if (['in_inspection', 'pending_decision', 'decided'].includes(spec.stage)) await inspect(db, people, lot.id, spec, part, index, when);
+	if (spec.stage === 'pending_decision') {
+		await db.update(lots).set({ status: 'pending_decision' }).where(eq(lots.id, lot.id));
+	}
+	if (spec.stage === 'decided') {
+		const outcome = await submitLot(staffUser(people, 'inspector'), lot.id);
+		if (spec.override && outcome.status === 'on_hold') {
+			await decideOverride(staffUser(people, 'quality'), lot.id, { ...spec.override, password: DEMO_PASSWORD });
+		}
+	}
+	await backdate(db, lot.id, when);
+}
+
+export async function seedLots(db: Database, people: SeededPeople, parts: Map<string, SeededPart>): Promise<number> {
+	const existing = new Set((await db.select({ po: lots.poNumber }).from(lots)).map((r) => r.po));
+	let index = 0;
+	for (const spec of LOTS) {
+		index += 1;
+		if (existing.has(spec.po)) continue;
+		await seedOne(db, people, parts.get(spec.part)!, spec, index);
+	}
+	const [{ n }] = await db.select({ n: sql<number>`count(*)::int` }).from(lots);
+	return n;
 }

@@ -43,7 +43,7 @@ export async function seedModelsAndParts(db: Database, people: SeededPeople): Pr
 		const supplierId = people.suppliers.get(part.supplier)!;
 		const modelId = modelIds.get(part.chemistry)!;
 		const model = getLibraryModel(part.chemistry);
-		const [ocvMin, ocvMax] = part.window ?? [model.min_safe_v, model.max_v];
+		const [ocvMin, ocvMax] = part.window ?? [model.ocv_empty_v, model.ocv_full_v];
 		const found = await db.query.parts.findFirst({
 			where: and(eq(parts.supplierId, supplierId), eq(parts.partNumber, part.partNumber))
 		});
@@ -63,7 +63,9 @@ export async function seedModelsAndParts(db: Database, people: SeededPeople): Pr
 						modelId,
 						ocvMinCellV: ocvMin,
 						ocvMaxCellV: ocvMax,
-						residualToleranceMv: part.chemistry === 'LFP' ? 40 : 60,
+						// Per-unit residuals catch gross anomalies (wrong part, damaged unit); a lot-wide SOC
+						// difference is the declared-SOC check's job (a hold), so this tolerance is the wider one.
+						residualToleranceMv: part.chemistry === 'PBACID' ? 60 : 150,
 						spreadLimitMv: part.chemistry === 'PBACID' ? 60 : 40,
 						aql: part.aql,
 						inspectionLevel: part.level,

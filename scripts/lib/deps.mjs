@@ -30,3 +30,9 @@ export function ensureDebianPackages(packages, commands) {
 		stdio: 'ignore'
 	});
 }
+
+/** Generate .svelte-kit/ (tsconfig paths for $lib), which the seed and scripts run through tsx rely on. */
+export async function ensureKitSync(root) {
+	const code = await runInherit('npx', ['svelte-kit', 'sync'], { cwd: root, env: { ...process.env, RESTVOLT_KIT_DIR: '' } });
+	if (code !== 0) throw new Error('svelte-kit sync failed');
+}

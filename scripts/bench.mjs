@@ -1,0 +1,70 @@
+#!/usr/bin/env node
+// `npm run bench`: a throw-away PostgreSQL cluster (migrated, demo-seeded), the built app (built
+// here when older than the sources; RESTVOLT_BUILD_DIR chooses the folder, default build/), then
+// the benchmark itself (tests/bench/run.ts, run with tsx). Stops everything and removes the scratch
+// folder at the end. Not part of `npm test`: no test asserts a time.
+import { chmodSync, existsSync, mkdtempSync, readdirSync, rmSync, statSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { dirname, join, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { ensureDatabase, ensurePostgres } from './lib/pg.mjs';
+import { migrateDatabase } from './lib/migrate.mjs';
+import { ensureBuild } from './lib/build.mjs';
+import { freePort, runInherit } from './lib/proc.mjs';
+
+const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
+process.chdir(root);
+const buildDir = process.env.RESTVOLT_BUILD_DIR ?? 'build';
+
+function newestMtime(path) {
+	const st = statSync(path);
+	if (!st.isDirectory()) return st.mtimeMs;
+	return readdirSync(path).reduce((max, name) => Math.max(max, newestMtime(join(path, name))), st.mtimeMs);
+}
+
+/** ensureBuild knows only build/; the same freshness rule for another folder. */
+async function ensureBuildIn(dir) {
+	if (dir === 'build') return ensureBuild(root);
+	const handler = join(root, dir, 'handler.js');
+	const inputs = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json'];
+	const sourcesTime = Math.max(...inputs.map((p) => join(root, p)).filter(existsSync).map(newestMtime));
+	if (existsSync(handler) && statSync(handler).mtimeMs > sourcesTime) return;
+	console.log(`[bench] building the app into ${dir}/ (vite build)…`);
+	const code = await runInherit('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: root });
+	if (code !== 0) throw new Error('vite build failed');
+}
+
+// Ctrl-C reaches the benchmark too; wait for it to end so the cleanup below still runs.
+process.on('SIGINT', () => {});
+process.on('SIGTERM', () => {});
+
+const scratch = mkdtempSync(join(tmpdir(), 'restvolt-bench-'));
+chmodSync(scratch, 0o755); // the postgres user must be able to enter it
+const quiet = () => {};
+let pg;
+let exitCode = 1;
+try {
+	pg = await ensurePostgres({ dataDir: join(scratch, 'pg'), preferredPort: await freePort(), throwaway: true, log: quiet });
+	const databaseUrl = await ensureDatabase(pg.url, 'restvolt_bench');
+	await migrateDatabase(databaseUrl, root);
+	const { NODE_ENV: _production, ...seedEnv } = process.env; // the demo seed refuses NODE_ENV=production
+	const seeded = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...seedEnv, DATABASE_URL: databaseUrl }, stdio: ['ignore', 'ignore', 'inherit'] });
+	if (seeded !== 0) throw new Error('seeding the bench database failed');
+	await ensureBuildIn(buildDir);
+	exitCode = await runInherit('npx', ['tsx', '--tsconfig', 'tests/bench/tsconfig.json', 'tests/bench/run.ts'], {
+		env: {
+			...process.env,
+			DATABASE_URL: databaseUrl,
+			BENCH_PG_URL: pg.url,
+			BENCH_PG_BIN: pg.bin,
+			BENCH_BUILD_DIR: buildDir,
+			BENCH_SCRATCH: scratch
+		}
+	});
+} catch (error) {
+	console.error('[bench] setup failed:', error);
+} finally {
+	await pg?.stop();
+	rmSync(scratch, { recursive: true, force: true });
+}
+process.exit(exitCode);
