@@ -44,6 +44,7 @@ export async function postForm(baseUrl: string, path: string, fields: Record<str
 		redirect: 'manual',
 		headers: {
 			origin: baseUrl,
+			accept: 'text/html', // a real 303 from form actions, as a browser gets without JavaScript
 			'content-type': 'application/x-www-form-urlencoded',
 			...(cookie ? { cookie } : {})
 		},

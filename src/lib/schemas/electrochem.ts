@@ -96,3 +96,23 @@ export const saveFitForm = z.object({
 export const approveForm = z.object({
 	id: z.uuid()
 });
+
+/** A stored model version as the API and pages show it. */
+export type ModelStatus = 'approved' | 'awaiting_approval';
+
+export interface ModelVersion {
+	id: string;
+	chemistry: string;
+	version: string;
+	name: string;
+	origin: 'library' | 'fitted';
+	status: ModelStatus;
+	source: string;
+	fit_temperature_c: number | null;
+	fit_rmse_v: number | null;
+	fit_max_error_v: number | null;
+	created_at: string;
+	created_by: string | null;
+	approved_at: string | null;
+	approved_by: string | null;
+}

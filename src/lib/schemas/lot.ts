@@ -76,13 +76,19 @@ export const lotFormSchema = z.object({
 	supplier_id: uuidField('supplier'),
 	part_id: uuidField('part'),
 	quantity,
+	// Nullable so an untouched field reads as "not entered" rather than a silent 0 %.
 	declared_soc_pct: z
 		.number({ error: 'Enter the declared SOC in %' })
 		.min(0, 'The declared SOC is between 0 and 100 %')
-		.max(100, 'The declared SOC is between 0 and 100 %'),
+		.max(100, 'The declared SOC is between 0 and 100 %')
+		.nullable()
+		.default(null),
 	transport,
 	un_number: unNumber.default(''),
 	expected_arrival: z.union([z.literal(''), isoDate]).default('')
+}).refine((v) => v.declared_soc_pct !== null, {
+	path: ['declared_soc_pct'],
+	message: 'Enter the declared SOC at shipment in %'
 });
 export type LotForm = z.infer<typeof lotFormSchema>;
 
@@ -120,7 +126,7 @@ export function lotInputFromForm(form: LotForm): LotInput {
 		supplierId: form.supplier_id,
 		partId: form.part_id,
 		quantity: form.quantity,
-		declaredSoc: Math.round(form.declared_soc_pct * 100) / 10_000,
+		declaredSoc: Math.round((form.declared_soc_pct ?? 0) * 100) / 10_000,
 		transport: form.transport,
 		unNumber: form.un_number || null,
 		expectedArrival: form.expected_arrival || null

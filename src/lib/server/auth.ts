@@ -8,7 +8,7 @@
  * throttle and audit, and call `signInWith` below.
  */
 import { isRedirect, redirect, type Handle, type RequestEvent } from '@sveltejs/kit';
-import { SvelteKitAuth, CredentialsSignin, type SvelteKitAuthConfig } from '@auth/sveltekit';
+import { SvelteKitAuth, AuthError, CredentialsSignin, type SvelteKitAuthConfig } from '@auth/sveltekit';
 import Credentials from '@auth/sveltekit/providers/credentials';
 import Nodemailer from '@auth/sveltekit/providers/nodemailer';
 import { DrizzleAdapter } from '@auth/drizzle-adapter';
@@ -49,9 +49,12 @@ function config(event: RequestEvent): SvelteKitAuthConfig {
 		secret: env.AUTH_SECRET,
 		pages: { signIn: '/signin', verifyRequest: '/signin/link-sent', error: '/signin' },
 		logger: {
-			// A wrong password is an expected outcome, not a server error.
+			// A wrong password or a refused e-mail address is an expected outcome, not a server error.
 			error: (error) => {
-				if (!(error instanceof CredentialsSignin)) console.error('[auth]', error);
+				const expected =
+					error instanceof CredentialsSignin ||
+					(error instanceof AuthError && (error.type === 'AccessDenied' || error.type === 'Verification'));
+				if (!expected) console.error('[auth]', error);
 			}
 		},
 		providers: [
@@ -125,7 +128,11 @@ export const authHandle: Handle = async (input) => {
 	if (request.method === 'POST' && url.pathname.startsWith('/auth/')) {
 		return new Response('Sign in at /signin', { status: 404 });
 	}
-	return auth.handle(input);
+	const response = await auth.handle(input);
+	if (!url.pathname.startsWith('/auth/')) return response;
+	// Auth.js answers some errors with Response.redirect(), whose headers are immutable; the
+	// security-headers hook needs to add to them.
+	return new Response(response.body, response);
 };
 
 /** Rebuild the request with these fields: superforms has already read the original body. */
@@ -138,11 +145,13 @@ function withForm(event: RequestEvent, fields: Record<string, string>): RequestE
 	return { ...event, request: new Request(event.request.url, { method: 'POST', headers, body }) };
 }
 
-export type SignInOutcome = 'invalid' | 'throttled' | 'refused';
+export type SignInOutcome =
+	| { ok: true; location: string }
+	| { ok: false; reason: 'invalid' | 'throttled' | 'refused' };
 
 /**
- * Sign in through Auth.js from a form action. On success this throws a 303 redirect to
- * `redirectTo` (or, for the e-mail provider, to the "link sent" page); otherwise it says why not.
+ * Sign in through Auth.js from a form action (superforms has read the body, so the fields are
+ * passed again). Success gives the location Auth.js would redirect to; the caller redirects.
  */
 export async function signInWith(
 	event: RequestEvent,
@@ -152,12 +161,12 @@ export async function signInWith(
 	try {
 		await auth.signIn(withForm(event, { providerId: provider, ...fields }));
 	} catch (error) {
-		if (isRedirect(error)) redirect(303, error.location);
-		if (error instanceof CredentialsSignin) return error.code === 'throttled' ? 'throttled' : 'invalid';
-		if (error instanceof Error && error.name === 'AccessDenied') return 'refused';
+		if (isRedirect(error)) return { ok: true, location: error.location };
+		if (error instanceof CredentialsSignin) return { ok: false, reason: error.code === 'throttled' ? 'throttled' : 'invalid' };
+		if (error instanceof AuthError && error.type === 'AccessDenied') return { ok: false, reason: 'refused' };
 		throw error;
 	}
-	return 'refused';
+	return { ok: false, reason: 'refused' };
 }
 
 /** Clear the session cookie (Auth.js sign-out), then go to `redirectTo` with a 303. */

@@ -141,3 +141,27 @@ export async function listNoticesWithReplies(db: Db, lotId: string, replyLink: (
 			}))
 	}));
 }
+
+/** The whole paper trail of a lot the user may see (the caller checked access). */
+export async function lotHistory(
+	db: Database,
+	user: { role: string },
+	lot: { id: string; status: string }
+): Promise<LotHistory> {
+	const base = `/api/v1/lots/${lot.id}`;
+	const [evals, decs, notes] = await Promise.all([
+		listEvaluations(db, lot.id),
+		listDecisions(db, lot.id),
+		listNoticesWithReplies(db, lot.id, (docId) => `${base}/documents/${docId}`)
+	]);
+	const held = lot.status === 'on_hold' || lot.status === 'rejected';
+	return {
+		lotId: lot.id,
+		status: lot.status,
+		canSubmit: (user.role === 'inspector' || user.role === 'quality') && (lot.status === 'in_inspection' || lot.status === 'pending_decision'),
+		links: { report: `${base}/report.pdf`, quarantineTag: held ? `${base}/quarantine-tag.pdf` : null, readings: `${base}/readings.xlsx` },
+		evaluations: evals,
+		decisions: decs,
+		notices: notes
+	};
+}

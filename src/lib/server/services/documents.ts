@@ -60,7 +60,7 @@ export function checkUpload(fileName: string, bytes: Uint8Array): AcceptedMime {
 	const ext = extensionOf(fileName);
 	const claimed = ext ? MIME_OF_EXTENSION[ext] : undefined;
 	if (!mime) {
-		const why = claimed ? `is named .${ext} but its content is not a ${ext.toUpperCase()} file` : 'is not a PDF, PNG or JPEG file';
+		const why = claimed && ext ? `is named .${ext} but its content is not a ${ext.toUpperCase()} file` : 'is not a PDF, PNG or JPEG file';
 		throw new DocumentRejected(415, 'unsupported_type', `“${fileName}” ${why}. Upload a PDF, PNG or JPEG.`);
 	}
 	if (claimed && claimed !== mime) {

@@ -8,6 +8,8 @@ import { auditEvents, decisions, lots, organisations, parts, users } from '../db
 import type { SessionUser } from '$lib/roles';
 import { LOT_FIELD, unNumberProblem, type LotInput, type LotStatus } from '$lib/schemas/lot';
 import { recordAudit } from './audit';
+import { currentSeverity } from './switching';
+import { ApiError, conflict, unprocessable } from '../http';
 
 /** Bad input that only the database can judge (unknown ids, part of another supplier…). */
 export class InputError extends Error {
@@ -106,14 +108,13 @@ async function nextLotCode(tx: Tx, now: Date): Promise<string> {
 export interface CreateLotOptions {
 	/** Form registrations start as drafts; API registrations are released at once. */
 	status: Extract<LotStatus, 'draft' | 'awaiting_arrival'>;
-	/** Sampling severity for this supplier and part now (normal when unknown). */
-	severity?: 'normal' | 'tightened' | 'reduced' | 'discontinued';
 	ip?: string | null;
 }
 
 export async function createLot(db: Database, actor: SessionUser, input: LotInput, opts: CreateLotOptions): Promise<LotRow> {
 	return db.transaction(async (tx) => {
 		await checkReferences(tx, input);
+		const { severity } = await currentSeverity(tx, input.supplierId, input.partId);
 		const now = new Date();
 		const [lot] = await tx
 			.insert(lots)
@@ -128,7 +129,7 @@ export async function createLot(db: Database, actor: SessionUser, input: LotInpu
 				unNumber: input.unNumber,
 				expectedArrival: input.expectedArrival,
 				status: opts.status,
-				severity: opts.severity ?? 'normal',
+				severity,
 				createdBy: actor.id
 			})
 			.returning();
@@ -354,6 +355,14 @@ export async function lotHistory(db: Database, lotId: string): Promise<HistoryEn
 }
 
 // ---------------------------------------------------------------- JSON
+
+/** The API answer for a service error (null when it is not one of ours). */
+export function lotErrorToApi(error: unknown): ApiError | null {
+	if (error instanceof InputError) return unprocessable('Some fields are not valid', error.issues);
+	if (error instanceof LotConflictError) return conflict(error.message);
+	if (error instanceof BadCursorError) return new ApiError(400, 'bad_request', error.message);
+	return null;
+}
 
 const isoDate = (d: Date | null) => (d ? d.toISOString() : null);
 

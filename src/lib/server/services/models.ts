@@ -10,25 +10,9 @@ import { getDb } from '../db';
 import { ocvModels, users } from '../db/schema';
 import { recordAudit } from './audit';
 import type { Actor } from './users';
+import type { ModelStatus, ModelVersion } from '../../schemas/electrochem';
 
-export type ModelStatus = 'approved' | 'awaiting_approval';
-
-export interface ModelVersion {
-	id: string;
-	chemistry: string;
-	version: string;
-	name: string;
-	origin: 'library' | 'fitted';
-	status: ModelStatus;
-	source: string;
-	fit_temperature_c: number | null;
-	fit_rmse_v: number | null;
-	fit_max_error_v: number | null;
-	created_at: string;
-	created_by: string | null;
-	approved_at: string | null;
-	approved_by: string | null;
-}
+export type { ModelStatus, ModelVersion };
 
 const creator = alias(users, 'creator');
 const approver = alias(users, 'approver');
@@ -94,17 +78,17 @@ export async function listModelVersions(filter: { chemistry?: ChemistryCode; sta
 export const listApprovedModels = (chemistry?: ChemistryCode) => listModelVersions({ chemistry, status: 'approved' });
 
 /** One version with its model; the model is null when the stored JSON no longer validates. */
-export async function getModelVersion(id: string): Promise<(ModelVersion & { model: OcvModel | null }) | null> {
+export async function getModelVersion(id: string): Promise<{ version: ModelVersion; model: OcvModel | null } | null> {
 	const [row] = await versionQuery().where(eq(ocvModels.id, id));
 	if (!row) return null;
 	const [stored] = await getDb().select({ parameters: ocvModels.parameters }).from(ocvModels).where(eq(ocvModels.id, id));
-	return { ...toVersion(row), model: validateModel(stored.parameters) };
+	return { version: toVersion(row), model: validateModel(stored.parameters) };
 }
 
 /** Approved model for evaluation, or null when the id is unknown, unapproved or invalid. */
 export async function getApprovedModel(id: string): Promise<OcvModel | null> {
 	const found = await getModelVersion(id);
-	return found && found.status === 'approved' ? found.model : null;
+	return found && found.version.status === 'approved' ? found.model : null;
 }
 
 export type SaveFitResult =
@@ -122,7 +106,7 @@ async function nextFitVersion(chemistry: ChemistryCode): Promise<string> {
 	return `${FIT_PREFIX}${Math.max(0, ...used) + 1}`;
 }
 
-const isUniqueViolation = (e: unknown) =>
+const isUniqueViolation = (e: unknown): boolean =>
 	typeof e === 'object' && e !== null && ((e as { code?: string }).code === '23505' || isUniqueViolation((e as { cause?: unknown }).cause));
 
 /** Fit the combined model to a reference curve and store it as a new, unapproved version. */
@@ -142,7 +126,7 @@ export async function saveFittedModel(
 		try {
 			const id = await insertFitted(actor, model, fit.rmse_v, fit.max_error_v, input.temperature_c, input.points.length);
 			const saved = await getModelVersion(id);
-			return { ok: true, version: saved! };
+			return { ok: true, version: saved!.version };
 		} catch (e) {
 			if (!isUniqueViolation(e)) throw e; // someone saved the same version number at once: try the next
 		}

@@ -11,10 +11,13 @@ import type { Database, Tx } from '../db';
 import { readings } from '../db/schema';
 import { ApiError, conflict, notFound, unprocessable, type ApiIssue } from '../http';
 import { recordAudit } from './audit';
+import { recordArrival } from './lots';
 
 export type ReadingSource = 'keyboard' | 'import' | 'api';
 /** Lots that take new readings; awaiting_arrival is moved into inspection by the first batch. */
 const OPEN_STATUSES = ['awaiting_arrival', 'in_inspection'] as const;
+/** A held lot may be corrected too: quality then re-evaluates it (a new evaluation row). */
+const CORRECTABLE = ['in_inspection', 'pending_decision', 'on_hold'];
 /** Rows per INSERT … SELECT FROM unnest(…): one round trip per chunk, parameters stay arrays. */
 const CHUNK = 5000;
 
@@ -69,22 +72,6 @@ export function validateReadings(rows: unknown[]): ReadingInputRow[] {
 	});
 	if (issues.length > 0) throw unprocessable(`${new Set(issues.map((i) => i.path.split('.')[1])).size} reading(s) are not valid; nothing was stored`, issues.slice(0, 200));
 	return valid;
-}
-
-/** Moves an awaiting lot into inspection and records the arrival time (first reading = arrival). */
-async function recordArrival(tx: Tx, user: SessionUser, lotId: string): Promise<void> {
-	await tx.execute(sql`
-		update lots set status = 'in_inspection', received_at = coalesce(received_at, now()), updated_at = now()
-		where id = ${lotId} and status = 'awaiting_arrival'`);
-	await recordAudit(tx, {
-		actorId: user.id,
-		actorEmail: user.email,
-		action: 'lot.arrived',
-		entityType: 'lot',
-		entityId: lotId,
-		lotId,
-		details: { from: 'awaiting_arrival', to: 'in_inspection', by: 'first reading' }
-	});
 }
 
 async function insertChunk(tx: Tx, lotId: string, user: SessionUser, rows: ReadingInputRow[], source: ReadingSource, importId: string | null): Promise<number> {
@@ -175,7 +162,7 @@ export async function listReadings(db: Database | Tx, lotId: string): Promise<St
 export async function correctReading(db: Database, user: SessionUser, lotId: string, readingId: number, change: ReadingCorrection): Promise<StoredReading> {
 	return db.transaction(async (tx) => {
 		const lot = await lockLot(tx, lotId);
-		if (lot.status !== 'in_inspection') throw conflict(`Readings can only be corrected while the lot is in inspection (it is ${lot.status.replace('_', ' ')})`);
+		if (!CORRECTABLE.includes(lot.status)) throw conflict(`Readings can only be corrected before a final decision or while the lot is on hold (it is ${lot.status.replace('_', ' ')})`);
 		const [before] = await tx.select(selectColumns).from(readings).where(and(eq(readings.id, readingId), eq(readings.lotId, lotId)));
 		if (!before) throw notFound('reading');
 		const patch = {
@@ -196,4 +183,41 @@ export async function correctReading(db: Database, user: SessionUser, lotId: str
 		});
 		return { ...after, measured_at: after.measured_at.toISOString() };
 	});
+}
+
+export interface BenchLot {
+	id: string;
+	lot_code: string;
+	po_number: string;
+	status: 'awaiting_arrival' | 'in_inspection';
+	supplier_name: string;
+	part_number: string;
+	part_description: string;
+	chemistry: string;
+	cells_in_series: number;
+	quantity: number;
+	aql: number;
+	inspection_level: string;
+	severity: string | null;
+	expected_arrival: string | null;
+	received_at: string | null;
+	created_at: string;
+	/** Distinct serials measured so far. */
+	units_measured: number;
+}
+
+/** Lots for the receiving bench: awaiting arrival or in inspection, oldest first. */
+export async function benchLots(db: Database): Promise<BenchLot[]> {
+	const result = await db.execute<BenchLot & Record<string, unknown>>(sql`
+		select l.id, l.lot_code, l.po_number, l.status::text as status, o.name as supplier_name, p.part_number,
+		       p.description as part_description, p.chemistry, p.cells_in_series, l.quantity, p.aql, p.inspection_level,
+		       l.severity::text as severity, l.expected_arrival::text as expected_arrival,
+		       l.received_at, l.created_at,
+		       (select count(distinct r.serial) from readings r where r.lot_id = l.id)::int as units_measured
+		from lots l join parts p on p.id = l.part_id join organisations o on o.id = l.supplier_id
+		where l.status in ('awaiting_arrival', 'in_inspection')
+		order by coalesce(l.received_at, l.created_at), l.id
+		limit 500`);
+	const iso = (d: unknown) => (d instanceof Date ? d.toISOString() : d === null ? null : String(d));
+	return result.rows.map((r) => ({ ...r, aql: Number(r.aql), received_at: iso(r.received_at), created_at: iso(r.created_at) ?? '' }));
 }

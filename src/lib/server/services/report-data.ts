@@ -2,15 +2,17 @@
  * Builds the plain ReportData handed to the PDF report, the quarantine tag and the XLSX export,
  * from the latest stored evaluation (or, before any decision, a preliminary evaluation computed now).
  */
-import { desc, eq } from 'drizzle-orm';
+import { and, desc, eq, lte } from 'drizzle-orm';
 import type { Database, Tx } from '../db';
 import { decisions, evaluations, lots, organisations, parts, readings, users } from '../db/schema';
 import { notFound } from '../http';
-import type { ReportData, ReportReason, ReportUnit, TagData } from '../reports';
+import type { LotListRow, ReportData, ReportReason, ReportUnit, TagData } from '../reports';
 import { evaluateLotNow, type EvaluationInputs, type LotEvaluation } from './evaluation';
 import { appOrigin } from './notices';
 
 type Db = Database | Tx;
+/** The lot's final disposition (after any quality decision) as the report words it. */
+const FINAL: Record<string, 'accept' | 'hold' | 'reject' | undefined> = { accepted: 'accept', on_hold: 'hold', rejected: 'reject' };
 type StoredResult = Omit<LotEvaluation, 'inputs' | 'plan'>;
 type Engine = { result: StoredResult; plan: LotEvaluation['plan']; inputs: EvaluationInputs; decided: boolean; modelSource: string };
 
@@ -25,8 +27,9 @@ async function loadHeader(db: Db, lotId: string) {
 	return row;
 }
 
-async function engineFor(db: Db, lotId: string): Promise<Engine> {
-	const [stored] = await db.select().from(evaluations).where(eq(evaluations.lotId, lotId)).orderBy(desc(evaluations.id)).limit(1);
+async function engineFor(db: Db, lotId: string, evaluationId: number | null): Promise<Engine> {
+	const which = evaluationId === null ? eq(evaluations.lotId, lotId) : and(eq(evaluations.lotId, lotId), lte(evaluations.id, evaluationId));
+	const [stored] = await db.select().from(evaluations).where(which).orderBy(desc(evaluations.id)).limit(1);
 	if (stored) {
 		const result = stored.result as StoredResult;
 		return { result, plan: stored.plan as LotEvaluation['plan'], inputs: stored.inputs as EvaluationInputs, decided: true, modelSource: result.model?.source ?? 'stored' };
@@ -83,30 +86,42 @@ function variablesOf(v: StoredResult['variables']): ReportData['variables'] {
 	return { method: 's-method (variables, advisory)', result: v.status, detail };
 }
 
-async function latestDecision(db: Db, lotId: string): Promise<ReportData['decision']> {
+/** The given decision, or the lot's latest one. */
+async function decisionFor(db: Db, lotId: string, decisionId: string | null) {
 	const [d] = await db
 		.select({ d: decisions, name: users.name, email: users.email })
 		.from(decisions)
 		.leftJoin(users, eq(users.id, decisions.decidedBy))
-		.where(eq(decisions.lotId, lotId))
+		.where(decisionId ? and(eq(decisions.lotId, lotId), eq(decisions.id, decisionId)) : eq(decisions.lotId, lotId))
 		.orderBy(desc(decisions.decidedAt))
 		.limit(1);
 	if (!d) return null;
 	const by = d.d.kind === 'automatic' ? `Disposition engine (submitted by ${d.name ?? d.email ?? 'unknown'})` : (d.name ?? d.email ?? 'unknown');
-	return { by, at: d.d.decidedAt.toISOString(), kind: d.d.kind, reason: d.d.reason };
+	return { view: { by, at: d.d.decidedAt.toISOString(), kind: d.d.kind, reason: d.d.reason }, toStatus: d.d.toStatus, evaluationId: d.d.evaluationId };
 }
 
-export async function buildReportData(db: Db, lotId: string): Promise<ReportData> {
+/**
+ * The report as of one decision (`decisionId`: what a notice reports, even when it is sent later)
+ * or as the lot stands now.
+ */
+export async function buildReportData(db: Db, lotId: string, opts: { decisionId?: string | null } = {}): Promise<ReportData> {
 	const { lot, part, supplier } = await loadHeader(db, lotId);
-	const [engine, own, acRows, decision] = await Promise.all([
-		engineFor(db, lotId),
+	const chosen = await decisionFor(db, lotId, opts.decisionId ?? null);
+	const [engine, own, acRows] = await Promise.all([
+		engineFor(db, lotId, opts.decisionId ? (chosen?.evaluationId ?? null) : null),
 		db.select({ name: organisations.name }).from(organisations).where(eq(organisations.kind, 'own')).limit(1),
-		db.select({ id: readings.id, ac: readings.acResistanceMohm }).from(readings).where(eq(readings.lotId, lotId)),
-		latestDecision(db, lotId)
+		db.select({ id: readings.id, ac: readings.acResistanceMohm }).from(readings).where(eq(readings.lotId, lotId))
 	]);
+	const decision = chosen?.view ?? null;
+	const status = opts.decisionId && chosen ? chosen.toStatus : lot.status;
 	const result = engine.result;
 	const reasons: ReportReason[] = result.reasons.map((r) => ({ code: r.code, severity: r.severity, message: r.message, ...('units' in r && r.units ? { units: r.units } : {}) }));
 	if (!engine.decided) reasons.unshift({ code: 'preliminary', severity: 'info', message: 'Preliminary: the lot has not been submitted for decision yet.' });
+	const final = FINAL[status];
+	if (decision?.kind === 'override' && final) {
+		const engineWord = result.status.toUpperCase();
+		reasons.unshift({ code: 'quality_decision', severity: 'info', message: `Quality decision by ${decision.by} (e-signed): ${decision.reason ?? ''} The engine's evaluation was ${engineWord}.` });
+	}
 	const units = unitsOf(engine, new Map(acRows.map((r) => [r.id, r.ac])));
 	return {
 		generated_at: new Date().toISOString(),
@@ -115,7 +130,7 @@ export async function buildReportData(db: Db, lotId: string): Promise<ReportData
 			id: lot.id,
 			lot_code: lot.lotCode,
 			po_number: lot.poNumber,
-			status: lot.status,
+			status,
 			quantity: lot.quantity,
 			declared_soc: lot.declaredSoc,
 			transport: lot.transport,
@@ -138,7 +153,7 @@ export async function buildReportData(db: Db, lotId: string): Promise<ReportData
 			level: engine.inputs.plan_request.level
 		},
 		severity: result.severity,
-		disposition: { status: engine.decided ? result.status : 'pending', safety: result.safety, reasons, nonconforming: result.nonconforming },
+		disposition: { status: engine.decided ? (final ?? result.status) : 'pending', safety: result.safety, reasons, nonconforming: result.nonconforming },
 		stats: statsOf(result.stats),
 		variables: variablesOf(result.variables),
 		limits: { ocv_min_v: part.ocvMinCellV, ocv_max_v: part.ocvMaxCellV, expected_ocv_v: units.find((u) => u.expected_ocv_v !== null)?.expected_ocv_v ?? null },
@@ -167,4 +182,43 @@ export function tagDataFrom(report: ReportData): TagData | null {
 		date: report.decision?.at ?? report.generated_at,
 		url: `${appOrigin()}/lots/${report.lot.id}`
 	};
+}
+
+export const XLSX_MIME = 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet';
+
+/** Download headers; `?inline=1` lets the browser show a PDF in place (the portal's "view"). */
+export function fileHeaders(fileName: string, mime: string, url: URL): Record<string, string> {
+	const disposition = url.searchParams.get('inline') === '1' && mime === 'application/pdf' ? 'inline' : 'attachment';
+	return {
+		'Content-Type': mime,
+		'Content-Disposition': `${disposition}; filename="${fileName.replace(/[^\w.-]/g, '_')}"`,
+		'Cache-Control': 'private, no-store'
+	};
+}
+
+/** Rows of the lot-list export, newest first; suppliers only ever get their own organisation's lots. */
+export async function lotListRows(db: Db, filter: { status?: string; supplierId?: string }): Promise<LotListRow[]> {
+	const where = [];
+	if (filter.status) where.push(eq(lots.status, filter.status as (typeof lots.$inferSelect)['status']));
+	if (filter.supplierId) where.push(eq(lots.supplierId, filter.supplierId));
+	const rows = await db
+		.select({ lot: lots, supplier: organisations.name, partNumber: parts.partNumber, chemistry: parts.chemistry })
+		.from(lots)
+		.innerJoin(parts, eq(parts.id, lots.partId))
+		.innerJoin(organisations, eq(organisations.id, lots.supplierId))
+		.where(where.length ? and(...where) : undefined)
+		.orderBy(desc(lots.createdAt))
+		.limit(10_000);
+	return rows.map(({ lot, supplier, partNumber, chemistry }) => ({
+		lot_code: lot.lotCode,
+		po_number: lot.poNumber,
+		supplier,
+		part_number: partNumber,
+		chemistry,
+		quantity: lot.quantity,
+		status: lot.status,
+		declared_soc: lot.declaredSoc,
+		transport: lot.transport,
+		created_at: lot.createdAt
+	}));
 }

@@ -27,8 +27,12 @@ export const signInLimits = (email: string, address: string): Limit[] => [
 	{ key: addressKey(address), max: THROTTLE.perAddress }
 ];
 
+/** A plain string key gets the per-account limit (e.g. an e-signature's `signature:<user id>`). */
+const asLimit = (l: Limit | string): Limit => (typeof l === 'string' ? { key: l, max: THROTTLE.perAccount } : l);
+
 /** True when any key has reached its limit inside the window. */
-export async function isThrottled(limits: Limit[]): Promise<boolean> {
+export async function isThrottled(keysOrLimits: Array<Limit | string>): Promise<boolean> {
+	const limits = keysOrLimits.map(asLimit);
 	const keys = limits.map((l) => l.key);
 	const rows = await getDb()
 		.select({ key: signInFailures.throttleKey, n: sql<number>`count(*)::int` })
@@ -39,8 +43,8 @@ export async function isThrottled(limits: Limit[]): Promise<boolean> {
 }
 
 /** Count one failure against every key, and drop this key's rows that fell out of the window. */
-export async function recordFailure(limits: Limit[]): Promise<void> {
-	const keys = limits.map((l) => l.key);
+export async function recordFailure(keysOrLimits: Array<Limit | string>): Promise<void> {
+	const keys = keysOrLimits.map((l) => asLimit(l).key);
 	const db = getDb();
 	await db.insert(signInFailures).values(keys.map((throttleKey) => ({ throttleKey })));
 	await db.delete(signInFailures).where(and(inArray(signInFailures.throttleKey, keys), lt(signInFailures.at, windowStart())));

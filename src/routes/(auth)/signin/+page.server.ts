@@ -38,8 +38,10 @@ export const actions: Actions = {
 			password,
 			redirectTo: form.data.redirectTo || '/'
 		});
-		const text = outcome === 'throttled' ? THROTTLED_MESSAGE : 'That e-mail address and password do not match.';
-		return message(form, text, { status: outcome === 'throttled' ? 429 : 400 });
+		if (outcome.ok) redirect(303, outcome.location);
+		const throttled = outcome.reason === 'throttled';
+		const text = throttled ? THROTTLED_MESSAGE : 'That e-mail address and password do not match.';
+		return message(form, text, { status: throttled ? 429 : 400 });
 	},
 
 	link: async (event) => {
@@ -49,7 +51,7 @@ export const actions: Actions = {
 			return message(form, THROTTLED_MESSAGE, { status: 429 });
 		}
 		await signInWith(event, 'nodemailer', { email: form.data.email, redirectTo: form.data.redirectTo || '/portal' });
-		// Not a supplier account (or inactive): the same page as when a link went out.
+		// Sent or not (not a supplier account, or inactive): the same page either way.
 		redirect(303, '/signin/link-sent');
 	}
 };

@@ -8,5 +8,5 @@ export const GET: RequestHandler = api(async (event) => {
 	authorize(event, 'model:read');
 	const found = await getModelVersion(event.params.id);
 	if (!found) throw notFound('model version');
-	return json(found);
+	return json({ ...found.version, model: found.model });
 });

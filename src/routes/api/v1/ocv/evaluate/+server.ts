@@ -3,6 +3,7 @@
 import { ElectrochemError, evaluateReadings, getLibraryModel, type ReadingInput } from '$lib/electrochem';
 import { api, ApiError, authorize, badRequest, parseWith, unprocessable } from '$lib/server/http';
 import { evaluateHeader, MAX_READINGS, readingsIssues } from '$lib/schemas/electrochem';
+import { distinctReadings } from './distinct';
 import { serialiseResults } from './serialise';
 import type { RequestHandler } from './$types';
 
@@ -34,12 +35,13 @@ export const POST: RequestHandler = api(async (event) => {
 	const issues = readingsIssues(header.readings);
 	if (issues.length > 0) throw unprocessable('Some readings are not valid', issues);
 	try {
-		const results = evaluateReadings(getLibraryModel(header.chemistry), header.readings as ReadingInput[], {
+		const { unique, order } = distinctReadings(header.readings as ReadingInput[]);
+		const results = evaluateReadings(getLibraryModel(header.chemistry), unique, {
 			cells_in_series: header.cells_in_series,
 			declared_soc: header.declared_soc,
 			meter_accuracy_v: header.meter_accuracy_v
 		});
-		return new Response(serialiseResults(results), { headers: { 'content-type': 'application/json' } });
+		return new Response(serialiseResults(results, order), { headers: { 'content-type': 'application/json' } });
 	} catch (e) {
 		if (e instanceof ElectrochemError) throw unprocessable(e.message, [{ path: e.field, message: e.message }]);
 		throw e;

@@ -9,6 +9,5 @@ export const POST: RequestHandler = api(async (event) => {
 	const outcome = await approveModel(user, event.params.id);
 	if (outcome === 'not_found') throw notFound('model version');
 	if (outcome === 'already_approved') throw conflict('This model version is already approved');
-	const { model: _model, ...version } = (await getModelVersion(event.params.id))!;
-	return json(version);
+	return json((await getModelVersion(event.params.id))!.version);
 });

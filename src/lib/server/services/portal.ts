@@ -1,0 +1,159 @@
+/**
+ * Supplier isolation for lot-scoped reads and the supplier portal's queries. A supplier asking
+ * for another organisation's lot, report or notice gets 404, as if it did not exist.
+ */
+import { createHash } from 'node:crypto';
+import { asc, desc, eq, inArray } from 'drizzle-orm';
+import type { RequestEvent } from '@sveltejs/kit';
+import { getDb, type Database } from '../db';
+import { documents, lots, noticeResponses, notices, parts } from '../db/schema';
+import { authorize, notFound, unprocessable, type ApiError } from '../http';
+import type { Action } from '../policy';
+import { recordAudit } from './audit';
+import { getLotForUser, type LotView } from './lots';
+import { getNoticeForUser } from './notices';
+import type { SessionUser } from '../../roles';
+
+/** 401/403 by role, 404 for a lot the user may not see, then the action on that lot. */
+export async function requireLot(event: Pick<RequestEvent, 'locals'>, lotId: string, action: Action): Promise<{ user: SessionUser; lot: LotView }> {
+	const me = event.locals.user;
+	const user = authorize(event, action, me?.role === 'supplier' ? { supplierId: me.organisationId } : undefined);
+	const lot = await getLotForUser(getDb(), user, lotId);
+	if (!lot) throw notFound('lot');
+	authorize(event, action, { supplierId: lot.supplierId });
+	return { user, lot };
+}
+
+export const isApiError = (e: unknown): e is ApiError => e instanceof Error && 'status' in e && 'code' in e;
+
+/** The supplier's lots that have reached a decision or are being inspected, newest first. */
+export async function portalLots(db: Database, user: SessionUser) {
+	if (user.role !== 'supplier' || !user.organisationId) return [];
+	const rows = await db
+		.select({
+			id: lots.id,
+			lotCode: lots.lotCode,
+			poNumber: lots.poNumber,
+			status: lots.status,
+			quantity: lots.quantity,
+			decidedAt: lots.decidedAt,
+			createdAt: lots.createdAt,
+			partNumber: parts.partNumber
+		})
+		.from(lots)
+		.innerJoin(parts, eq(parts.id, lots.partId))
+		.where(eq(lots.supplierId, user.organisationId))
+		.orderBy(desc(lots.createdAt))
+		.limit(500);
+	const ids = rows.map((r) => r.id);
+	const open = ids.length
+		? await db.select({ lotId: notices.lotId, ack: notices.acknowledgedAt }).from(notices).where(inArray(notices.lotId, ids))
+		: [];
+	return rows.map((r) => ({
+		...r,
+		decidedAt: r.decidedAt?.toISOString() ?? null,
+		createdAt: r.createdAt.toISOString(),
+		unacknowledged: open.filter((n) => n.lotId === r.id && !n.ack).length
+	}));
+}
+
+export interface ReplyInput {
+	comment: string;
+	file: { name: string; type: string; bytes: Buffer } | null;
+}
+
+const MAX_REPLY_BYTES = 20 * 1024 * 1024;
+
+/**
+ * A supplier's reply to a notice: a comment, and optionally a document stored on the lot as a
+ * corrective action and linked from the reply.
+ */
+export async function replyToNotice(db: Database, user: SessionUser, noticeId: string, input: ReplyInput) {
+	const comment = input.comment.trim();
+	if (comment.length < 2) throw unprocessable('Write a comment', [{ path: 'comment', message: 'Required' }]);
+	if (input.file && input.file.bytes.length > MAX_REPLY_BYTES) throw unprocessable('The document is larger than 20 MB', [{ path: 'file', message: 'Too large' }]);
+	return db.transaction(async (tx) => {
+		const notice = await getNoticeForUser(tx, user, noticeId);
+		let documentId: string | null = null;
+		if (input.file && input.file.bytes.length > 0) {
+			const sha256 = createHash('sha256').update(input.file.bytes).digest('hex');
+			const [doc] = await tx
+				.insert(documents)
+				.values({
+					lotId: notice.lotId,
+					kind: 'corrective_action',
+					fileName: input.file.name.slice(0, 200),
+					mime: input.file.type || 'application/octet-stream',
+					sizeBytes: input.file.bytes.length,
+					sha256,
+					bytes: input.file.bytes,
+					uploadedBy: user.id
+				})
+				.onConflictDoUpdate({ target: [documents.lotId, documents.sha256], set: { fileName: input.file.name.slice(0, 200) } })
+				.returning({ id: documents.id });
+			documentId = doc.id;
+		}
+		const [reply] = await tx
+			.insert(noticeResponses)
+			.values({ noticeId, userId: user.id, comment, documentId })
+			.returning({ id: noticeResponses.id, createdAt: noticeResponses.createdAt });
+		await recordAudit(tx, {
+			actorId: user.id,
+			actorEmail: user.email,
+			action: 'notice.replied',
+			entityType: 'notice',
+			entityId: noticeId,
+			lotId: notice.lotId,
+			details: { replyId: reply.id, documentId }
+		});
+		return { id: reply.id, documentId, createdAt: reply.createdAt.toISOString() };
+	});
+}
+
+/** Replies to one notice, oldest first, for the portal. */
+export async function repliesFor(db: Database, noticeIds: string[]) {
+	if (!noticeIds.length) return [];
+	return db
+		.select({ r: noticeResponses, fileName: documents.fileName })
+		.from(noticeResponses)
+		.leftJoin(documents, eq(documents.id, noticeResponses.documentId))
+		.where(inArray(noticeResponses.noticeId, noticeIds))
+		.orderBy(asc(noticeResponses.createdAt));
+}
+
+export interface PortalNotice {
+	id: string;
+	kind: string;
+	subject: string;
+	bodyText: string;
+	createdAt: string;
+	sentAt: string | null;
+	acknowledgedAt: string | null;
+	replies: { id: string; at: string; comment: string; document: { id: string; fileName: string } | null; mine: boolean }[];
+}
+
+/** The notices of one lot the supplier may see (404 for another organisation's lot), with replies. */
+export async function portalNotices(db: Database, user: SessionUser, lotId: string): Promise<PortalNotice[]> {
+	const lot = await getLotForUser(db, user, lotId);
+	if (!lot) throw notFound('lot');
+	const rows = await db.select().from(notices).where(eq(notices.lotId, lot.id)).orderBy(desc(notices.createdAt));
+	const replies = await repliesFor(db, rows.map((n) => n.id));
+	return rows.map((n) => ({
+		id: n.id,
+		kind: n.kind,
+		subject: n.subject,
+		bodyText: n.bodyText,
+		createdAt: n.createdAt.toISOString(),
+		sentAt: n.sentAt?.toISOString() ?? null,
+		acknowledgedAt: n.acknowledgedAt?.toISOString() ?? null,
+		replies: replies
+			.filter(({ r }) => r.noticeId === n.id)
+			.map(({ r, fileName }) => ({
+				id: r.id,
+				at: r.createdAt.toISOString(),
+				comment: r.comment,
+				document: r.documentId && fileName ? { id: r.documentId, fileName } : null,
+				mine: r.userId === user.id
+			}))
+	}));
+}

@@ -1,0 +1,37 @@
+import { error, fail } from '@sveltejs/kit';
+import { message, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { z } from 'zod';
+import { can } from '$lib/server/policy';
+import { createSupplierOrganisation, listOrganisations, UserRuleError, type Actor } from '$lib/server/services/users';
+import type { Actions, PageServerLoad } from './$types';
+
+const newSupplier = z.object({
+	name: z.string().trim().min(2, 'Enter the company name').max(160),
+	country: z.string().trim().max(80).default('')
+});
+
+function admin(locals: App.Locals): Actor {
+	if (!locals.user || !can(locals.user, 'admin:orgs')) error(403, 'Only administrators manage organisations');
+	return locals.user;
+}
+
+export const load: PageServerLoad = async ({ locals }) => {
+	admin(locals);
+	return { organisations: await listOrganisations(), form: await superValidate(zod4(newSupplier), { id: 'new-supplier' }) };
+};
+
+export const actions: Actions = {
+	default: async (event) => {
+		const actor = admin(event.locals);
+		const form = await superValidate(event, zod4(newSupplier), { id: 'new-supplier' });
+		if (!form.valid) return fail(400, { form });
+		try {
+			const org = await createSupplierOrganisation(actor, form.data);
+			return message(form, `Added ${org.name}. Invite its people on the People page.`);
+		} catch (e) {
+			if (e instanceof UserRuleError) return message(form, e.message, { status: 400 });
+			throw e;
+		}
+	}
+};

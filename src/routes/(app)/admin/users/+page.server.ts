@@ -1,0 +1,62 @@
+import { error, fail } from '@sveltejs/kit';
+import { message, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { can } from '$lib/server/policy';
+import { sendInvitation } from '$lib/server/services/sign-in';
+import { changeRole, inviteUser, listUsers, organisationChoices, setActive, UserRuleError, type Actor } from '$lib/server/services/users';
+import { changeRole as changeRoleSchema, invite, setActive as setActiveSchema } from './schemas';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
+
+function admin(locals: App.Locals): Actor {
+	if (!locals.user || !can(locals.user, 'admin:users')) error(403, 'Only administrators manage people');
+	return locals.user;
+}
+
+export const load: PageServerLoad = async ({ locals }) => {
+	const me = admin(locals);
+	const [people, organisations] = await Promise.all([listUsers(), organisationChoices()]);
+	return { me: me.id, people, organisations, inviteForm: await superValidate(zod4(invite), { id: 'invite' }) };
+};
+
+/** Row actions (role, active) post plain forms; rule breaks come back as a message. */
+async function rowAction<T>(event: RequestEvent, parse: (fd: FormData) => T, run: (actor: Actor, input: T) => Promise<void>) {
+	const actor = admin(event.locals);
+	let input: T;
+	try {
+		input = parse(await event.request.formData());
+	} catch {
+		return fail(400, { rowError: 'That change was not understood.' });
+	}
+	try {
+		await run(actor, input);
+	} catch (e) {
+		if (e instanceof UserRuleError) return fail(400, { rowError: e.message });
+		throw e;
+	}
+	return { rowDone: true };
+}
+
+export const actions: Actions = {
+	invite: async (event) => {
+		const actor = admin(event.locals);
+		const form = await superValidate(event, zod4(invite), { id: 'invite' });
+		if (!form.valid) return fail(400, { form });
+		try {
+			const person = await inviteUser(actor, form.data);
+			try {
+				await sendInvitation(person, event.url.origin);
+			} catch (e) {
+				console.error('[admin] invitation mail failed', e);
+				return message(form, `Created ${person.email}, but the invitation e-mail could not be sent. Try a password reset later.`, { status: 502 });
+			}
+			return message(form, `Invited ${person.email}. ${person.role === 'supplier' ? 'They sign in with an e-mailed link.' : 'They received a link to choose a password.'}`);
+		} catch (e) {
+			if (e instanceof UserRuleError) return message(form, e.message, { status: 400 });
+			throw e;
+		}
+	},
+	role: (event) =>
+		rowAction(event, (fd) => changeRoleSchema.parse(Object.fromEntries(fd)), (actor, input) => changeRole(actor, input.userId, input.role)),
+	active: (event) =>
+		rowAction(event, (fd) => setActiveSchema.parse(Object.fromEntries(fd)), (actor, input) => setActive(actor, input.userId, input.active === 'true'))
+};

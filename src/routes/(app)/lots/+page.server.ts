@@ -1,0 +1,60 @@
+import { error } from '@sveltejs/kit';
+import { z } from 'zod';
+import { can } from '$lib/server/policy';
+import { getDb } from '$lib/server/db';
+import { BadCursorError, listLots } from '$lib/server/services/lots';
+import { listSuppliers } from '$lib/server/services/suppliers';
+import { lotListQuerySchema } from '$lib/schemas/lot';
+import type { PageServerLoad } from './$types';
+
+// The list's state lives in the URL, so a filtered page can be bookmarked and shared.
+const pageQuery = lotListQuerySchema.extend({ trail: z.string().max(2000).optional() });
+
+export const load: PageServerLoad = async ({ locals, url }) => {
+	const user = locals.user!;
+	if (!can(user, 'lot:read')) error(403, 'Your role may not read lots');
+	const parsed = pageQuery.safeParse(Object.fromEntries(url.searchParams));
+	const query = parsed.success ? parsed.data : pageQuery.parse({});
+	const db = getDb();
+	let page;
+	try {
+		page = await listLots(db, user, {
+			status: query.status,
+			supplierId: query.supplier_id,
+			search: query.search,
+			limit: query.limit,
+			cursor: query.cursor
+		});
+	} catch (e) {
+		if (!(e instanceof BadCursorError)) throw e;
+		page = await listLots(db, user, { ...query, supplierId: query.supplier_id, cursor: undefined });
+	}
+	const suppliers = can(user, 'supplier:read') ? await listSuppliers(db) : [];
+	return {
+		rows: page.lots.map((l) => ({
+			id: l.id,
+			lotCode: l.lotCode,
+			poNumber: l.poNumber,
+			supplierName: l.supplierName,
+			partNumber: l.partNumber,
+			chemistry: l.chemistry,
+			quantity: l.quantity,
+			declaredSocPct: l.declaredSoc === null ? null : l.declaredSoc * 100,
+			transport: l.transport,
+			status: l.status,
+			expectedArrival: l.expectedArrival,
+			createdAt: l.createdAt.toISOString()
+		})),
+		nextCursor: page.nextCursor,
+		filters: {
+			status: query.status ?? '',
+			supplier_id: query.supplier_id ?? '',
+			search: query.search ?? '',
+			limit: query.limit,
+			cursor: query.cursor ?? '',
+			trail: query.trail ?? ''
+		},
+		suppliers: suppliers.map((s) => ({ id: s.id, name: s.name })),
+		canCreate: can(user, 'lot:create')
+	};
+};

@@ -1,0 +1,121 @@
+import { error, fail } from '@sveltejs/kit';
+import { can } from '$lib/server/policy';
+import { getDb } from '$lib/server/db';
+import {
+	BEFORE_INSPECTION,
+	cancelLot,
+	getLotForUser,
+	LotConflictError,
+	lotHistory,
+	markAwaitingArrival
+} from '$lib/server/services/lots';
+import { DocumentRejected, listDocuments, missingDocuments, uploadDocument } from '$lib/server/services/documents';
+import { getPart } from '$lib/server/services/parts';
+import { currentSeverity } from '$lib/server/services/switching';
+import { documentKindSchema } from '$lib/schemas/document';
+import { samplingView } from './sampling';
+import type { Actions, PageServerLoad } from './$types';
+
+export const load: PageServerLoad = async ({ locals, params, url }) => {
+	const user = locals.user!;
+	if (!can(user, 'lot:read')) error(403, 'Your role may not read lots');
+	const db = getDb();
+	const lot = await getLotForUser(db, user, params.id);
+	if (!lot) error(404, 'No such lot');
+	const part = await getPart(db, lot.partId);
+	if (!part) error(404, 'The lot’s part no longer exists');
+	const [documents, history] = await Promise.all([listDocuments(db, lot.id), lotHistory(db, lot.id)]);
+	// Before the bench the severity is the supplier × part's current one; afterwards the one the lot was inspected under.
+	const severity = BEFORE_INSPECTION.includes(lot.status)
+		? (await currentSeverity(db, lot.supplierId, lot.partId)).severity
+		: (lot.severity ?? 'normal');
+	return {
+		lot: {
+			...lot,
+			createdAt: lot.createdAt.toISOString(),
+			updatedAt: lot.updatedAt.toISOString(),
+			receivedAt: lot.receivedAt?.toISOString() ?? null,
+			decidedAt: lot.decidedAt?.toISOString() ?? null
+		},
+		part: {
+			id: part.id,
+			partNumber: part.partNumber,
+			description: part.description,
+			chemistry: part.chemistry,
+			cellsInSeries: part.cellsInSeries,
+			cellsInParallel: part.cellsInParallel,
+			nominalCapacityAh: part.nominalCapacityAh,
+			aql: part.aql,
+			inspectionLevel: part.inspectionLevel,
+			modelVersion: part.modelVersion
+		},
+		documents: documents.map((d) => ({ ...d, uploadedAt: d.uploadedAt.toISOString() })),
+		missing: missingDocuments(part.requiredDocuments, documents),
+		sampling: samplingView(lot.quantity, part.aql, part.inspectionLevel, severity),
+		history: history.map((h) => ({ ...h, at: h.at.toISOString() })),
+		justRegistered: url.searchParams.has('registered'),
+		may: {
+			release: can(user, 'lot:edit') && lot.status === 'draft',
+			cancel: can(user, 'lot:cancel') && BEFORE_INSPECTION.includes(lot.status),
+			upload: can(user, 'document:upload') && lot.status !== 'cancelled',
+			inspect: can(user, 'reading:write') && (lot.status === 'awaiting_arrival' || lot.status === 'in_inspection')
+		}
+	};
+};
+
+async function lotOr404(locals: App.Locals, id: string) {
+	const lot = await getLotForUser(getDb(), locals.user!, id);
+	if (!lot) error(404, 'No such lot');
+	return lot;
+}
+
+const conflictMessage = (e: unknown) => (e instanceof LotConflictError ? e.message : null);
+
+export const actions: Actions = {
+	release: async ({ locals, params }) => {
+		if (!can(locals.user, 'lot:edit')) error(403, 'Only buyers release lots');
+		await lotOr404(locals, params.id);
+		try {
+			await markAwaitingArrival(getDb(), locals.user!, params.id);
+		} catch (e) {
+			const message = conflictMessage(e);
+			if (message) return fail(409, { action: 'release', message });
+			throw e;
+		}
+		return { action: 'release', message: 'Released: receiving now expects this lot.' };
+	},
+	cancel: async ({ locals, params, request }) => {
+		if (!can(locals.user, 'lot:cancel')) error(403, 'Only buyers cancel lots');
+		await lotOr404(locals, params.id);
+		const reason = String((await request.formData()).get('reason') ?? '').trim().slice(0, 500);
+		try {
+			await cancelLot(getDb(), locals.user!, params.id, reason || undefined);
+		} catch (e) {
+			const message = conflictMessage(e);
+			if (message) return fail(409, { action: 'cancel', message });
+			throw e;
+		}
+		return { action: 'cancel', message: 'The lot is cancelled.' };
+	},
+	upload: async ({ locals, params, request }) => {
+		if (!can(locals.user, 'document:upload')) error(403, 'Only buyers attach documents');
+		const lot = await lotOr404(locals, params.id);
+		if (lot.status === 'cancelled') return fail(409, { action: 'upload', message: 'The lot is cancelled; documents can no longer be added.' });
+		const form = await request.formData();
+		const kind = documentKindSchema.safeParse(form.get('kind'));
+		const file = form.get('file');
+		if (!kind.success) return fail(400, { action: 'upload', message: 'Choose what kind of document this is.' });
+		if (!(file instanceof File) || file.size === 0) return fail(400, { action: 'upload', message: 'Choose a file to attach.' });
+		try {
+			const doc = await uploadDocument(getDb(), locals.user!, lot.id, {
+				kind: kind.data,
+				fileName: file.name,
+				bytes: new Uint8Array(await file.arrayBuffer())
+			});
+			return { action: 'upload', message: `Attached “${doc.fileName}”.` };
+		} catch (e) {
+			if (e instanceof DocumentRejected) return fail(e.status, { action: 'upload', message: e.message });
+			throw e;
+		}
+	}
+};

@@ -1,0 +1,50 @@
+// The JSON of GET /api/v1/lots/{id}/evaluation as the browser reads it (a structural copy of the
+// server's LotEvaluation, so no server module is imported into client code).
+import type { OcvModel } from '$lib/electrochem';
+import type { PartLimits, SamplingPlan, UnitDisposition, VariablesCheck, LotStatistics } from '$lib/inspection';
+
+export interface EvaluationReasonView {
+	code: string;
+	severity: 'reject' | 'hold' | 'info';
+	message: string;
+	units?: string[];
+}
+
+export interface EvaluationView {
+	lot_id: string;
+	status: 'pending' | 'accept' | 'hold' | 'reject';
+	reasons: EvaluationReasonView[];
+	plan: SamplingPlan;
+	severity: 'normal' | 'tightened' | 'reduced' | 'discontinued';
+	stats: LotStatistics;
+	variables: VariablesCheck;
+	nonconforming: number;
+	nonconforming_serials: string[];
+	units?: UnitDisposition[];
+	unit_count?: number;
+	safety: boolean;
+	reading_count: number;
+	model: { id: string | null; version: string; chemistry: string; source: 'part' | 'library' };
+	inputs?: {
+		lot: { declared_soc: number | null; transport: string; lithium_ion: boolean; quantity: number };
+		limits: PartLimits;
+		model: OcvModel;
+		part: { cells_in_series: number };
+	};
+	evaluated_at: string;
+}
+
+export const SEVERITY_WORD = { normal: 'Normal', tightened: 'Tightened', reduced: 'Reduced', discontinued: 'Discontinued' } as const;
+export const REASON_LOOK = {
+	reject: { word: 'Reject', shape: '■', tone: 'text-status-reject' },
+	hold: { word: 'Hold', shape: '▲', tone: 'text-status-hold' },
+	info: { word: 'Note', shape: 'ⓘ', tone: 'text-status-info' }
+} as const;
+
+/** Voltage to 0.1 mV for cells (instrument resolution), as the design notes ask. */
+export const volts = (v: number | null | undefined, decimals = 4) => (v === null || v === undefined ? '—' : `${v.toFixed(decimals)} V`);
+export const millivolts = (v: number | null | undefined, decimals = 1) => (v === null || v === undefined ? '—' : `${(v * 1000).toFixed(decimals)} mV`);
+export const percent = (x: number | null | undefined, decimals = 0) => (x === null || x === undefined ? '—' : `${(x * 100).toFixed(decimals)} %`);
+
+export type FullEvaluation = EvaluationView & Required<Pick<EvaluationView, 'units' | 'inputs'>>;
+export const isFull = (e: EvaluationView | null): e is FullEvaluation => !!e && !!e.units && !!e.inputs;

@@ -1,0 +1,25 @@
+import { InspectionInputError, samplingPlan, type InspectionLevel, type SamplingPlan } from '$lib/inspection';
+
+export type SeverityName = 'normal' | 'tightened' | 'reduced' | 'discontinued';
+
+export interface SamplingView {
+	severity: SeverityName;
+	aql: number;
+	level: string;
+	plan: SamplingPlan | null;
+	problem: string | null;
+}
+
+/** The ISO 2859-1 single sampling plan for this lot, or why there is none. */
+export function samplingView(lotSize: number, aql: number, level: string, severity: SeverityName): SamplingView {
+	const base = { severity, aql, level };
+	if (severity === 'discontinued') {
+		return { ...base, plan: null, problem: 'Sampling inspection is discontinued for this supplier and part until quality resumes it.' };
+	}
+	try {
+		return { ...base, plan: samplingPlan({ lotSize, aql, level: level as InspectionLevel, severity }), problem: null };
+	} catch (e) {
+		if (e instanceof InspectionInputError) return { ...base, plan: null, problem: e.message };
+		throw e;
+	}
+}

@@ -1,0 +1,59 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { setError, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { can } from '$lib/server/policy';
+import { getDb } from '$lib/server/db';
+import { createLot, InputError } from '$lib/server/services/lots';
+import { listSuppliers } from '$lib/server/services/suppliers';
+import { listParts } from '$lib/server/services/parts';
+import { lotFormSchema, lotInputFromForm, type LotForm } from '$lib/schemas/lot';
+import { clientAddress } from '$lib/server/auth';
+import type { Actions, PageServerLoad } from './$types';
+
+const FORM_ID = 'register-lot';
+
+export const load: PageServerLoad = async ({ locals, url }) => {
+	if (!can(locals.user, 'lot:create')) error(403, 'Only buyers register lots');
+	const db = getDb();
+	const [suppliers, parts] = await Promise.all([listSuppliers(db), listParts(db)]);
+	const form = await superValidate(zod4(lotFormSchema), { id: FORM_ID });
+	// No transport preselected: the buyer states it (the schema's first enum value would otherwise be the default).
+	form.data.transport = '' as LotForm['transport'];
+	const supplier = url.searchParams.get('supplier_id');
+	if (supplier && suppliers.some((s) => s.id === supplier)) form.data.supplier_id = supplier;
+	return {
+		form,
+		suppliers: suppliers.map((s) => ({ id: s.id, name: s.name })),
+		parts: parts.map((p) => ({
+			id: p.id,
+			supplierId: p.supplierId,
+			partNumber: p.partNumber,
+			description: p.description,
+			chemistry: p.chemistry,
+			cellsInSeries: p.cellsInSeries,
+			cellsInParallel: p.cellsInParallel
+		}))
+	};
+};
+
+/** Service field names (API spelling) → this form's field names. */
+const formField = (path: string): keyof LotForm => (path === 'declared_soc' ? 'declared_soc_pct' : (path as keyof LotForm));
+
+export const actions: Actions = {
+	default: async (event) => {
+		const user = event.locals.user;
+		if (!can(user, 'lot:create')) error(403, 'Only buyers register lots');
+		const form = await superValidate(event, zod4(lotFormSchema), { id: FORM_ID });
+		if (!form.valid) return fail(400, { form });
+		let lotId: string;
+		try {
+			const lot = await createLot(getDb(), user!, lotInputFromForm(form.data), { status: 'draft', ip: clientAddress(event) });
+			lotId = lot.id;
+		} catch (e) {
+			if (!(e instanceof InputError)) throw e;
+			for (const issue of e.issues) setError(form, formField(issue.path), issue.message);
+			return fail(400, { form });
+		}
+		redirect(303, `/lots/${lotId}?registered=1`);
+	}
+};

@@ -1,0 +1,67 @@
+import { error, fail } from '@sveltejs/kit';
+import { message, setError, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { can } from '$lib/server/policy';
+import { getDb } from '$lib/server/db';
+import {
+	approvedModels,
+	descriptiveFormValues,
+	getPart,
+	limitsFormValues,
+	updatePartDescriptive,
+	updatePartLimits
+} from '$lib/server/services/parts';
+import { InputError } from '$lib/server/services/lots';
+import { listSuppliers } from '$lib/server/services/suppliers';
+import { partDescriptiveSchema, partLimitsSchema } from '$lib/schemas/part';
+import type { Actions, PageServerLoad } from './$types';
+
+const DESCRIPTIVE = 'part-descriptive';
+const LIMITS = 'part-limits';
+
+export const load: PageServerLoad = async ({ locals, params }) => {
+	if (!can(locals.user, 'part:read')) error(403, 'Your role may not read parts');
+	const db = getDb();
+	const part = await getPart(db, params.id);
+	if (!part) error(404, 'No such part');
+	const [suppliers, models] = await Promise.all([listSuppliers(db), approvedModels(db, part.chemistry)]);
+	return {
+		part: { ...part, createdAt: part.createdAt.toISOString(), updatedAt: part.updatedAt.toISOString() },
+		descriptiveForm: await superValidate(descriptiveFormValues(part), zod4(partDescriptiveSchema), { id: DESCRIPTIVE, errors: false }),
+		limitsForm: await superValidate(limitsFormValues(part), zod4(partLimitsSchema), { id: LIMITS, errors: false }),
+		suppliers: suppliers.map((s) => ({ id: s.id, name: s.name })),
+		models: models.map((m) => ({ id: m.id, label: `${m.version} — ${m.name}${m.origin === 'fitted' ? ' (fitted)' : ''}` })),
+		may: { edit: can(locals.user, 'part:edit'), limits: can(locals.user, 'part:limits') }
+	};
+};
+
+export const actions: Actions = {
+	descriptive: async (event) => {
+		if (!can(event.locals.user, 'part:edit')) error(403, 'Only buyers edit part details');
+		const form = await superValidate(event, zod4(partDescriptiveSchema), { id: DESCRIPTIVE });
+		if (!form.valid) return fail(400, { descriptiveForm: form });
+		try {
+			const saved = await updatePartDescriptive(getDb(), event.locals.user!, event.params.id, form.data);
+			if (!saved) error(404, 'No such part');
+		} catch (e) {
+			if (!(e instanceof InputError)) throw e;
+			for (const issue of e.issues) setError(form, issue.path as 'part_number', issue.message);
+			return fail(400, { descriptiveForm: form });
+		}
+		return { descriptiveForm: message(form, 'Part details saved.') };
+	},
+	limits: async (event) => {
+		if (!can(event.locals.user, 'part:limits')) error(403, 'Only quality edits limits and sampling');
+		const form = await superValidate(event, zod4(partLimitsSchema), { id: LIMITS });
+		if (!form.valid) return fail(400, { limitsForm: form });
+		try {
+			const saved = await updatePartLimits(getDb(), event.locals.user!, event.params.id, form.data);
+			if (!saved) error(404, 'No such part');
+		} catch (e) {
+			if (!(e instanceof InputError)) throw e;
+			for (const issue of e.issues) setError(form, issue.path as 'model_id', issue.message);
+			return fail(400, { limitsForm: form });
+		}
+		return { limitsForm: message(form, 'Limits and sampling saved.') };
+	}
+};

@@ -1,0 +1,40 @@
+import { error, fail, redirect } from '@sveltejs/kit';
+import { setError, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { can } from '$lib/server/policy';
+import { getDb } from '$lib/server/db';
+import { createPart } from '$lib/server/services/parts';
+import { InputError } from '$lib/server/services/lots';
+import { listSuppliers } from '$lib/server/services/suppliers';
+import { partDescriptiveSchema } from '$lib/schemas/part';
+import type { Actions, PageServerLoad } from './$types';
+
+const FORM_ID = 'new-part';
+
+export const load: PageServerLoad = async ({ locals, url }) => {
+	if (!can(locals.user, 'part:edit')) error(403, 'Only buyers add parts');
+	const suppliers = await listSuppliers(getDb());
+	const form = await superValidate(
+		{ supplier_id: url.searchParams.get('supplier_id') ?? '', cells_in_series: 1, cells_in_parallel: 1, required_documents: ['coc'] },
+		zod4(partDescriptiveSchema),
+		{ id: FORM_ID, errors: false }
+	);
+	return { form, suppliers: suppliers.map((s) => ({ id: s.id, name: s.name })) };
+};
+
+export const actions: Actions = {
+	default: async (event) => {
+		if (!can(event.locals.user, 'part:edit')) error(403, 'Only buyers add parts');
+		const form = await superValidate(event, zod4(partDescriptiveSchema), { id: FORM_ID });
+		if (!form.valid) return fail(400, { form });
+		let id: string;
+		try {
+			id = (await createPart(getDb(), event.locals.user!, form.data)).id;
+		} catch (e) {
+			if (!(e instanceof InputError)) throw e;
+			for (const issue of e.issues) setError(form, issue.path as 'part_number' | 'supplier_id' | 'chemistry', issue.message);
+			return fail(400, { form });
+		}
+		redirect(303, `/parts/${id}`);
+	}
+};

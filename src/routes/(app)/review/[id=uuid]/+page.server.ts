@@ -1,0 +1,63 @@
+import { error, fail } from '@sveltejs/kit';
+import { message, setError, superValidate } from 'sveltekit-superforms';
+import { zod4 } from 'sveltekit-superforms/adapters';
+import { getDb } from '$lib/server/db';
+import { ApiError } from '$lib/server/http';
+import { can } from '$lib/server/policy';
+import { overrideSchema } from '$lib/schemas/decision';
+import { listDecisions } from '$lib/server/services/decision-history';
+import { decideOverride, reevaluateLot, SAFETY_RELEASE_REFUSED } from '$lib/server/services/decisions';
+import { getLotForUser } from '$lib/server/services/lots';
+import { buildReportData } from '$lib/server/services/report-data';
+import type { Actions, PageServerLoad } from './$types';
+
+const FORM_ID = 'override';
+
+function quality(locals: App.Locals) {
+	if (!locals.user || !can(locals.user, 'review:read')) error(403, 'The hold review is for quality managers');
+	return locals.user;
+}
+
+export const load: PageServerLoad = async ({ locals, params }) => {
+	const user = quality(locals);
+	const lot = await getLotForUser(getDb(), user, params.id);
+	if (!lot) error(404, 'Lot not found');
+	const [report, decisions] = await Promise.all([buildReportData(getDb(), lot.id), listDecisions(getDb(), lot.id)]);
+	return {
+		lot: { id: lot.id, status: lot.status },
+		report,
+		decisions,
+		safetyText: SAFETY_RELEASE_REFUSED,
+		form: await superValidate(zod4(overrideSchema), { id: FORM_ID })
+	};
+};
+
+export const actions: Actions = {
+	decide: async (event) => {
+		const user = quality(event.locals);
+		const form = await superValidate(event, zod4(overrideSchema), { id: FORM_ID });
+		// The password is the signature: used once, never sent back to the browser.
+		const password = form.data.password;
+		form.data.password = '';
+		if (!form.valid) return fail(400, { form });
+		if (event.locals.authMethod !== 'session') return message(form, 'Sign in interactively to sign a decision.', { status: 403 });
+		try {
+			const outcome = await decideOverride(user, event.params.id, { ...form.data, password }, event.getClientAddress());
+			return message(form, `Recorded: the lot is now ${outcome.status === 'accepted' ? 'released (accepted)' : 'rejected'}. The supplier notice is queued.`);
+		} catch (e) {
+			if (!(e instanceof ApiError)) throw e;
+			if (e.code === 'signature_invalid') return setError(form, 'password', e.message, { status: 403 });
+			return message(form, e.message, { status: e.status as 400 });
+		}
+	},
+	reevaluate: async (event) => {
+		const user = quality(event.locals);
+		try {
+			const outcome = await reevaluateLot(user, event.params.id);
+			return { reevaluated: outcome.status };
+		} catch (e) {
+			if (!(e instanceof ApiError)) throw e;
+			return fail(e.status, { reevaluateError: e.message });
+		}
+	}
+};

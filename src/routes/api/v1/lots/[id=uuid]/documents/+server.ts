@@ -1,0 +1,62 @@
+import { json, type RequestEvent } from '@sveltejs/kit';
+import { api, ApiError, authorize, notFound, parseWith } from '$lib/server/http';
+import { getDb } from '$lib/server/db';
+import { getLotForUser } from '$lib/server/services/lots';
+import { DocumentRejected, documentJson, listDocuments, uploadDocument } from '$lib/server/services/documents';
+import { documentUploadSchema, MAX_DOCUMENT_BYTES } from '$lib/schemas/document';
+import type { RequestHandler } from './$types';
+
+// Multipart framing around the file is small; anything much larger than the limit is refused unread.
+const MULTIPART_OVERHEAD = 64 * 1024;
+
+async function visibleLot(event: RequestEvent<{ id: string }>) {
+	const user = event.locals.user;
+	authorize(event, 'document:read', user?.role === 'supplier' ? { supplierId: user.organisationId } : undefined);
+	const lot = await getLotForUser(getDb(), user!, event.params.id);
+	if (!lot) throw notFound('lot');
+	return { user: user!, lot };
+}
+
+/** GET /api/v1/lots/{id}/documents — the lot's documents (metadata only). */
+export const GET: RequestHandler = api(async (event) => {
+	const { lot } = await visibleLot(event);
+	const docs = await listDocuments(getDb(), lot.id);
+	return json({ documents: docs.map(documentJson) });
+});
+
+async function readUpload(request: Request): Promise<{ kind: unknown; file: File }> {
+	const length = Number(request.headers.get('content-length') ?? 0);
+	if (length > MAX_DOCUMENT_BYTES + MULTIPART_OVERHEAD) {
+		throw new ApiError(413, 'file_too_large', `The upload is ${(length / 1048576).toFixed(1)} MB; the limit is ${MAX_DOCUMENT_BYTES / 1048576} MB per file`);
+	}
+	let form: FormData;
+	try {
+		form = await request.formData();
+	} catch {
+		throw new ApiError(400, 'bad_request', 'Send the document as multipart/form-data with the fields kind and file');
+	}
+	const file = form.get('file');
+	if (!(file instanceof File)) {
+		throw new ApiError(422, 'unprocessable', 'The upload has no file', [{ path: 'file', message: 'Attach the document as the field "file"' }]);
+	}
+	return { kind: form.get('kind'), file };
+}
+
+/** POST /api/v1/lots/{id}/documents — multipart `kind` + `file` → 201 metadata; the same bytes twice → 409. */
+export const POST: RequestHandler = api(async (event) => {
+	const user = authorize(event, 'document:upload');
+	const lot = await getLotForUser(getDb(), user, event.params.id);
+	if (!lot) throw notFound('lot');
+	if (lot.status === 'cancelled') throw new ApiError(409, 'conflict', 'The lot is cancelled; documents can no longer be added');
+	const { kind, file } = await readUpload(event.request);
+	const { kind: validKind } = parseWith(documentUploadSchema, { kind }, 'The upload');
+	try {
+		const bytes = new Uint8Array(await file.arrayBuffer());
+		const doc = await uploadDocument(getDb(), user, lot.id, { kind: validKind, fileName: file.name, bytes });
+		return json(documentJson(doc), { status: 201, headers: { Location: `/api/v1/lots/${lot.id}/documents/${doc.id}` } });
+	} catch (error) {
+		if (!(error instanceof DocumentRejected)) throw error;
+		const body = { error: { code: error.code, message: error.message, ...(error.existing ? { existing_document_id: error.existing.id, existing_file_name: error.existing.fileName } : {}) } };
+		return json(body, { status: error.status });
+	}
+});

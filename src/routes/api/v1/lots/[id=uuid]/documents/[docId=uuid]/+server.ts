@@ -1,0 +1,17 @@
+import { api, authorize, notFound } from '$lib/server/http';
+import { getDb } from '$lib/server/db';
+import { getLotForUser } from '$lib/server/services/lots';
+import { downloadHeaders, getDocumentFile } from '$lib/server/services/documents';
+import type { RequestHandler } from './$types';
+
+/** GET /api/v1/lots/{id}/documents/{docId} — the file, always as an attachment with its sniffed type. */
+export const GET: RequestHandler = api(async (event) => {
+	const user = event.locals.user;
+	authorize(event, 'document:read', user?.role === 'supplier' ? { supplierId: user.organisationId } : undefined);
+	const db = getDb();
+	const lot = await getLotForUser(db, user!, event.params.id);
+	if (!lot) throw notFound('lot');
+	const doc = await getDocumentFile(db, lot.id, event.params.docId);
+	if (!doc) throw notFound('document');
+	return new Response(new Uint8Array(doc.bytes), { headers: downloadHeaders(doc) });
+});

@@ -1,0 +1,54 @@
+import { json } from '@sveltejs/kit';
+import { importMappingSchema } from '$lib/schemas/readings';
+import { getDb } from '$lib/server/db';
+import { api, authorize, badRequest, notFound, parseWith, unprocessable } from '$lib/server/http';
+import { commitImport, previewImport, type MeterFile } from '$lib/server/services/imports';
+import { getLotForUser } from '$lib/server/services/lots';
+import type { RequestHandler } from './$types';
+
+async function readForm(request: Request): Promise<FormData> {
+	try {
+		return await request.formData();
+	} catch {
+		throw badRequest('Send the meter file as multipart/form-data with a `file` field');
+	}
+}
+
+async function fileOf(form: FormData): Promise<MeterFile> {
+	const file = form.get('file');
+	if (!(file instanceof File)) throw unprocessable('The `file` field is missing', [{ path: 'file', message: 'choose a CSV or XLSX file' }]);
+	return { name: file.name || 'meter-file', bytes: new Uint8Array(await file.arrayBuffer()) };
+}
+
+function mappingOf(form: FormData) {
+	const raw = form.get('mapping');
+	if (raw === null || raw === '') return null;
+	let value: unknown;
+	try {
+		value = JSON.parse(String(raw));
+	} catch {
+		throw badRequest('`mapping` is not valid JSON');
+	}
+	return parseWith(importMappingSchema, value, 'The column mapping');
+}
+
+/**
+ * POST /api/v1/lots/{id}/imports — multipart `file` (CSV or XLSX) and `mapping` (JSON).
+ * `?preview=true` (or a `preview` field) parses and maps without writing: header, guessed mapping,
+ * first rows and row-level errors. Otherwise the readings are stored all or nothing; the same file
+ * twice answers 200 with `already_imported_at` and stores nothing.
+ */
+export const POST: RequestHandler = api(async (event) => {
+	const user = authorize(event, 'reading:write');
+	const db = getDb();
+	const lot = await getLotForUser(db, user, event.params.id);
+	if (!lot) throw notFound('lot');
+	const form = await readForm(event.request);
+	const file = await fileOf(form);
+	const mapping = mappingOf(form);
+	const preview = event.url.searchParams.get('preview') === 'true' || form.get('preview') === 'true';
+	if (preview) return json(await previewImport(db, lot.id, file, mapping));
+	if (!mapping) throw unprocessable('Send the column `mapping` to import (run a preview to get a guess)');
+	const result = await commitImport(db, user, lot.id, file, mapping);
+	return json(result, { status: result.already_imported_at ? 200 : 201 });
+});

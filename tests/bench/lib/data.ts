@@ -1,0 +1,125 @@
+/**
+ * The synthetic data set, written straight into PostgreSQL: the lots at scale come from
+ * INSERT … SELECT generate_series (one statement each, not row by row), the benchmark lots from
+ * the chemistry's own forward model so their readings look like a real, in-spec delivery.
+ */
+import { randomBytes } from 'node:crypto';
+import pg from 'pg';
+import { getLibraryModel, ocvAt } from '$lib/electrochem';
+
+export const SCALE_LOTS = 50_000;
+export const READINGS_PER_SCALE_LOT = 20; // 50,000 × 20 = 1,000,000 readings
+
+/** The bench part: an NMC 18650-size cell of the demo scenario (seed/scenario.ts). */
+export const BENCH_PART_NUMBER = 'VC-18650-35E';
+export const BENCH_DECLARED_SOC = 0.3;
+
+export interface BenchPart {
+	id: string;
+	supplierId: string;
+	chemistry: string;
+}
+
+export async function withClient<T>(url: string, fn: (client: pg.Client) => Promise<T>): Promise<T> {
+	const client = new pg.Client({ connectionString: url });
+	await client.connect();
+	try {
+		return await fn(client);
+	} finally {
+		await client.end();
+	}
+}
+
+export async function benchPart(client: pg.Client): Promise<BenchPart> {
+	const { rows } = await client.query('select id, supplier_id, chemistry from parts where part_number = $1', [BENCH_PART_NUMBER]);
+	if (!rows[0]) throw new Error(`the demo part ${BENCH_PART_NUMBER} is not seeded`);
+	return { id: rows[0].id, supplierId: rows[0].supplier_id, chemistry: rows[0].chemistry };
+}
+
+/** A received lot in inspection, ready for readings. */
+export async function createBenchLot(client: pg.Client, part: BenchPart, quantity: number, label: string): Promise<string> {
+	const code = `BENCH-${label}-${randomBytes(4).toString('hex')}`;
+	const { rows } = await client.query(
+		`insert into lots (lot_code, po_number, supplier_id, part_id, quantity, declared_soc, transport, un_number, status, received_at)
+		 values ($1, $2, $3, $4, $5, $6, 'sea', 'UN3480', 'in_inspection', now()) returning id`,
+		[code, `PO-${code}`, part.supplierId, part.id, quantity, BENCH_DECLARED_SOC]
+	);
+	return rows[0].id;
+}
+
+/** Deterministic pseudo-random numbers (mulberry32), so every run measures the same data. */
+export function seededRandom(seed: number): () => number {
+	let a = seed >>> 0;
+	return () => {
+		a = (a + 0x6d2b79f5) >>> 0;
+		let t = a;
+		t = Math.imul(t ^ (t >>> 15), t | 1);
+		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+	};
+}
+
+export interface SyntheticReading {
+	serial: string;
+	ocv_v: number;
+	temperature_c: number;
+}
+
+/** Readings of an in-spec NMC delivery near the declared SOC: ±2 % SOC spread, 20–26 °C. */
+export function syntheticReadings(count: number, seed = 1): SyntheticReading[] {
+	const model = getLibraryModel('NMC');
+	const random = seededRandom(seed);
+	const out: SyntheticReading[] = [];
+	for (let i = 0; i < count; i++) {
+		const soc = BENCH_DECLARED_SOC + (random() - 0.5) * 0.04;
+		const temperature = Math.round((20 + random() * 6) * 10) / 10;
+		const ocv = ocvAt(model, soc, temperature) + (random() - 0.5) * 0.002;
+		out.push({ serial: `BX${String(seed).padStart(2, '0')}-${String(i + 1).padStart(6, '0')}`, ocv_v: Math.round(ocv * 10_000) / 10_000, temperature_c: temperature });
+	}
+	return out;
+}
+
+/** Insert readings for a lot in one statement (unnest of arrays). */
+export async function insertReadings(client: pg.Client, lotId: string, readings: SyntheticReading[]): Promise<void> {
+	await client.query(
+		`insert into readings (lot_id, serial, ocv_v, temperature_c, measured_at, source)
+		 select $1, s, v, t, now(), 'import' from unnest($2::text[], $3::float8[], $4::float8[]) as r(s, v, t)`,
+		[lotId, readings.map((r) => r.serial), readings.map((r) => r.ocv_v), readings.map((r) => r.temperature_c)]
+	);
+}
+
+const STATUSES = ['draft', 'awaiting_arrival', 'in_inspection', 'pending_decision', 'accepted', 'accepted', 'on_hold', 'rejected', 'accepted', 'cancelled'];
+
+/** 50,000 lots over the seeded parts, two years of history, and 20 readings each. */
+export async function loadScaleData(client: pg.Client): Promise<{ lots: number; readings: number; reused: boolean }> {
+	const counts = async () =>
+		(await client.query(`select (select count(*) from lots)::int as lots, (select count(*) from readings)::int as readings`)).rows[0];
+	const before = await counts();
+	if (before.lots >= SCALE_LOTS) return { ...before, reused: true }; // a database kept from an earlier run
+	await client.query(
+		`with p as (
+			select id, supplier_id, chemistry, (row_number() over (order by part_number) - 1)::int as k, count(*) over ()::int as n from parts
+		), s as (select $2::text[] as statuses)
+		insert into lots (lot_code, po_number, supplier_id, part_id, quantity, declared_soc, transport, un_number, status,
+			received_at, decided_at, created_at, updated_at)
+		select 'S-' || lpad(g::text, 6, '0'), 'PO-' || (40000 + g / 3), p.supplier_id, p.id, 200 + (g % 40) * 250, 0.3,
+			(array['sea','road','air','rail'])[1 + g % 4]::transport_mode,
+			case when p.chemistry in ('LCO','NMC','NCA','LMO','LFP','LTO') then 'UN3480'
+				when p.chemistry in ('LIMNO2','LISOCL2') then 'UN3090' end,
+			s.statuses[1 + g % array_length(s.statuses, 1)]::lot_status,
+			now() - g * interval '20 minutes' + interval '1 day',
+			case when s.statuses[1 + g % array_length(s.statuses, 1)] in ('accepted','on_hold','rejected')
+				then now() - g * interval '20 minutes' + interval '2 days' end,
+			now() - g * interval '20 minutes', now() - g * interval '20 minutes'
+		from generate_series(1, $1::int) g cross join s join p on p.k = g % p.n`,
+		[SCALE_LOTS, STATUSES]
+	);
+	await client.query(
+		`insert into readings (lot_id, serial, ocv_v, temperature_c, measured_at, source)
+		select l.id, l.lot_code || '-' || i, 3.55 + ((i * 7 + length(l.lot_code)) % 40) / 1000.0, 21 + (i % 5), l.created_at + interval '1 day', 'import'
+		from lots l cross join generate_series(1, $1::int) i where l.lot_code like 'S-%'`,
+		[READINGS_PER_SCALE_LOT]
+	);
+	await client.query('analyze');
+	return { ...(await counts()), reused: false };
+}

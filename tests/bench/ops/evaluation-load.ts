@@ -1,0 +1,77 @@
+/**
+ * (4) The lot API under load: 50 concurrent clients for 10 s (autocannon 8, its own process) against
+ * GET /api/v1/lots/{id}/evaluation with a bearer token, on a lot holding a full ISO 2859-1 sample
+ * (200 readings, code letter L), vs. the same server handing out a static file of the same size.
+ * Two lines: throughput ratio (requests/s) and the endpoint's p99 latency against 50 ms.
+ */
+import { spawn } from 'node:child_process';
+import { writeFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { ROOT } from '../lib/app';
+import { staticPath, type BenchContext } from '../lib/context';
+import { median, type BenchLine } from '../lib/measure';
+
+const CONNECTIONS = 50;
+const SECONDS = 10;
+const ROUNDS = 2;
+
+interface CannonResult {
+	requestsPerSecond: number;
+	p99: number;
+	non2xx: number;
+	errors: number;
+}
+
+function autocannon(url: string, seconds: number, headers: Record<string, string> = {}): Promise<CannonResult> {
+	const args = ['-c', String(CONNECTIONS), '-d', String(seconds), '-j', '-n'];
+	for (const [k, v] of Object.entries(headers)) args.push('-H', `${k}=${v}`);
+	args.push(url);
+	return new Promise((resolve, reject) => {
+		const child = spawn(process.execPath, [join(ROOT, 'node_modules/autocannon/autocannon.js'), ...args], { stdio: ['ignore', 'pipe', 'pipe'] });
+		let out = '';
+		let err = '';
+		child.stdout.on('data', (d) => (out += d));
+		child.stderr.on('data', (d) => (err += d));
+		child.on('exit', (code) => {
+			if (code !== 0) return reject(new Error(`autocannon exited ${code}: ${err}`));
+			const json = JSON.parse(out.trim().split('\n').at(-1) ?? '{}');
+			resolve({ requestsPerSecond: json.requests.average, p99: json.latency.p99, non2xx: json.non2xx, errors: json.errors + json.timeouts });
+		});
+	});
+}
+
+export async function benchEvaluationLoad(ctx: BenchContext): Promise<BenchLine[]> {
+	const apiUrl = `${ctx.app.url}/api/v1/lots/${ctx.sampleLotId}/evaluation`;
+	const auth = { authorization: `Bearer ${ctx.token}` };
+	const response = await fetch(apiUrl, { headers: auth });
+	const body = await response.text();
+	if (response.status !== 200) throw new Error(`GET evaluation answered ${response.status}: ${body.slice(0, 200)}`);
+	const asset = staticPath(ctx, 'bench-evaluation-static.json');
+	writeFileSync(asset.file, body);
+
+	await autocannon(apiUrl, 2, auth); // warm-up
+	await autocannon(asset.url, 2);
+	const api: CannonResult[] = [];
+	const floor: CannonResult[] = [];
+	for (let r = 0; r < ROUNDS; r++) {
+		const order = r % 2 === 0 ? ['api', 'floor'] : ['floor', 'api'];
+		for (const which of order) {
+			if (which === 'api') api.push(await autocannon(apiUrl, SECONDS, auth));
+			else floor.push(await autocannon(asset.url, SECONDS));
+		}
+	}
+	const failed = api.reduce((n, a) => n + a.non2xx + a.errors, 0);
+	if (failed > 0) throw new Error(`${failed} requests to the evaluation endpoint failed under load`);
+	const rps = median(api.map((a) => a.requestsPerSecond));
+	const floorRps = median(floor.map((a) => a.requestsPerSecond));
+	return [
+		{ name: 'evaluation-api-load', value: rps, floor: floorRps, unit: 'req/s', target: { op: '>=', value: 0.3 } },
+		{
+			name: 'evaluation-api-p99',
+			value: median(api.map((a) => a.p99)),
+			floor: median(floor.map((a) => a.p99)),
+			unit: 'ms',
+			target: { on: 'value', op: '<=', value: 50, unit: 'ms' }
+		}
+	];
+}

@@ -1,0 +1,116 @@
+/**
+ * The benchmark proper (started by scripts/bench.mjs, which owns PostgreSQL and the build): prints
+ * the machine, loads the synthetic data set, starts the app and prints one line per operation.
+ * An operation whose endpoint or service is missing prints an honest "missed (not available: …)".
+ */
+import { cpus, totalmem } from 'node:os';
+import { rmSync } from 'node:fs';
+import { closeDb } from '$lib/server/db';
+import { startBenchApp, type BenchApp } from './lib/app';
+import { bearerFor } from './lib/auth';
+import type { BenchContext } from './lib/context';
+import { benchPart, createBenchLot, insertReadings, loadScaleData, syntheticReadings, withClient } from './lib/data';
+import { formatLine, formatUnavailable, isMet, type BenchLine } from './lib/measure';
+import { benchEvaluateLot } from './ops/evaluate-lot';
+import { benchOcvEvaluate } from './ops/ocv-evaluate';
+import { benchImportXlsx } from './ops/import-xlsx';
+import { benchEvaluationLoad } from './ops/evaluation-load';
+import { benchLotList } from './ops/lot-list';
+import { benchClientWeight } from './ops/client-weight';
+
+const need = (name: string) => {
+	const value = process.env[name];
+	if (!value) throw new Error(`${name} is not set: run the benchmark with \`npm run bench\``);
+	return value;
+};
+
+const log = (text: string) => console.log(`[bench] ${text}`);
+const seconds = (since: number) => `${((performance.now() - since) / 1000).toFixed(1)} s`;
+
+async function printMachine(databaseUrl: string) {
+	const pgVersion = await withClient(databaseUrl, async (c) => (await c.query('show server_version')).rows[0].server_version as string);
+	const cpu = cpus();
+	console.log(`machine cores=${cpu.length} cpu="${cpu[0]?.model.trim() ?? 'unknown'}" memory=${(totalmem() / 1024 ** 3).toFixed(1)}GB node=${process.version} postgres=${pgVersion} platform=${process.platform}-${process.arch}`);
+}
+
+/** Lines that were measured; `false` entries mark operations that could not run. */
+const outcomes: boolean[] = [];
+
+function report(line: BenchLine) {
+	console.log(formatLine(line));
+	outcomes.push(isMet(line));
+}
+
+/** BENCH_ONLY=import,lot-list runs only the operations whose names start with one of these. */
+const only = (process.env.BENCH_ONLY ?? '').split(',').filter(Boolean);
+
+/** Run one operation; a missing endpoint/service or a failure becomes an honest missed line. */
+async function attempt(names: string[], fn: () => Promise<void>) {
+	if (only.length > 0 && !names.some((n) => only.some((o) => n.startsWith(o)))) return;
+	const started = performance.now();
+	try {
+		await fn();
+	} catch (error) {
+		const reason = (error instanceof Error ? error.message : String(error)).split('\n')[0].slice(0, 200);
+		for (const name of names) {
+			console.log(formatUnavailable(name, reason));
+			outcomes.push(false);
+		}
+	}
+	log(`${names[0]} took ${seconds(started)}`);
+}
+
+async function prepare(databaseUrl: string) {
+	return withClient(databaseUrl, async (client) => {
+		const part = await benchPart(client);
+		let t = performance.now();
+		const scale = await loadScaleData(client);
+		log(`data set: ${scale.lots.toLocaleString('en')} lots, ${scale.readings.toLocaleString('en')} readings (${seconds(t)}${scale.reused ? ', already loaded' : ''})`);
+		t = performance.now();
+		const bigLotId = await createBenchLot(client, part, 1_000_000, 'EVAL2000');
+		await insertReadings(client, bigLotId, syntheticReadings(2000, 1));
+		const sampleLotId = await createBenchLot(client, part, 5000, 'SAMPLE200');
+		await insertReadings(client, sampleLotId, syntheticReadings(200, 4));
+		await client.query('analyze readings');
+		log(`bench lots ready (${seconds(t)})`);
+		return { part, bigLotId, sampleLotId };
+	});
+}
+
+async function main() {
+	const started = performance.now();
+	const databaseUrl = need('DATABASE_URL');
+	await printMachine(databaseUrl);
+	const { part, bigLotId, sampleLotId } = await prepare(databaseUrl);
+	const token = await bearerFor();
+	let app: BenchApp | undefined;
+	const written: string[] = [];
+	try {
+		app = await startBenchApp(databaseUrl, need('BENCH_BUILD_DIR'));
+		const ctx: BenchContext = { app, databaseUrl, pgBin: need('BENCH_PG_BIN'), scratch: need('BENCH_SCRATCH'), part, token, bigLotId, sampleLotId };
+		written.push(`${app.buildDir}/client/bench-evaluate-static.json`, `${app.buildDir}/client/bench-evaluation-static.json`);
+
+		await attempt(['evaluate-lot-2000'], async () => report(await benchEvaluateLot(ctx)));
+		await attempt(['ocv-evaluate-10000'], async () => report(await benchOcvEvaluate(ctx)));
+		await attempt(['import-xlsx-10000'], async () => report(await benchImportXlsx(ctx)));
+		await attempt(['evaluation-api-load', 'evaluation-api-p99'], async () => (await benchEvaluationLoad(ctx)).forEach(report));
+		await attempt(['lot-list-50k'], async () => {
+			const result = await benchLotList(ctx);
+			report(result.line);
+			console.log(`explain lot-list (index used: ${result.usesIndex ? 'yes' : 'NO'}):\n${result.explain.replace(/^/gm, '  ')}`);
+		});
+		await attempt(['inspect-page-js'], async () => {
+			const result = await benchClientWeight(ctx);
+			report(result.line);
+			console.log(`files inspect-page-js: ${result.files.map((f) => `${f.path.split('/').pop()}=${(f.gzipBytes / 1024).toFixed(1)}KB`).join(' ')}`);
+		});
+	} finally {
+		await app?.stop();
+		for (const file of written) rmSync(file, { force: true });
+		await closeDb();
+	}
+	const met = outcomes.filter(Boolean).length;
+	console.log(`summary met=${met} missed=${outcomes.length - met} total=${seconds(started)}`);
+}
+
+await main();

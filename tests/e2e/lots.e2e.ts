@@ -1,0 +1,158 @@
+/**
+ * A buyer registers a lot through the real pages in Chromium: field errors, the air-transport
+ * caution for lithium-ion, documents (a PDF attached, the same PDF refused as already attached, a
+ * text file named .pdf refused), release for arrival, and the lot in the list. Quality edits a
+ * part's limits; suppliers and parts pages render. Screenshots go to tests/artifacts/screens/lots.
+ */
+import { expect, test, type Page } from '@playwright/test';
+import { startApp, type RunningApp } from '../helpers/app';
+import { freshDatabase, withClient } from '../helpers/db';
+import { screens } from '../helpers/screens';
+import { signInPage } from '../helpers/auth';
+
+let app: RunningApp;
+let db: { url: string; drop: () => Promise<void> };
+const shot = screens('lots');
+
+test.beforeAll(async () => {
+	db = await freshDatabase('e2e_lots');
+	app = await startApp({ databaseUrl: db.url });
+});
+
+test.afterAll(async () => {
+	await app?.stop();
+	await db?.drop();
+});
+
+const PDF = Buffer.from('%PDF-1.4\n1 0 obj <<>> endobj\ntrailer <<>>\n%%EOF\n');
+
+async function attach(page: Page, kind: string, name: string, bytes: Buffer) {
+	await page.getByLabel('Kind').selectOption({ label: kind });
+	await page.getByLabel(/^File/).setInputFiles({ name, mimeType: 'application/pdf', buffer: bytes });
+	await page.getByRole('button', { name: 'Attach' }).click();
+}
+
+test('a buyer registers a lot with documents and releases it', async ({ page }) => {
+	await signInPage(page, app.url, 'buyer@kestrel-mobility.example');
+	await page.goto(`${app.url}/lots`);
+	await expect(page.getByText('No lots registered yet.')).toBeVisible();
+	await shot(page, 'lots-empty');
+
+	await page.getByRole('link', { name: 'Register a lot' }).first().click();
+	await expect(page.getByRole('heading', { name: 'Register a lot' })).toBeVisible();
+	await page.getByRole('button', { name: 'Save draft lot' }).click();
+	await expect(page.getByText('Enter the purchase order number')).toBeVisible();
+	await expect(page.getByText('Choose a supplier', { exact: true })).toBeVisible();
+	await shot(page, 'register-field-errors');
+
+	await page.getByLabel('PO number').fill('PO-2026-0417');
+	await page.getByLabel('Quantity (units)').fill('1200');
+	await page.getByLabel('Supplier').selectOption({ label: 'Voltaria Cells Co.' });
+	await page.getByLabel('Part').selectOption({ label: 'VC-18650-35E — NMC 18650-size cell, 3.5 Ah' });
+	await page.getByLabel('Declared SOC at shipment (%)').fill('45');
+	await page.getByLabel('Transport', { exact: true }).selectOption('air');
+	const caution = page.getByRole('note', { name: 'Air transport caution' });
+	await expect(caution).toContainText('no more than 30 %');
+	await expect(caution).toContainText('declared at 45 %, above that limit');
+	await expect(caution).toContainText('current dangerous-goods regulations');
+	// A lithium part needs its UN number: the server (and the form) say so on the field.
+	await page.getByRole('button', { name: 'Save draft lot' }).click();
+	await expect(page.getByText('A lithium shipment needs its UN number (UN3480 or UN3481)')).toBeVisible();
+	await shot(page, 'register-air-lithium-caution');
+
+	await page.getByLabel(/^UN number/).fill('UN3480');
+	await page.getByLabel(/^Expected arrival/).fill('2026-05-04');
+	await page.getByRole('button', { name: 'Save draft lot' }).click();
+	await page.waitForURL(/\/lots\/[0-9a-f-]{36}\?registered=1$/);
+	await expect(page.getByRole('heading', { level: 1 })).toHaveText(/^L-\d{4}-\d{5}$/);
+	await expect(page.locator('[data-status="draft"]').first()).toHaveText('Draft');
+	await expect(page.getByRole('note', { name: 'Air transport caution' })).toBeVisible();
+	await expect(page.getByTestId('missing-documents')).toContainText('Certificate of conformity, UN 38.3 test summary, Safety data sheet');
+	await expect(page.getByText('Code letter J')).toBeVisible(); // 1,200 units at level II → J (ISO 2859-1 Table I: 501–1,200)
+	await shot(page, 'lot-draft');
+
+	await attach(page, 'Certificate of conformity', 'coc-po-0417.pdf', PDF);
+	await expect(page.getByRole('link', { name: 'coc-po-0417.pdf' })).toBeVisible();
+	await expect(page.getByTestId('missing-documents')).toContainText('UN 38.3 test summary, Safety data sheet');
+
+	await attach(page, 'Other', 'copy.pdf', PDF);
+	await expect(page.getByTestId('upload-message')).toHaveText('This file is already attached as “coc-po-0417.pdf”');
+
+	await attach(page, 'Safety data sheet', 'sds.pdf', Buffer.from('Safety data sheet, plain text'));
+	await expect(page.getByTestId('upload-message')).toContainText('is named .pdf but its content is not a PDF file');
+	await shot(page, 'lot-documents-refused');
+
+	const download = page.waitForEvent('download');
+	await page.getByRole('link', { name: 'coc-po-0417.pdf' }).click();
+	expect((await download).suggestedFilename()).toBe('coc-po-0417.pdf');
+
+	await page.getByRole('button', { name: 'Release for arrival' }).click();
+	await expect(page.locator('h1 + [data-status]')).toHaveText('Awaiting arrival');
+	await expect(page.getByRole('button', { name: 'Release for arrival' })).toHaveCount(0);
+	await expect(page.getByRole('region', { name: 'History' }).getByText('Released for arrival')).toBeVisible();
+	await shot(page, 'lot-released');
+
+	await page.goto(`${app.url}/lots`);
+	await expect(page.getByRole('table', { name: 'Lots' }).getByText('PO-2026-0417')).toBeVisible();
+	await expect(page.getByRole('table', { name: 'Lots' }).locator('[data-status="awaiting_arrival"]')).toHaveText('Awaiting arrival');
+	await shot(page, 'lots-list');
+
+	const rows = await withClient(db.url, (c) => c.query(`select status, declared_soc, un_number from lots where po_number = 'PO-2026-0417'`));
+	expect(rows.rows).toEqual([{ status: 'awaiting_arrival', declared_soc: 0.45, un_number: 'UN3480' }]);
+});
+
+test('the lot list pages through many lots and filters by status', async ({ page }) => {
+	await withClient(db.url, async (c) => {
+		const part = (await c.query(`select id, supplier_id from parts where part_number = 'PB-AGM-12-18'`)).rows[0];
+		for (let i = 1; i <= 30; i++) {
+			await c.query(
+				`insert into lots (lot_code, po_number, supplier_id, part_id, quantity, declared_soc, transport, status, created_at)
+				 values ($1, $2, $3, $4, 50, 0.9, 'road', $5, now() - ($6 || ' minutes')::interval)`,
+				[`L-1999-${String(i).padStart(5, '0')}`, `PO-LEAD-${i}`, part.supplier_id, part.id, i % 3 === 0 ? 'cancelled' : 'awaiting_arrival', String(i)]
+			);
+		}
+	});
+	await signInPage(page, app.url, 'buyer@kestrel-mobility.example');
+	await page.goto(`${app.url}/lots`);
+	const table = page.getByRole('table', { name: 'Lots' });
+	await expect(table.locator('tbody tr')).toHaveCount(25);
+	await page.getByRole('link', { name: 'Older lots →' }).click();
+	await expect(page.getByText('Page 2 · newest first')).toBeVisible();
+	await expect(table.locator('tbody tr')).toHaveCount(6);
+	await page.getByRole('link', { name: '← Newer lots' }).click();
+	await expect(page.getByText('Page 1 · newest first')).toBeVisible();
+
+	await page.getByLabel('Status').selectOption({ label: 'Cancelled' });
+	await page.getByRole('button', { name: 'Show lots' }).click();
+	await expect(table.locator('tbody tr')).toHaveCount(10);
+	await expect(table.locator('[data-status="cancelled"]')).toHaveCount(10);
+	await page.getByLabel('Quick filter on this page').fill('PO-LEAD-3');
+	await expect(table.locator('tbody tr')).toHaveCount(2); // PO-LEAD-3 and PO-LEAD-30
+	await page.getByRole('button', { name: 'Columns' }).click();
+	await page.getByRole('checkbox', { name: 'Chemistry' }).check();
+	await expect(table.getByRole('columnheader', { name: /Chemistry/ })).toBeVisible();
+	await shot(page, 'lots-filtered');
+});
+
+test('quality edits a part’s limits; suppliers show contacts and severity', async ({ page }) => {
+	await signInPage(page, app.url, 'quality@kestrel-mobility.example');
+	await page.goto(`${app.url}/parts`);
+	await page.getByRole('link', { name: 'FL-PR-100' }).click();
+	await expect(page.getByRole('heading', { name: 'Acceptance limits and sampling' })).toBeVisible();
+	await page.getByLabel('Spread limit (mV)').fill('35');
+	await page.getByLabel('AQL (%)').selectOption('0.65');
+	await page.getByRole('button', { name: 'Save limits' }).click();
+	await expect(page.getByText('Limits and sampling saved.')).toBeVisible();
+	await page.getByLabel('Highest OCV per cell (V)').fill('1.0');
+	await page.getByRole('button', { name: 'Save limits' }).click();
+	await expect(page.getByText('The highest OCV must be above the lowest')).toBeVisible();
+	await shot(page, 'part-limits');
+	const part = await withClient(db.url, (c) => c.query(`select spread_limit_mv, aql from parts where part_number = 'FL-PR-100'`));
+	expect(part.rows[0]).toEqual({ spread_limit_mv: 35, aql: 0.65 });
+
+	await page.goto(`${app.url}/suppliers`);
+	await page.getByRole('link', { name: 'Voltaria Cells Co.' }).click();
+	await expect(page.getByText('quality-desk@voltaria-cells.example')).toBeVisible();
+	await expect(page.getByRole('table').getByText('Normal').first()).toBeVisible();
+	await shot(page, 'supplier-detail');
+});

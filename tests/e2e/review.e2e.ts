@@ -1,0 +1,139 @@
+/**
+ * Quality reviews a held lot in Chromium and releases it with an e-signature (reason + password);
+ * the supplier then reads the notice in the portal, opens the PDF report, acknowledges the notice
+ * and replies with a corrective-action document, which the buyer sees on the lot page.
+ * Screenshots go to tests/artifacts/screens/review; the report and tag PDFs are saved beside them.
+ */
+import { expect, test } from '@playwright/test';
+import { execFileSync } from 'node:child_process';
+import { writeFileSync } from 'node:fs';
+import { resolve } from 'node:path';
+import { startApp, type RunningApp } from '../helpers/app';
+import { freshDatabase, withClient } from '../helpers/db';
+import { screens } from '../helpers/screens';
+import { signInPage, signInSupplierByLink, tokenFor } from '../helpers/auth';
+import { measuredLot, waitUntil } from '../integration/decisions-fixtures';
+import { call, createLot, type Caller } from '../integration/readings-fixtures';
+
+let app: RunningApp;
+let db: { url: string; drop: () => Promise<void> };
+const shot = screens('review');
+const artefacts = resolve(import.meta.dirname, '../artifacts/screens/review');
+let held: { id: string; lot_code: string };
+let other: { id: string; lot_code: string };
+let ferrolithLot: { id: string; lot_code: string };
+
+test.beforeAll(async () => {
+	db = await freshDatabase('e2e_review');
+	app = await startApp({ databaseUrl: db.url });
+	const as = async (email: string): Promise<Caller> => ({ base: app.url, token: await tokenFor(db.url, email) });
+	const buyer = await as('buyer@kestrel-mobility.example');
+	const inspector = await as('inspector@kestrel-mobility.example');
+	held = await measuredLot(buyer, inspector, 'hold');
+	other = await measuredLot(buyer, inspector, 'safety');
+	ferrolithLot = await createLot(buyer, { partNumber: 'FL-PR-100', quantity: 50, declaredSoc: 0.3 });
+	for (const lot of [held, other]) await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+});
+
+test.afterAll(async () => {
+	await app?.stop();
+	await db?.drop();
+});
+
+/** Save a PDF from the API and render its first page as PNG (poppler) for a person to look at. */
+async function savePdf(request: import('@playwright/test').APIRequestContext, path: string, name: string) {
+	const res = await request.get(`${app.url}${path}`);
+	expect(res.status()).toBe(200);
+	const file = resolve(artefacts, `${name}.pdf`);
+	writeFileSync(file, await res.body());
+	execFileSync('pdftoppm', ['-png', '-r', '60', file, resolve(artefacts, name)]);
+}
+
+test('quality releases a held lot with an e-signature', async ({ page }) => {
+	await signInPage(page, app.url, 'quality@kestrel-mobility.example');
+	await page.goto(`${app.url}/review`);
+	const item = page.locator(`[data-lot-code="${held.lot_code}"]`);
+	await expect(item).toContainText('Missing: UN 38.3 test summary');
+	await shot(page, 'review-queue');
+
+	await item.getByRole('link', { name: held.lot_code }).click();
+	await expect(page.getByRole('heading', { name: `Lot ${held.lot_code}` })).toBeVisible();
+	await expect(page.getByRole('heading', { name: 'Plots' })).toBeVisible();
+	await expect(page.locator('svg').first()).toBeVisible();
+
+	// Without a password nothing is signed.
+	await page.getByLabel('Release (accept)').check();
+	await page.getByLabel(/^Reason/).fill('UN 38.3 summary received by mail and checked');
+	await page.getByLabel('Your password (signature)').fill('wrong-password');
+	await page.getByRole('button', { name: 'Sign and record decision' }).click();
+	await expect(page.getByText('The password is not correct; nothing was decided.')).toBeVisible();
+	await shot(page, 'review-wrong-password');
+
+	await page.getByLabel('Your password (signature)').fill('restvolt-demo-2026');
+	await page.getByRole('button', { name: 'Sign and record decision' }).click();
+	await expect(page.getByTestId('decision-message')).toContainText('released (accepted)');
+	await expect(page.getByRole('button', { name: 'Sign and record decision' })).toHaveCount(0);
+	await shot(page, 'review-released');
+	const status = await withClient(db.url, async (c) => (await c.query('select status from lots where id = $1', [held.id])).rows[0].status);
+	expect(status).toBe('accepted');
+
+	// The safety-rejected lot is not in the queue; its review page offers no release.
+	await page.goto(`${app.url}/review`);
+	await expect(page.locator(`[data-lot-code="${other.lot_code}"]`)).toHaveCount(0);
+
+	await savePdf(page.request, `/api/v1/lots/${held.id}/report.pdf`, 'report-released');
+	await savePdf(page.request, `/api/v1/lots/${other.id}/quarantine-tag.pdf`, 'tag-safety-reject');
+	await savePdf(page.request, `/api/v1/lots/${other.id}/report.pdf`, 'report-safety-reject');
+});
+
+test('the supplier reads the notice and the report, acknowledges and replies', async ({ page }) => {
+	await waitUntil(async () => {
+		const rows = await withClient(db.url, async (c) => (await c.query(`select status from notices where lot_id = $1`, [held.id])).rows);
+		return rows.length === 2 && rows.every((r) => r.status === 'sent');
+	}, 20_000, 'notices sent');
+	await signInSupplierByLink(page, app.url, 'supplier@voltaria-cells.example');
+	await expect(page.getByRole('heading', { name: 'Your lots and notices' })).toBeVisible();
+	await shot(page, 'portal-home');
+
+	await page.getByRole('link', { name: held.lot_code }).click();
+	await expect(page.getByRole('heading', { name: `Lot ${held.lot_code}` })).toBeVisible();
+	const notices = page.getByTestId('portal-notice');
+	await expect(notices).toHaveCount(2);
+	await expect(notices.first()).toContainText('Quality decision');
+	const report = await page.request.get(`${app.url}/api/v1/lots/${held.id}/report.pdf?inline=1`);
+	expect(report.status()).toBe(200);
+	expect(report.headers()['content-type']).toBe('application/pdf');
+	await shot(page, 'portal-lot');
+
+	const holdNotice = notices.filter({ hasText: 'ON HOLD' });
+	await holdNotice.getByRole('button', { name: 'Acknowledge this notice' }).click();
+	await expect(holdNotice.getByText(/Acknowledged/)).toBeVisible();
+	await holdNotice.getByLabel(/^Reply to/).fill('Our UN 38.3 summary for this cell type is attached; the shipping desk has been reminded.');
+	await holdNotice.getByLabel(/^Document/).setInputFiles({
+		name: 'corrective-action.pdf',
+		mimeType: 'application/pdf',
+		buffer: Buffer.from('%PDF-1.4\n% corrective action for the missing summary\n%%EOF\n')
+	});
+	await holdNotice.getByRole('button', { name: 'Send reply' }).click();
+	await expect(holdNotice.getByText('Reply sent.')).toBeVisible();
+	await expect(holdNotice.getByRole('link', { name: 'corrective-action.pdf' })).toBeVisible();
+	await shot(page, 'portal-replied');
+
+	// Another supplier's lot is simply not there for this supplier.
+	const foreign = await page.goto(`${app.url}/portal/lots/${ferrolithLot.id}`);
+	expect(foreign?.status()).toBe(404);
+	const report2 = await page.request.get(`${app.url}/api/v1/lots/${ferrolithLot.id}/report.pdf`);
+	expect(report2.status()).toBe(404);
+});
+
+test('the buyer sees the decisions, notices and the reply on the lot page', async ({ page }) => {
+	await signInPage(page, app.url, 'buyer@kestrel-mobility.example');
+	await page.goto(`${app.url}/lots/${held.id}`);
+	const panel = page.getByRole('region', { name: 'Disposition and paper trail' });
+	await expect(panel).toContainText('Quality decision');
+	await expect(panel).toContainText('e-signed');
+	await expect(panel).toContainText('Our UN 38.3 summary for this cell type is attached');
+	await expect(panel.getByRole('link', { name: 'corrective-action.pdf' })).toBeVisible();
+	await panel.scrollIntoViewIfNeeded();
+	await shot(page, 'lot-decision-panel');
+});

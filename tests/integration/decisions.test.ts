@@ -1,0 +1,303 @@
+/**
+ * Dispositions end to end through the real server (`node build`) on a fresh copy of the seeded
+ * database: submit → evaluation, hold → release / reject by quality with an e-signature, safety
+ * reject; each notice is read back from the SMTP peer and parsed with mailparser, and its PDF
+ * report is read with poppler (pdfinfo / pdftotext). Also: supplier isolation and XLSX exports.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import XlsxPopulate from 'xlsx-populate';
+import { startApp, type RunningApp } from '../helpers/app';
+import { DEMO_PASSWORD, signInApi, tokenFor } from '../helpers/auth';
+import { freshDatabase, withClient } from '../helpers/db';
+import { measuredLot, mailsForNotice, parsedMail, pdfText, VOLTARIA_CONTACTS, waitUntil } from './decisions-fixtures';
+import { call, type Caller } from './readings-fixtures';
+
+let app: RunningApp;
+let db: Awaited<ReturnType<typeof freshDatabase>>;
+let buyer: Caller, inspector: Caller, quality: Caller, voltaria: Caller, ferrolith: Caller;
+let qualityCookie: string;
+
+beforeAll(async () => {
+	db = await freshDatabase('decisions');
+	app = await startApp({ databaseUrl: db.url });
+	const as = async (email: string) => ({ base: app.url, token: await tokenFor(db.url, email) });
+	[buyer, inspector, quality, voltaria, ferrolith] = await Promise.all([
+		as('buyer@kestrel-mobility.example'),
+		as('inspector@kestrel-mobility.example'),
+		as('quality@kestrel-mobility.example'),
+		as('supplier@voltaria-cells.example'),
+		as('supplier@ferrolith.example')
+	]);
+	qualityCookie = await signInApi(app.url, 'quality@kestrel-mobility.example');
+}, 60_000);
+
+afterAll(async () => {
+	await app?.stop();
+	await db?.drop();
+});
+
+/** POST the e-signed decision as a signed-in quality manager (interactive session cookie). */
+function decide(lotId: string, body: Record<string, string>, cookie = qualityCookie) {
+	return fetch(`${app.url}/api/v1/lots/${lotId}/decision`, {
+		method: 'POST',
+		headers: { cookie, 'content-type': 'application/json' },
+		body: JSON.stringify(body)
+	}).then(async (r) => ({ status: r.status, json: await r.json() }));
+}
+
+const lotRow = (id: string) =>
+	withClient(db.url, async (c) => (await c.query('select status, decided_at, severity from lots where id = $1', [id])).rows[0]);
+const noticesOf = (id: string) =>
+	withClient(db.url, async (c) => (await c.query('select * from notices where lot_id = $1 order by created_at', [id])).rows);
+
+/** Wait for the notice's mail, parse it, and check what every notice must carry. */
+async function readNotice(noticeId: string, lotCode: string, disposition: RegExp) {
+	const [mail] = await waitUntil(async () => {
+		const found = await mailsForNotice(noticeId);
+		return found.length ? found : null;
+	}, 20_000, `notice ${noticeId}`);
+	expect(mail.envelope.to.sort()).toEqual([...VOLTARIA_CONTACTS].sort());
+	expect(mail.subject).toContain(lotCode);
+	expect(mail.subject).toMatch(disposition);
+	const parsed = await parsedMail(mail);
+	expect(parsed.text).toContain(`Lot: ${lotCode}`);
+	expect(typeof parsed.html === 'string' && parsed.html.includes(lotCode)).toBe(true);
+	const pdf = parsed.attachments.find((a) => a.contentType === 'application/pdf');
+	expect(pdf, 'the PDF report is attached').toBeDefined();
+	const text = pdfText(pdf!.content);
+	expect(text).toContain(lotCode);
+	return { mail, parsed, pdfText: text };
+}
+
+describe('submit → automatic disposition with a notice', () => {
+	it('refuses an incomplete sample with 422 and stores nothing', async () => {
+		const lot = await measuredLot(buyer, inspector, 'accept');
+		// Remove one unit's reading so the sample is one short.
+		await withClient(db.url, (c) => c.query(`delete from readings where lot_id = $1 and serial = 'P-00001'`, [lot.id]));
+		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		expect(res.status).toBe(422);
+		expect(res.json.error.code).toBe('sample_incomplete');
+		expect(res.json.error.message).toMatch(/sample/i);
+		expect((await lotRow(lot.id)).status).toBe('in_inspection');
+		const count = await withClient(db.url, async (c) => (await c.query('select count(*)::int as n from evaluations where lot_id = $1', [lot.id])).rows[0].n);
+		expect(count).toBe(0);
+		expect(await noticesOf(lot.id)).toHaveLength(0);
+	});
+
+	it('accepts a conforming lot and mails the accept notice with the PDF', async () => {
+		const lot = await measuredLot(buyer, inspector, 'accept');
+		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		expect(res.status).toBe(201);
+		expect(res.json.status).toBe('accepted');
+		expect(res.json.evaluation.status).toBe('accept');
+		expect(res.json.evaluation.plan.sample_size).toBe(lot.sampleSize);
+		const row = await lotRow(lot.id);
+		expect(row.status).toBe('accepted');
+		expect(row.decided_at).not.toBeNull();
+		const stored = await withClient(db.url, async (c) => (await c.query('select * from evaluations where lot_id = $1', [lot.id])).rows);
+		expect(stored).toHaveLength(1);
+		expect(stored[0].model_version).toBeTruthy();
+		expect(stored[0].inputs.readings.serial).toHaveLength(lot.sampleSize);
+		const { parsed, pdfText: text } = await readNotice(res.json.noticeId, lot.lot_code, /ACCEPTED/);
+		expect(parsed.text).toContain('Disposition: ACCEPTED');
+		expect(parsed.text).toContain('No action is needed');
+		expect(text).toMatch(/ACCEPT/);
+		// A second submit is a conflict: the lot is already decided.
+		const again = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		expect(again.status).toBe(409);
+		const [notice] = await noticesOf(lot.id);
+		expect(notice.status).toBe('sent');
+		expect(notice.message_id).toBe(`<notice-${notice.id}@restvolt.local>`);
+	});
+
+	it('rejects for safety (deep discharge), says so in mail and PDF, and cannot be overridden', async () => {
+		const lot = await measuredLot(buyer, inspector, 'safety');
+		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		expect(res.status).toBe(201);
+		expect(res.json.status).toBe('rejected');
+		expect(res.json.evaluation.safety).toBe(true);
+		const { parsed, pdfText: text } = await readNotice(res.json.noticeId, lot.lot_code, /REJECTED/);
+		expect(parsed.text).toContain('for safety reasons');
+		expect(parsed.text).toMatch(/must not be recharged/);
+		expect(parsed.text).toMatch(/dangerous-goods regulations/);
+		expect(text).toMatch(/REJECT/);
+		const override = await decide(lot.id, { decision: 'accept', reason: 'Trying to release', password: DEMO_PASSWORD });
+		expect(override.status).toBe(409);
+		expect((await lotRow(lot.id)).status).toBe('rejected');
+	});
+});
+
+describe('quality review of held lots (e-signed overrides)', () => {
+	it('hold → release: notice for the hold, signature recorded, notice for the release', async () => {
+		const lot = await measuredLot(buyer, inspector, 'hold');
+		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		expect(res.json.status).toBe('on_hold');
+		expect(res.json.evaluation.reasons.map((r: { code: string }) => r.code)).toContain('documents_missing');
+		const hold = await readNotice(res.json.noticeId, lot.lot_code, /ON HOLD/);
+		expect(hold.parsed.text).toContain('UN 38.3 test summary');
+		expect(hold.parsed.text).toMatch(/Handling cautions/);
+		expect(hold.pdfText).toMatch(/HOLD/);
+
+		// Tokens cannot sign; a wrong password signs nothing; a missing reason is refused.
+		const byToken = await call(quality, `/api/v1/lots/${lot.id}/decision`, { body: { decision: 'accept', reason: 'Released', password: DEMO_PASSWORD } });
+		expect(byToken.status).toBe(403);
+		expect(byToken.json.error.code).toBe('session_required');
+		const wrong = await decide(lot.id, { decision: 'accept', reason: 'Summary received by mail', password: 'not-my-password' });
+		expect(wrong.status).toBe(403);
+		expect(wrong.json.error.code).toBe('signature_invalid');
+		const noReason = await decide(lot.id, { decision: 'accept', reason: '', password: DEMO_PASSWORD });
+		expect(noReason.status).toBe(422);
+		expect((await lotRow(lot.id)).status).toBe('on_hold');
+
+		const reason = 'UN 38.3 summary received by mail and checked against the cell type';
+		const ok = await decide(lot.id, { decision: 'accept', reason, password: DEMO_PASSWORD });
+		expect(ok.status).toBe(200);
+		expect(ok.json.status).toBe('accepted');
+		expect((await lotRow(lot.id)).status).toBe('accepted');
+		const signed = await withClient(db.url, async (c) => ({
+			decision: (await c.query(`select * from decisions where lot_id = $1 and kind = 'override'`, [lot.id])).rows[0],
+			audit: (await c.query(`select * from audit_events where lot_id = $1 and action = 'lot.override_signed'`, [lot.id])).rows[0]
+		}));
+		expect(signed.decision.reason).toBe(reason);
+		expect(signed.decision.signature).toMatchObject({ signer_email: 'quality@kestrel-mobility.example', decision: 'accept', reason });
+		expect(signed.audit.actor_email).toBe('quality@kestrel-mobility.example');
+		expect(signed.audit.details.signature.meaning).toMatch(/release/);
+		const release = await readNotice(ok.json.noticeId, lot.lot_code, /ACCEPTED/);
+		expect(release.mail.subject).toMatch(/^Quality decision/);
+		expect(release.parsed.text).toContain(reason);
+
+		// Decision history for the lot page's panel.
+		const history = await call(buyer, `/api/v1/lots/${lot.id}/decisions`);
+		expect(history.status).toBe(200);
+		expect(history.json.decisions.map((d: { kind: string }) => d.kind)).toEqual(['override', 'automatic']);
+		expect(history.json.notices).toHaveLength(2);
+	});
+
+	it('hold → reject: the reject notice carries the reason and the cautions', async () => {
+		const lot = await measuredLot(buyer, inspector, 'hold');
+		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		expect(res.json.status).toBe('on_hold');
+		const reason = 'Supplier cannot provide a UN 38.3 summary for this cell type';
+		const ok = await decide(lot.id, { decision: 'reject', reason, password: DEMO_PASSWORD });
+		expect(ok.status).toBe(200);
+		expect(ok.json.status).toBe('rejected');
+		const { parsed, pdfText: text } = await readNotice(ok.json.noticeId, lot.lot_code, /REJECTED/);
+		expect(parsed.text).toContain(reason);
+		expect(parsed.text).toMatch(/corrective-action report/);
+		expect(text).toMatch(/REJECT/);
+		// The quarantine tag exists for the rejected lot and names it.
+		const tag = await fetch(`${app.url}/api/v1/lots/${lot.id}/quarantine-tag.pdf`, { headers: { authorization: `Bearer ${buyer.token}` } });
+		expect(tag.status).toBe(200);
+		const tagText = pdfText(Buffer.from(await tag.arrayBuffer()));
+		expect(tagText).toContain(lot.lot_code);
+		expect(tagText).toMatch(/REJECTED/i);
+	});
+
+	it('refuses to release a held lot whose latest evaluation is a safety finding', async () => {
+		const lot = await measuredLot(buyer, inspector, 'hold');
+		await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		// A safety finding on a held lot cannot come from today's engine; write one to test the guard.
+		await withClient(db.url, (c) =>
+			c.query(
+				`insert into evaluations (lot_id, model_version, severity, plan, inputs, result, disposition, safety)
+				 select lot_id, model_version, severity, plan, inputs, result, 'reject', true from evaluations where lot_id = $1`,
+				[lot.id]
+			)
+		);
+		const res = await decide(lot.id, { decision: 'accept', reason: 'Release anyway', password: DEMO_PASSWORD });
+		expect(res.status).toBe(409);
+		expect(res.json.error.message).toMatch(/rejected for safety/i);
+		expect((await lotRow(lot.id)).status).toBe('on_hold');
+	});
+});
+
+describe('reports, exports, notices and supplier isolation', () => {
+	let lot: { id: string; lot_code: string; sampleSize: number };
+	let noticeId: string;
+
+	beforeAll(async () => {
+		lot = await measuredLot(buyer, inspector, 'hold');
+		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		noticeId = res.json.noticeId;
+	});
+
+	it('serves the PDF report that poppler reads (lot code and disposition)', async () => {
+		const res = await fetch(`${app.url}/api/v1/lots/${lot.id}/report.pdf`, { headers: { authorization: `Bearer ${voltaria.token}` } });
+		expect(res.status).toBe(200);
+		expect(res.headers.get('content-type')).toBe('application/pdf');
+		const text = pdfText(Buffer.from(await res.arrayBuffer()));
+		expect(text).toContain(lot.lot_code);
+		expect(text).toMatch(/HOLD/);
+	});
+
+	it('exports the readings as XLSX with the right values (re-read by xlsx-populate)', async () => {
+		const res = await fetch(`${app.url}/api/v1/lots/${lot.id}/readings.xlsx`, { headers: { authorization: `Bearer ${buyer.token}` } });
+		expect(res.status).toBe(200);
+		const book = await XlsxPopulate.fromDataAsync(Buffer.from(await res.arrayBuffer()));
+		const sheet = book.sheet('Readings')!;
+		const stored = await withClient(db.url, async (c) => (await c.query(`select serial, ocv_v from readings where lot_id = $1`, [lot.id])).rows);
+		const bySerial = new Map(stored.map((r) => [r.serial as string, r.ocv_v as number]));
+		const headers = (sheet.usedRange()!.value()[0] as unknown[]).map(String);
+		const serialCol = headers.indexOf('serial');
+		const ocvCol = headers.indexOf('OCV (V)');
+		expect(serialCol).toBeGreaterThanOrEqual(0);
+		const rows = (sheet.usedRange()!.value() as unknown[][]).slice(1).filter((r) => r[serialCol]);
+		expect(rows).toHaveLength(lot.sampleSize);
+		for (const r of rows) expect(r[ocvCol]).toBeCloseTo(bySerial.get(String(r[serialCol]))!, 6);
+	});
+
+	it('exports the lot list with filters', async () => {
+		const res = await fetch(`${app.url}/api/v1/lots.xlsx?status=on_hold`, { headers: { authorization: `Bearer ${buyer.token}` } });
+		expect(res.status).toBe(200);
+		const book = await XlsxPopulate.fromDataAsync(Buffer.from(await res.arrayBuffer()));
+		const values = book.sheet(0)!.usedRange()!.value() as unknown[][];
+		const codes = values.flat().map(String);
+		expect(codes).toContain(lot.lot_code);
+		const onHold = await withClient(db.url, async (c) => (await c.query(`select lot_code from lots where status = 'on_hold'`)).rows.map((r) => r.lot_code));
+		const listed = values.filter((row) => onHold.includes(String(row[0])));
+		expect(listed).toHaveLength(onHold.length);
+		const bad = await fetch(`${app.url}/api/v1/lots.xlsx?status=nonsense`, { headers: { authorization: `Bearer ${buyer.token}` } });
+		expect(bad.status).toBe(400);
+	});
+
+	it('lets the supplier list and acknowledge its notice, and hides it from other suppliers (404)', async () => {
+		const mine = await call(voltaria, `/api/v1/notices?lot_id=${lot.id}`);
+		expect(mine.status).toBe(200);
+		expect(mine.json.notices.map((n: { id: string }) => n.id)).toContain(noticeId);
+		const others = await call(ferrolith, `/api/v1/notices`);
+		expect(others.json.notices.map((n: { id: string }) => n.id)).not.toContain(noticeId);
+		expect((await call(ferrolith, `/api/v1/notices?lot_id=${lot.id}`)).status).toBe(404);
+		expect((await call(ferrolith, `/api/v1/notices/${noticeId}/acknowledge`, { method: 'POST' })).status).toBe(404);
+		expect((await call(ferrolith, `/api/v1/lots/${lot.id}/report.pdf`)).status).toBe(404);
+		expect((await call(ferrolith, `/api/v1/lots/${lot.id}/readings.xlsx`)).status).toBe(404);
+		expect((await call(ferrolith, `/api/v1/lots/${lot.id}/decisions`)).status).toBe(404);
+		const ack = await call(voltaria, `/api/v1/notices/${noticeId}/acknowledge`, { method: 'POST' });
+		expect(ack.status).toBe(200);
+		expect(ack.json.acknowledgedAt).toBeTruthy();
+		const [row] = (await noticesOf(lot.id)).filter((n) => n.id === noticeId);
+		expect(row.acknowledged_at).not.toBeNull();
+	});
+
+	it('refuses submit to roles without it (buyer 403) and quarantine tags for accepted lots (409)', async () => {
+		expect((await call(buyer, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).status).toBe(403);
+		const accepted = await measuredLot(buyer, inspector, 'accept');
+		await call(inspector, `/api/v1/lots/${accepted.id}/submit`, { method: 'POST' });
+		expect((await call(buyer, `/api/v1/lots/${accepted.id}/quarantine-tag.pdf`)).status).toBe(409);
+	});
+
+	it('computes the supplier scorecard from the decided lots', async () => {
+		const supplierId = await withClient(db.url, async (c) => (await c.query(`select supplier_id from lots where id = $1`, [lot.id])).rows[0].supplier_id);
+		const res = await call(buyer, `/api/v1/suppliers/${supplierId}/scorecard`);
+		expect(res.status).toBe(200);
+		const facts = await withClient(db.url, async (c) =>
+			(await c.query(`select status::text from lots where supplier_id = $1 and status in ('accepted','on_hold','rejected')`, [supplierId])).rows
+		);
+		expect(res.json.totals.lotsDecided).toBe(facts.length);
+		expect(res.json.totals.held + res.json.totals.accepted + res.json.totals.rejected).toBe(facts.length);
+		expect(res.json.months.length).toBeGreaterThanOrEqual(1);
+		// ppm = nonconforming / inspected × 10⁶ (definition); the safety lot has one deep-discharged unit.
+		expect(res.json.totals.nonconformingUnits).toBeGreaterThanOrEqual(1);
+		expect(res.json.totals.ppm).toBeCloseTo((res.json.totals.nonconformingUnits / res.json.totals.unitsInspected) * 1e6, 6);
+		expect((await call(voltaria, `/api/v1/suppliers/${supplierId}/scorecard`)).status).toBe(403);
+	});
+});

@@ -1,0 +1,134 @@
+/**
+ * The mail outbox under faults, with a private SMTP peer the test stops and starts:
+ *  - the relay is down while decisions are made → every notice arrives exactly once after it is back;
+ *  - the app is killed (SIGKILL) with notices pending and restarted → each is sent exactly once;
+ *  - two quality managers override the same held lot at once → exactly one wins, the other gets 409.
+ * "Exactly once" is checked by counting the deterministic Message-ID <notice-{id}@restvolt.local>.
+ */
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { join } from 'node:path';
+import { freePort } from '../../scripts/lib/proc.mjs';
+import { startApp, type RunningApp } from '../helpers/app';
+import { DEMO_PASSWORD, signInApi, tokenFor } from '../helpers/auth';
+import { freshDatabase, withClient } from '../helpers/db';
+import { testEnv } from '../helpers/env';
+import { startPrivatePeer, type PrivatePeer } from '../helpers/mail';
+import { measuredLot, mailsForNotice, waitUntil } from './decisions-fixtures';
+import { call, type Caller } from './readings-fixtures';
+
+let db: Awaited<ReturnType<typeof freshDatabase>>;
+let smtpPort: number;
+let httpPort: number;
+let mailDir: string;
+let peer: PrivatePeer | null = null;
+let app: RunningApp | null = null;
+
+// Short backoff and lease so retries happen within the test's time; same code paths as production.
+const OUTBOX_ENV = { OUTBOX_POLL_MS: '150', OUTBOX_BACKOFF_MS: '200', OUTBOX_BACKOFF_MAX_MS: '1000', OUTBOX_LEASE_MS: '3000', OUTBOX_MAX_ATTEMPTS: '50' };
+
+const start = () => startApp({ databaseUrl: db.url, smtpPort, env: OUTBOX_ENV });
+const startPeer = async () => (peer = await startPrivatePeer(smtpPort, httpPort, mailDir));
+const stopPeer = async () => {
+	await peer?.stop();
+	peer = null;
+};
+
+async function callers(base: string) {
+	const as = async (email: string): Promise<Caller> => ({ base, token: await tokenFor(db.url, email) });
+	return { buyer: await as('buyer@kestrel-mobility.example'), inspector: await as('inspector@kestrel-mobility.example') };
+}
+
+const noticeRows = (ids: string[]) =>
+	withClient(db.url, async (c) => (await c.query('select id, status, attempts, last_error, message_id from notices where id = any($1::uuid[])', [ids])).rows);
+
+/** Wait until every notice is marked sent, then give the worker time to (wrongly) send again. */
+async function expectEachDeliveredOnce(ids: string[], peerUrl: string) {
+	await waitUntil(async () => (await noticeRows(ids)).every((r) => r.status === 'sent'), 30_000, 'notices marked sent');
+	await new Promise((r) => setTimeout(r, 1500));
+	for (const id of ids) expect((await mailsForNotice(id, peerUrl)).length, `notice ${id}`).toBe(1);
+}
+
+beforeAll(async () => {
+	db = await freshDatabase('outbox_faults');
+	[smtpPort, httpPort] = [await freePort(), await freePort()];
+	mailDir = join(testEnv().scratch, `outbox-faults-${Date.now()}`);
+}, 60_000);
+
+afterAll(async () => {
+	await app?.stop();
+	await stopPeer();
+	await db?.drop();
+});
+
+describe('outbox faults', () => {
+	it('keeps notices while the SMTP relay is down and delivers each exactly once when it is back', async () => {
+		app = await start(); // the relay is not running yet
+		const { buyer, inspector } = await callers(app.url);
+		const ids: string[] = [];
+		for (const scenario of ['accept', 'hold', 'safety'] as const) {
+			const lot = await measuredLot(buyer, inspector, scenario);
+			const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+			expect(res.status).toBe(201);
+			ids.push(res.json.noticeId);
+		}
+		// Several attempts fail while the relay is down; nothing is lost or given up.
+		await waitUntil(async () => (await noticeRows(ids)).every((r) => r.attempts >= 2), 20_000, 'failed attempts');
+		const down = await noticeRows(ids);
+		expect(down.every((r) => r.status === 'pending' && r.last_error)).toBe(true);
+		await startPeer();
+		await expectEachDeliveredOnce(ids, peer!.httpUrl);
+		const sent = await noticeRows(ids);
+		expect(sent.every((r) => r.message_id === `<notice-${r.id}@restvolt.local>`)).toBe(true);
+	});
+
+	it('sends notices left pending by a killed app exactly once after the restart', async () => {
+		await stopPeer();
+		const { buyer, inspector } = await callers(app!.url);
+		const ids: string[] = [];
+		for (const scenario of ['hold', 'accept'] as const) {
+			const lot = await measuredLot(buyer, inspector, scenario);
+			ids.push((await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).json.noticeId);
+		}
+		await waitUntil(async () => (await noticeRows(ids)).every((r) => r.attempts >= 1), 20_000, 'a failed attempt');
+		await app!.kill(); // SIGKILL: no shutdown hook runs
+		expect((await noticeRows(ids)).every((r) => r.status === 'pending')).toBe(true);
+		await startPeer();
+		app = await start();
+		await expectEachDeliveredOnce(ids, peer!.httpUrl);
+		// A second restart sends nothing again.
+		await app.stop();
+		app = await start();
+		await new Promise((r) => setTimeout(r, 1500));
+		for (const id of ids) expect((await mailsForNotice(id, peer!.httpUrl)).length).toBe(1);
+	});
+
+	it('lets exactly one of two simultaneous overrides win; the other gets 409', async () => {
+		const { buyer, inspector } = await callers(app!.url);
+		const lot = await measuredLot(buyer, inspector, 'hold');
+		expect((await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).json.status).toBe('on_hold');
+		const [first, second] = await Promise.all([
+			signInApi(app!.url, 'quality@kestrel-mobility.example'),
+			signInApi(app!.url, 'quality2@kestrel-mobility.example')
+		]);
+		const override = (cookie: string, decision: 'accept' | 'reject') =>
+			fetch(`${app!.url}/api/v1/lots/${lot.id}/decision`, {
+				method: 'POST',
+				headers: { cookie, 'content-type': 'application/json' },
+				body: JSON.stringify({ decision, reason: `Decided ${decision} in the concurrency test`, password: DEMO_PASSWORD })
+			}).then(async (r) => ({ status: r.status, json: await r.json() }));
+		const results = await Promise.all([override(first, 'accept'), override(second, 'reject')]);
+		const statuses = results.map((r) => r.status).sort();
+		expect(statuses).toEqual([200, 409]);
+		const loser = results.find((r) => r.status === 409)!;
+		expect(loser.json.error.message).toMatch(/Another decision was recorded first/);
+		const winner = results.find((r) => r.status === 200)!;
+		const state = await withClient(db.url, async (c) => ({
+			lot: (await c.query('select status from lots where id = $1', [lot.id])).rows[0].status,
+			overrides: (await c.query(`select count(*)::int as n from decisions where lot_id = $1 and kind = 'override'`, [lot.id])).rows[0].n,
+			notices: (await c.query(`select count(*)::int as n from notices where lot_id = $1 and kind = 'override'`, [lot.id])).rows[0].n
+		}));
+		expect(state.lot).toBe(winner.json.status);
+		expect(state.overrides).toBe(1);
+		expect(state.notices).toBe(1);
+	});
+});
