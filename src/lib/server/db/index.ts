@@ -18,7 +18,9 @@ export function databaseUrl(): string {
 }
 
 export function getPool(): pg.Pool {
-	pool ??= new pg.Pool({ connectionString: databaseUrl(), max: Number(process.env.PG_POOL_MAX ?? 10) });
+	// allowExitOnIdle: idle connections must not keep a stopping process alive (adapter-node's
+	// graceful shutdown ends when the event loop is empty).
+	pool ??= new pg.Pool({ connectionString: databaseUrl(), max: Number(process.env.PG_POOL_MAX ?? 10), allowExitOnIdle: true });
 	return pool;
 }
 
