@@ -9,7 +9,6 @@ import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ensureDatabase, ensurePostgres } from './lib/pg.mjs';
 import { migrateDatabase } from './lib/migrate.mjs';
-import { ensureBuild } from './lib/build.mjs';
 import { freePort, runInherit } from './lib/proc.mjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
@@ -22,16 +21,15 @@ function newestMtime(path) {
 	return readdirSync(path).reduce((max, name) => Math.max(max, newestMtime(join(path, name))), st.mtimeMs);
 }
 
-/** ensureBuild knows only build/; the same freshness rule for another folder. */
+/** scripts/lib/build.mjs's freshness rule, for any output folder (its ensureBuild knows only build/). */
 async function ensureBuildIn(dir) {
 	if (process.env.BENCH_SKIP_BUILD === '1' && existsSync(join(root, dir, 'handler.js'))) return; // measure the build as it is
-	if (dir === 'build') return ensureBuild(root);
 	const handler = join(root, dir, 'handler.js');
 	const inputs = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json'];
 	const sourcesTime = Math.max(...inputs.map((p) => join(root, p)).filter(existsSync).map(newestMtime));
 	if (existsSync(handler) && statSync(handler).mtimeMs > sourcesTime) return;
 	console.log(`[bench] building the app into ${dir}/ (vite build)…`);
-	const code = await runInherit('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: root });
+	const code = await runInherit('npx', ['vite', 'build', '--logLevel', 'error'], { cwd: root });
 	if (code !== 0) throw new Error('vite build failed');
 }
 
@@ -49,7 +47,10 @@ try {
 	const databaseUrl = await ensureDatabase(pg.url, 'restvolt_bench');
 	await migrateDatabase(databaseUrl, root);
 	const { NODE_ENV: _production, ...seedEnv } = process.env; // the demo seed refuses NODE_ENV=production
-	const seeded = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...seedEnv, DATABASE_URL: databaseUrl }, stdio: ['ignore', 'ignore', 'inherit'] });
+	const seeded = await runInherit('npx', ['tsx', 'seed/index.ts'], {
+		env: { ...seedEnv, DATABASE_URL: databaseUrl, NODE_OPTIONS: '--no-deprecation' },
+		stdio: ['ignore', 'ignore', 'inherit']
+	});
 	if (seeded !== 0) throw new Error('seeding the bench database failed');
 	await ensureBuildIn(buildDir);
 	exitCode = await runInherit('npx', ['tsx', '--tsconfig', 'tests/bench/tsconfig.json', 'tests/bench/run.ts'], {

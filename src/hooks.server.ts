@@ -2,6 +2,7 @@ import { sequence } from '@sveltejs/kit/hooks';
 import type { Handle } from '@sveltejs/kit';
 import { authHandle, resolveUser } from '$lib/server/auth';
 import { guard } from '$lib/server/guard';
+import { csrfGuard } from '$lib/server/csrf';
 import { building } from '$app/environment';
 import { startBackgroundWork } from '$lib/server/background';
 
@@ -24,4 +25,4 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle: Handle = sequence(securityHeaders, authHandle, resolveUser, guard);
+export const handle: Handle = sequence(securityHeaders, csrfGuard, authHandle, resolveUser, guard);

@@ -17,6 +17,7 @@ import { benchImportXlsx } from './ops/import-xlsx';
 import { benchEvaluationLoad } from './ops/evaluation-load';
 import { benchLotList } from './ops/lot-list';
 import { benchClientWeight } from './ops/client-weight';
+import { EVALUATE_TWIN, EVALUATION_TWIN, writeStaticTwins } from './lib/static-twins';
 
 const need = (name: string) => {
 	const value = process.env[name];
@@ -83,12 +84,15 @@ async function main() {
 	await printMachine(databaseUrl);
 	const { part, bigLotId, sampleLotId } = await prepare(databaseUrl);
 	const token = await bearerFor();
+	const buildDir = need('BENCH_BUILD_DIR');
 	let app: BenchApp | undefined;
-	const written: string[] = [];
 	try {
-		app = await startBenchApp(databaseUrl, need('BENCH_BUILD_DIR'));
+		// First process: record the API answers as static files; sirv only sees files present at start.
+		app = await startBenchApp(databaseUrl, buildDir);
+		await writeStaticTwins(app.url, app.buildDir, token, sampleLotId);
+		await app.stop();
+		app = await startBenchApp(databaseUrl, buildDir);
 		const ctx: BenchContext = { app, databaseUrl, pgBin: need('BENCH_PG_BIN'), scratch: need('BENCH_SCRATCH'), part, token, bigLotId, sampleLotId };
-		written.push(`${app.buildDir}/client/bench-evaluate-static.json`, `${app.buildDir}/client/bench-evaluation-static.json`);
 
 		await attempt(['evaluate-lot-2000'], async () => report(await benchEvaluateLot(ctx)));
 		await attempt(['ocv-evaluate-10000'], async () => report(await benchOcvEvaluate(ctx)));
@@ -102,11 +106,12 @@ async function main() {
 		await attempt(['inspect-page-js'], async () => {
 			const result = await benchClientWeight(ctx);
 			report(result.line);
-			console.log(`files inspect-page-js: ${result.files.map((f) => `${f.path.split('/').pop()}=${(f.gzipBytes / 1024).toFixed(1)}KB`).join(' ')}`);
+			const top = result.files.slice(0, 6).map((f) => `${f.path.split('/').pop()}=${(f.gzipBytes / 1024).toFixed(1)}KB`);
+			console.log(`files inspect-page-js: ${result.files.length} modules, largest ${top.join(' ')}`);
 		});
 	} finally {
 		await app?.stop();
-		for (const file of written) rmSync(file, { force: true });
+		if (app) for (const name of [EVALUATE_TWIN, EVALUATION_TWIN]) rmSync(`${app.buildDir}/client/${name}`, { force: true });
 		await closeDb();
 	}
 	const met = outcomes.filter(Boolean).length;

@@ -57,7 +57,7 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	await shot(page, 'review-queue');
 
 	await item.getByRole('link', { name: held.lot_code }).click();
-	await expect(page.getByRole('heading', { name: `Lot ${held.lot_code}` })).toBeVisible();
+	await expect(page.getByRole('heading', { name: `Lot ${held.lot_code}`, exact: true })).toBeVisible();
 	await expect(page.getByRole('heading', { name: 'Plots' })).toBeVisible();
 	await expect(page.locator('svg').first()).toBeVisible();
 
@@ -96,7 +96,7 @@ test('the supplier reads the notice and the report, acknowledges and replies', a
 	await shot(page, 'portal-home');
 
 	await page.getByRole('link', { name: held.lot_code }).click();
-	await expect(page.getByRole('heading', { name: `Lot ${held.lot_code}` })).toBeVisible();
+	await expect(page.getByRole('heading', { name: `Lot ${held.lot_code}`, exact: true })).toBeVisible();
 	const notices = page.getByTestId('portal-notice');
 	await expect(notices).toHaveCount(2);
 	await expect(notices.first()).toContainText('Quality decision');
@@ -136,4 +136,54 @@ test('the buyer sees the decisions, notices and the reply on the lot page', asyn
 	await expect(panel.getByRole('link', { name: 'corrective-action.pdf' })).toBeVisible();
 	await panel.scrollIntoViewIfNeeded();
 	await shot(page, 'lot-decision-panel');
+});
+
+test('the buyer reads the supplier scorecard, drawn from the API in the browser', async ({ page }) => {
+	const supplierId = await withClient(db.url, async (c) => (await c.query('select supplier_id from lots where id = $1', [held.id])).rows[0].supplier_id);
+	await signInPage(page, app.url, 'buyer@kestrel-mobility.example');
+	await page.goto(`${app.url}/suppliers/${supplierId}/scorecard`);
+	await expect(page.getByRole('heading', { name: 'Voltaria Cells Co.' })).toBeVisible();
+	// Two lots decided on original inspection: one held (then released), one rejected for safety.
+	const tile = (key: string) => page.locator(`[data-tile="${key}"]`);
+	await expect(tile('received')).toContainText('2');
+	await expect(tile('acceptance')).toContainText('0.0 %');
+	await expect(tile('held')).toContainText('1 released after review');
+	await expect(tile('rejected')).toContainText('1 rejected in the end');
+	// 1 deep-discharged unit of 26 inspected: 1/26 × 10⁶ ≈ 38,462 ppm.
+	await expect(tile('ppm')).toContainText('38,462 ppm');
+	await expect(page.getByRole('heading', { name: 'Trend per month' })).toBeVisible();
+	await shot(page, 'scorecard-supplier');
+	await page.getByLabel('Part', { exact: true }).selectOption({ label: 'VC-21700-50G' });
+	await expect(page.getByRole('heading', { name: 'Voltaria Cells Co. · VC-21700-50G' })).toBeVisible();
+	await expect(page.getByText('Sampling severity now')).toBeVisible();
+	await shot(page, 'scorecard-part');
+});
+
+test('an administrator retries a notice that gave up', async ({ page }) => {
+	const [notice] = await withClient(db.url, async (c) =>
+		(await c.query(`update notices set status = 'failed', attempts = 8, last_error = 'relay refused (set by the test)' where lot_id = $1 and kind = 'reject' returning id`, [other.id])).rows
+	);
+	await signInPage(page, app.url, 'admin@kestrel-mobility.example');
+	await page.goto(`${app.url}/admin/outbox`);
+	const row = page.locator(`tr[data-notice-id="${notice.id}"]`);
+	await expect(row).toContainText('relay refused (set by the test)');
+	await shot(page, 'outbox-failed');
+	await row.getByRole('button', { name: 'Retry now' }).click();
+	await expect(page.getByText('The notice is queued again')).toBeVisible();
+	await waitUntil(async () => {
+		const [r] = await withClient(db.url, async (c) => (await c.query('select status from notices where id = $1', [notice.id])).rows);
+		return r.status === 'sent';
+	}, 20_000, 'retried notice sent');
+	await page.getByRole('button', { name: 'Refresh' }).click();
+	await expect(page.locator(`tr[data-notice-id="${notice.id}"]`)).toHaveCount(1); // now under "Recently sent"
+	await shot(page, 'outbox-after-retry');
+});
+
+test('a safety-rejected lot explains why it cannot be released', async ({ page }) => {
+	await signInPage(page, app.url, 'quality@kestrel-mobility.example');
+	await page.goto(`${app.url}/review/${other.id}`);
+	await expect(page.getByRole('note')).toContainText('cannot be released');
+	await expect(page.getByRole('button', { name: 'Sign and record decision' })).toHaveCount(0);
+	await shot(page, 'review-safety-reject');
+	await savePdf(page.request, `/api/v1/lots/${other.id}/quarantine-tag.pdf`, 'tag-safety-reject');
 });

@@ -7,7 +7,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import XlsxPopulate from 'xlsx-populate';
 import { startApp, type RunningApp } from '../helpers/app';
-import { DEMO_PASSWORD, signInApi, tokenFor } from '../helpers/auth';
+import { DEMO_PASSWORD, postForm, signInApi, tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient } from '../helpers/db';
 import { measuredLot, mailsForNotice, parsedMail, pdfText, VOLTARIA_CONTACTS, waitUntil } from './decisions-fixtures';
 import { call, type Caller } from './readings-fixtures';
@@ -191,6 +191,27 @@ describe('quality review of held lots (e-signed overrides)', () => {
 		const tagText = pdfText(Buffer.from(await tag.arrayBuffer()));
 		expect(tagText).toContain(lot.lot_code);
 		expect(tagText).toMatch(/REJECTED/i);
+	});
+
+	it('re-evaluates a held lot after a correction: a new evaluation row, old one kept, status follows', async () => {
+		const lot = await measuredLot(buyer, inspector, 'hold');
+		const first = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		expect(first.json.status).toBe('on_hold');
+		// The missing UN 38.3 summary arrives and is attached by the buyer.
+		const form = new FormData();
+		form.set('kind', 'un38_3_summary');
+		form.set('file', new Blob([new TextEncoder().encode(`%PDF-1.4\n% summary ${lot.id}\n%%EOF\n`)], { type: 'application/pdf' }), 'un38_3.pdf');
+		expect((await call(buyer, `/api/v1/lots/${lot.id}/documents`, { form })).status).toBe(201);
+		const res = await postForm(app.url, `/review/${lot.id}?/reevaluate`, {}, qualityCookie);
+		expect(res.status).toBeLessThan(400);
+		const rows = await withClient(db.url, async (c) => (await c.query('select disposition from evaluations where lot_id = $1 order by id', [lot.id])).rows);
+		expect(rows.map((r) => r.disposition)).toEqual(['hold', 'accept']);
+		expect((await lotRow(lot.id)).status).toBe('accepted');
+		const kinds = (await noticesOf(lot.id)).map((n) => n.kind);
+		expect(kinds).toEqual(['hold', 'accept']);
+		// Only a held lot can be re-evaluated.
+		const again = await postForm(app.url, `/review/${lot.id}?/reevaluate`, {}, qualityCookie);
+		expect(again.status).toBe(409);
 	});
 
 	it('refuses to release a held lot whose latest evaluation is a safety finding', async () => {

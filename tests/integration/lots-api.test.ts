@@ -299,7 +299,7 @@ describe('lot documents', () => {
 	const upload = (who: Who, lotId: string, kind: string | null, bytes: Buffer, name: string, type = 'application/pdf') => {
 		const form = new FormData();
 		if (kind !== null) form.set('kind', kind);
-		form.set('file', new File([bytes], name, { type }));
+		form.set('file', new File([new Uint8Array(bytes)], name, { type }));
 		return call(who, `/api/v1/lots/${lotId}/documents`, { method: 'POST', raw: form, headers: sameOrigin() });
 	};
 

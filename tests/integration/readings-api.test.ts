@@ -77,26 +77,16 @@ describe('POST/GET /api/v1/lots/{id}/readings', () => {
 		const refused = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: many } });
 		expect(refused.status).toBe(413);
 		expect(await readingCount(lot.id)).toBe(0);
-		const started = performance.now();
 		const ok = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: many.slice(0, 10_000) } });
 		expect(ok.status).toBe(201);
 		expect(ok.json.inserted).toBe(10_000);
-		expect(performance.now() - started).toBeLessThan(5000);
-		const evalStart = performance.now();
 		const ev = await call(inspector, `/api/v1/lots/${lot.id}/evaluation`);
 		expect(ev.status).toBe(200);
 		expect(ev.json.units).toHaveLength(10_000);
-		// Server-Timing reports the time spent in evaluateLotNow (one readings query + the cores).
-		const serverMs = async () => {
-			const again = await call(inspector, `/api/v1/lots/${lot.id}/evaluation?detail=summary`);
-			return Number(/evaluate;dur=([\d.]+)/.exec(again.headers.get('server-timing') ?? '')?.[1]);
-		};
-		const times = [await serverMs(), await serverMs(), await serverMs()];
-		console.log('evaluation server ms (10,000 readings):', times);
-		// Warm (the first call above paid for JIT compilation), the median stays well under 200 ms.
-		expect(times.sort((a, b) => a - b)[1]).toBeLessThan(200);
-		// Server time is well under the round trip; the whole request (incl. ~3 MB JSON) stays under 2 s here.
-		expect(performance.now() - evalStart).toBeLessThan(2000);
+		// Server-Timing names the time spent in evaluateLotNow; its speed is measured by npm run bench.
+		const again = await call(inspector, `/api/v1/lots/${lot.id}/evaluation?detail=summary`);
+		expect(again.headers.get('server-timing') ?? '').toMatch(/evaluate;dur=[\d.]+/);
+		expect(again.json.units).toBeUndefined();
 	});
 
 	it('is idempotent by client_key (a retried save is not stored twice)', async () => {
@@ -304,14 +294,12 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 		expect(await readingCount(lot.id)).toBe(12);
 	});
 
-	it('imports 10,000 rows in a few seconds', async () => {
+	it('imports 10,000 rows (speed: npm run bench)', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 20000, declaredSoc: 0.3 });
 		const csv = csvOf(modelReadings('NMC', 10_000, 0.3, { halfWidth: 0.02 }));
 		const mapping = { serial: 0, ocv: 1, ocv_unit: 'V', temperature: 2, ac_resistance: 3, time: 4, first_row: 1 };
-		const started = performance.now();
 		const res = await upload(lot.id, 'big.csv', csv, mapping);
 		expect(res.status).toBe(201);
 		expect(res.json.inserted).toBe(10_000);
-		expect(performance.now() - started).toBeLessThan(5000);
 	});
 });

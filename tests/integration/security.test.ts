@@ -6,7 +6,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { freshDatabase } from '../helpers/db';
 import { startApp, type RunningApp } from '../helpers/app';
-import { DEMO_PASSWORD, postForm } from '../helpers/auth';
+import { DEMO_PASSWORD, postForm, tokenFor } from '../helpers/auth';
+import { withClient } from '../helpers/db';
 
 let db: Awaited<ReturnType<typeof freshDatabase>>;
 let app: RunningApp;
@@ -81,5 +82,30 @@ describe('session cookies', () => {
 		});
 		expect(res.status).toBe(403);
 		expect(sessionCookie(res)).toBeUndefined();
+	});
+});
+
+describe('cross-site checks and API tokens', () => {
+	const upload = (lotId: string, headers: Record<string, string>) => {
+		const form = new FormData();
+		form.set('kind', 'other');
+		form.set('file', new Blob([Buffer.from('%PDF-1.4\n%restvolt test\n')], { type: 'application/pdf' }), 'note.pdf');
+		return fetch(`${app.url}/api/v1/lots/${lotId}/documents`, { method: 'POST', headers, body: form });
+	};
+	const anyLot = () => withClient(db.url, async (c) => (await c.query(`select id from lots where status = 'draft' limit 1`)).rows[0].id as string);
+
+	it('a multipart upload authenticated by a bearer token needs no Origin header', async () => {
+		const token = await tokenFor(db.url, 'buyer@kestrel-mobility.example');
+		const res = await upload(await anyLot(), { authorization: `Bearer ${token}` });
+		expect(res.status).not.toBe(403);
+		expect([201, 409]).toContain(res.status);
+	});
+
+	it('the same upload riding on cookies from another site is refused', async () => {
+		const cookie = (await postForm(app.url, '/signin?/password', { email: 'buyer@kestrel-mobility.example', password: DEMO_PASSWORD, redirectTo: '/' }))
+			.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+		const res = await upload(await anyLot(), { cookie, origin: 'https://evil.example' });
+		expect(res.status).toBe(403);
+		expect(await res.text()).toMatch(/Cross-site POST form submissions are forbidden/);
 	});
 });

@@ -16,7 +16,7 @@ import {
 	isLithium,
 	isLithiumIon
 } from '../../src/lib/schemas/lot';
-import { partDescriptiveSchema, partLimitsSchema } from '../../src/lib/schemas/part';
+import { partDescriptiveSchema, partLimitsSchema, partListQuerySchema } from '../../src/lib/schemas/part';
 import { contactSchema } from '../../src/lib/schemas/supplier';
 import { documentKindSchema, MAX_DOCUMENT_BYTES } from '../../src/lib/schemas/document';
 
@@ -206,5 +206,18 @@ describe('contact and document schemas', () => {
 		expect(documentKindSchema.options).toEqual(['coc', 'un38_3_summary', 'sds', 'other']);
 		expect(documentKindSchema.safeParse('corrective_action').success).toBe(false);
 		expect(MAX_DOCUMENT_BYTES).toBe(20 * 1024 * 1024);
+	});
+});
+
+describe('list queries from HTML GET forms', () => {
+	it('treats empty parameters as no filter', () => {
+		expect(lotListQuerySchema.parse({ status: 'cancelled', supplier_id: '', search: '', limit: '' })).toEqual({ status: 'cancelled', limit: 25 });
+	});
+});
+
+describe('partListQuerySchema', () => {
+	it('treats empty parameters as no filter and refuses a malformed supplier id', () => {
+		expect(partListQuerySchema.parse({ supplier_id: '', search: '' })).toEqual({});
+		expect(partListQuerySchema.safeParse({ supplier_id: 'x' }).success).toBe(false);
 	});
 });

@@ -25,6 +25,8 @@ export interface LotInfo {
 	transport: Transport;
 	lithium_ion: boolean;
 	documents: LotDocument[];
+	/** The part's required documents; when absent: CoC, plus the UN 38.3 summary for lithium-ion. */
+	required_documents?: LotDocument[];
 }
 
 export interface UnitInput {
@@ -137,11 +139,17 @@ function pct(x: number): string {
 	return `${Math.round(x * 100)} %`;
 }
 
+const DOCUMENT_NAMES: Partial<Record<LotDocument, string>> = {
+	coc: 'certificate of conformity',
+	un38_3_summary: 'UN 38.3 test summary',
+	sds: 'safety data sheet'
+};
+
 function documentReasons(lot: LotInfo): Reason[] {
-	const needed: LotDocument[] = lot.lithium_ion ? ['coc', 'un38_3_summary'] : ['coc'];
+	const needed: LotDocument[] = lot.required_documents ?? (lot.lithium_ion ? ['coc', 'un38_3_summary'] : ['coc']);
 	const missing = needed.filter((d) => !lot.documents.includes(d));
 	if (missing.length === 0) return [];
-	const names = missing.map((d) => (d === 'coc' ? 'certificate of conformity' : 'UN 38.3 test summary'));
+	const names = missing.map((d) => DOCUMENT_NAMES[d] ?? d);
 	return [{ code: 'documents_missing', severity: 'hold', message: `Missing: ${names.join(', ')}.` }];
 }
 

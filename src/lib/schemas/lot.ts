@@ -158,18 +158,24 @@ export const LOT_FIELD: Record<keyof LotInput, string> = {
 	expectedArrival: 'expected_arrival'
 };
 
+/** An empty query parameter (`?status=`) means "no filter", as HTML GET forms send it. */
+export const blankAsMissing = <T extends z.ZodType>(schema: T) =>
+	z.preprocess((v) => (v === '' ? undefined : v), schema.optional());
+
 /** GET /api/v1/lots query. */
 export const lotListQuerySchema = z.object({
-	status: z.enum(LOT_STATUSES, { error: `status is one of ${LOT_STATUSES.join(', ')}` }).optional(),
-	supplier_id: z.uuid({ error: 'supplier_id must be a UUID' }).optional(),
-	part_id: z.uuid({ error: 'part_id must be a UUID' }).optional(),
-	search: z.string().trim().max(60).optional(),
-	limit: z.coerce
-		.number({ error: 'limit must be a whole number from 1 to 100' })
-		.int('limit must be a whole number from 1 to 100')
-		.min(1, 'limit must be a whole number from 1 to 100')
-		.max(100, 'limit must be a whole number from 1 to 100')
-		.default(25),
-	cursor: z.string().max(200).optional()
+	status: blankAsMissing(z.enum(LOT_STATUSES, { error: `status is one of ${LOT_STATUSES.join(', ')}` })),
+	supplier_id: blankAsMissing(z.uuid({ error: 'supplier_id must be a UUID' })),
+	part_id: blankAsMissing(z.uuid({ error: 'part_id must be a UUID' })),
+	search: blankAsMissing(z.string().trim().max(60)),
+	limit: z.preprocess(
+		(v) => (v === '' || v === undefined ? 25 : v),
+		z.coerce
+			.number({ error: 'limit must be a whole number from 1 to 100' })
+			.int('limit must be a whole number from 1 to 100')
+			.min(1, 'limit must be a whole number from 1 to 100')
+			.max(100, 'limit must be a whole number from 1 to 100')
+	),
+	cursor: blankAsMissing(z.string().max(200))
 });
 export type LotListQuery = z.infer<typeof lotListQuerySchema>;

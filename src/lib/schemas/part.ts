@@ -5,6 +5,7 @@
 import { z } from 'zod';
 import { AQL_SERIES } from '$lib/inspection';
 import { CHEMISTRY_CODES } from '$lib/electrochem';
+import { blankAsMissing } from './lot';
 
 export const INSPECTION_LEVELS = ['I', 'II', 'III', 'S-1', 'S-2', 'S-3', 'S-4'] as const;
 export const REQUIRED_DOCUMENT_KINDS = ['coc', 'un38_3_summary', 'sds'] as const;
@@ -59,9 +60,9 @@ export type PartLimitsForm = z.infer<typeof partLimitsSchema>;
 
 /** GET /api/v1/parts query. */
 export const partListQuerySchema = z.object({
-	supplier_id: z.uuid({ error: 'supplier_id must be a UUID' }).optional(),
-	chemistry: z.string().trim().max(20).optional(),
-	search: z.string().trim().max(60).optional()
+	supplier_id: blankAsMissing(z.uuid({ error: 'supplier_id must be a UUID' })),
+	chemistry: blankAsMissing(z.string().trim().max(20)),
+	search: blankAsMissing(z.string().trim().max(60))
 });
 export type PartListQuery = z.infer<typeof partListQuerySchema>;
 

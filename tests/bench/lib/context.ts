@@ -16,7 +16,7 @@ export interface BenchContext {
 	sampleLotId: string;
 }
 
-/** Write a file into the build's client folder: adapter-node serves it as a static asset. */
+/** A file in the build's client folder, which adapter-node serves as a static asset (see static-twins.ts). */
 export function staticPath(ctx: BenchContext, name: string): { file: string; url: string } {
 	return { file: `${ctx.app.buildDir}/client/${name}`, url: `${ctx.app.url}/${name}` };
 }

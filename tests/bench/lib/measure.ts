@@ -78,8 +78,9 @@ export function isMet(line: BenchLine): boolean {
 
 export function formatLine(line: BenchLine): string {
 	const ratio = line.value / line.floor;
+	const ratioText = ratio < 0.1 ? ratio.toFixed(3) : ratio.toFixed(2);
 	const target = `${line.target.op}${line.target.value}${line.target.on === 'value' ? (line.target.unit ?? line.unit) : ''}`;
-	return `bench ${line.name} median=${fmt(line.value)}${line.unit} floor=${fmt(line.floor)}${line.unit} ratio=${ratio.toFixed(2)} target=${target} ${isMet(line) ? 'met' : 'missed'}`;
+	return `bench ${line.name} median=${fmt(line.value)}${line.unit} floor=${fmt(line.floor)}${line.unit} ratio=${ratioText} target=${target} ${isMet(line) ? 'met' : 'missed'}`;
 }
 
 /** The honest line for an operation that could not run. */

@@ -5,11 +5,11 @@
  * Two lines: throughput ratio (requests/s) and the endpoint's p99 latency against 50 ms.
  */
 import { spawn } from 'node:child_process';
-import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { ROOT } from '../lib/app';
 import { staticPath, type BenchContext } from '../lib/context';
 import { median, type BenchLine } from '../lib/measure';
+import { bearer, checkTwin, EVALUATION_TWIN } from '../lib/static-twins';
 
 const CONNECTIONS = 50;
 const SECONDS = 10;
@@ -42,12 +42,12 @@ function autocannon(url: string, seconds: number, headers: Record<string, string
 
 export async function benchEvaluationLoad(ctx: BenchContext): Promise<BenchLine[]> {
 	const apiUrl = `${ctx.app.url}/api/v1/lots/${ctx.sampleLotId}/evaluation`;
-	const auth = { authorization: `Bearer ${ctx.token}` };
+	const auth = bearer(ctx.token);
 	const response = await fetch(apiUrl, { headers: auth });
 	const body = await response.text();
 	if (response.status !== 200) throw new Error(`GET evaluation answered ${response.status}: ${body.slice(0, 200)}`);
-	const asset = staticPath(ctx, 'bench-evaluation-static.json');
-	writeFileSync(asset.file, body);
+	const asset = staticPath(ctx, EVALUATION_TWIN);
+	await checkTwin(asset.url, Buffer.byteLength(body));
 
 	await autocannon(apiUrl, 2, auth); // warm-up
 	await autocannon(asset.url, 2);
@@ -60,8 +60,8 @@ export async function benchEvaluationLoad(ctx: BenchContext): Promise<BenchLine[
 			else floor.push(await autocannon(asset.url, SECONDS));
 		}
 	}
-	const failed = api.reduce((n, a) => n + a.non2xx + a.errors, 0);
-	if (failed > 0) throw new Error(`${failed} requests to the evaluation endpoint failed under load`);
+	const failed = [...api, ...floor].reduce((n, a) => n + a.non2xx + a.errors, 0);
+	if (failed > 0) throw new Error(`${failed} requests failed or were not 2xx under load`);
 	const rps = median(api.map((a) => a.requestsPerSecond));
 	const floorRps = median(floor.map((a) => a.requestsPerSecond));
 	return [

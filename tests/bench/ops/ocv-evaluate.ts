@@ -1,20 +1,18 @@
 /**
  * (2) POST /api/v1/ocv/evaluate with 10,000 readings, end to end (send, validate, invert, serialise,
- * receive) vs. the same server answering a static file of the same response size.
+ * receive) vs. the same server answering a static file with the same response bytes.
  */
-import { writeFileSync } from 'node:fs';
-import { syntheticReadings } from '../lib/data';
 import { staticPath, type BenchContext } from '../lib/context';
 import { interleaved, timeMs, type BenchLine } from '../lib/measure';
+import { bearer, checkTwin, evaluateBody, EVALUATE_TWIN } from '../lib/static-twins';
 
 export async function benchOcvEvaluate(ctx: BenchContext): Promise<BenchLine> {
-	const readings = syntheticReadings(10_000, 2).map(({ ocv_v, temperature_c }) => ({ ocv_v, temperature_c }));
-	const body = JSON.stringify({ chemistry: 'NMC', declared_soc: 0.3, readings });
+	const body = evaluateBody();
 	const call = async () => {
 		const response = await fetch(`${ctx.app.url}/api/v1/ocv/evaluate`, {
 			method: 'POST',
 			body,
-			headers: { authorization: `Bearer ${ctx.token}`, 'content-type': 'application/json' }
+			headers: { ...bearer(ctx.token), 'content-type': 'application/json' }
 		});
 		const text = await response.text();
 		if (response.status !== 200) throw new Error(`POST /api/v1/ocv/evaluate answered ${response.status}: ${text.slice(0, 200)}`);
@@ -22,12 +20,12 @@ export async function benchOcvEvaluate(ctx: BenchContext): Promise<BenchLine> {
 	};
 	const first = await call();
 	const results = (JSON.parse(first) as { results?: unknown[] }).results;
-	if (!Array.isArray(results) || results.length !== readings.length) throw new Error('the answer does not hold one result per reading');
+	if (!Array.isArray(results) || results.length !== 10_000) throw new Error('the answer does not hold one result per reading');
+	const twin = staticPath(ctx, EVALUATE_TWIN);
+	await checkTwin(twin.url, Buffer.byteLength(first));
 
-	const target = staticPath(ctx, 'bench-evaluate-static.json');
-	writeFileSync(target.file, first); // the same bytes, served by sirv
 	const fetchStatic = async () => {
-		const response = await fetch(target.url);
+		const response = await fetch(twin.url, { redirect: 'manual' });
 		await response.arrayBuffer();
 		if (response.status !== 200) throw new Error(`static file answered ${response.status}`);
 	};

@@ -91,9 +91,7 @@ describe('OcvStripChart', () => {
 	it('keeps the markup small for 10,000 units by drawing min–max strokes and only flagged units', () => {
 		const big = lot(10_000).map((u, i) => ({ ...u, outlier: i % 20 === 0, nonconforming: i === 5 }));
 		expect(big.length).toBeGreaterThan(DETAIL_LIMIT);
-		const started = performance.now();
 		const markup = draw({ units: big });
-		expect(performance.now() - started).toBeLessThan(2000);
 		expect(markup.length).toBeLessThan(150_000);
 		expect(dataMarkers(markup, 'dot')).toHaveLength(0);
 		expect(dataMarkers(markup).length).toBeLessThanOrEqual(FLAGGED_LIMIT + 1);

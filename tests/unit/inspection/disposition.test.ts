@@ -107,6 +107,19 @@ describe('decideLot reasons', () => {
 		input.lot.lithium_ion = false;
 		expect(decideLot(input).status).toBe('accept');
 	});
+	it("documents_missing follows the part's required documents when given", () => {
+		const input = base();
+		input.lot.documents = ['coc', 'un38_3_summary'];
+		input.lot.required_documents = ['coc', 'un38_3_summary', 'sds'];
+		const d = decideLot(input);
+		expect(d.status).toBe('hold');
+		expect(d.reasons[0]).toMatchObject({ code: 'documents_missing', message: 'Missing: safety data sheet.' });
+		// A lithium-metal coin cell is not lithium-ion, but its part can still require the UN 38.3 summary.
+		input.lot.lithium_ion = false;
+		input.lot.documents = ['coc'];
+		input.lot.required_documents = ['coc', 'un38_3_summary'];
+		expect(decideLot(input).reasons[0]).toMatchObject({ code: 'documents_missing', message: 'Missing: UN 38.3 test summary.' });
+	});
 	it('temperature_out_of_range -> hold', () => {
 		const d = decideLot(base(with_(6, { result: result({ flags: ['temperature_out_of_range'] }) })));
 		expect(d.status).toBe('hold');
@@ -170,15 +183,12 @@ describe('evaluateLot', () => {
 		expect(d.units[0].ocv_at_25c_v).toBe(input.units[0].result.ocv_at_25c_v);
 		expect(d.nonconforming_serials).toEqual(['RV-006']);
 	});
-	it('handles 10,000 units well under 50 ms', () => {
+	it('handles 10,000 units (speed is measured by npm run bench, not here)', () => {
 		const units = goodUnits(10_000);
 		const input = base(units);
 		input.plan = { ...input.plan, sample_size: 10_000, accept: 500, reject: 501 };
-		decideLot(input); // warm-up
-		const t0 = performance.now();
 		const d = decideLot(input);
-		const ms = performance.now() - t0;
 		expect(d.units).toHaveLength(10_000);
-		expect(ms).toBeLessThan(50);
+		expect(d.status).toBe('accept');
 	});
 });

@@ -23,6 +23,10 @@ export function mailFrom(): string {
 	return process.env.MAIL_FROM ?? 'Restvolt <no-reply@restvolt.local>';
 }
 
+/**
+ * Timeouts keep a dead relay from hanging a request or the outbox worker (whose lease is longer
+ * than these, so a lease never runs out while a send is still in flight).
+ */
 export function createTransport(smtpUrl?: string) {
-	return nodemailer.createTransport(smtpOptions(smtpUrl));
+	return nodemailer.createTransport({ ...smtpOptions(smtpUrl), connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 30_000 });
 }

@@ -7,8 +7,7 @@
 import { getDb } from '../db';
 import { renderInspectionReport } from '../reports';
 import { buildReportData } from '../services/report-data';
-import nodemailer from 'nodemailer';
-import { mailFrom, smtpOptions } from './transport';
+import { createTransport, mailFrom } from './transport';
 import {
 	claimDueNotices,
 	markAttemptFailed,
@@ -19,11 +18,7 @@ import {
 	type OutboxOptions
 } from './outbox';
 
-/** Timeouts well inside the lease, so a lease never runs out while a send is still in flight. */
-function noticeTransport() {
-	return nodemailer.createTransport({ ...smtpOptions(), connectionTimeout: 10_000, greetingTimeout: 10_000, socketTimeout: 30_000 });
-}
-type Transport = ReturnType<typeof noticeTransport>;
+type Transport = ReturnType<typeof createTransport>;
 
 async function reportAttachment(notice: ClaimedNotice) {
 	// The report as of the notice's own decision, even when the mail goes out after a later one.
@@ -57,7 +52,7 @@ async function deliver(transport: Transport, notice: ClaimedNotice, o: OutboxOpt
 export async function runOutboxOnce(o: OutboxOptions = outboxOptionsFromEnv()): Promise<number> {
 	const claimed = await claimDueNotices(getDb(), o);
 	if (claimed.length === 0) return 0;
-	const transport = noticeTransport();
+	const transport = createTransport();
 	try {
 		for (const notice of claimed) await deliver(transport, notice, o);
 	} finally {

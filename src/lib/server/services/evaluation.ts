@@ -133,7 +133,10 @@ export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<
 	if (!row) throw new EvaluationError('lot_not_found', 'lot not found');
 	const { lot, part } = row;
 	const model = resolveModel(part.chemistry, row.modelId, row.modelParameters);
-	const [documents, stored, state] = await Promise.all([documentKinds(db, lotId), loadReadings(db, lotId), severityFor(db, lot)]);
+	// One after another: inside a transaction these share a single connection.
+	const documents = await documentKinds(db, lotId);
+	const stored = await loadReadings(db, lotId);
+	const state = await severityFor(db, lot);
 	const level = part.inspectionLevel as InspectionLevel;
 	// Discontinued inspection has no plan of its own: the next plan on resumption is tightened (9.4).
 	const severity: Severity = state === 'discontinued' ? 'tightened' : state;
@@ -144,7 +147,8 @@ export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<
 		declared_soc: lot.declaredSoc,
 		transport: lot.transport,
 		lithium_ion: model.ocv.lithium_ion,
-		documents
+		documents,
+		required_documents: part.requiredDocuments as LotInfo['documents']
 	};
 	const limits = limitsOf(part);
 	const inputs: EvaluationInputs = {
@@ -179,7 +183,9 @@ export function computeEvaluation(inputs: EvaluationInputs, plan = planOf(inputs
 	const timed: TimedUnitReading[] = results.map((result, i) => ({ serial: r.serial[i], measured_at: r.measured_at[i], result }));
 	const { id: _id, lot_code: _code, status: _status, ...lot } = inputs.lot;
 	const disposition = evaluateLot({ lot, plan, severity: inputs.plan_request.severity, limits: inputs.limits, readings: timed, aql: inputs.part.aql });
-	const reasons: EvaluationReason[] = [...disposition.reasons];
+	// With no readings at all the core still reports the SOC rules as "indeterminate"; nothing was
+	// measured yet, so only "sample incomplete" applies (reported to the inspection core's owner).
+	const reasons: EvaluationReason[] = disposition.reasons.filter((x) => r.serial.length > 0 || x.code !== 'soc_indeterminate');
 	let status = disposition.status;
 	if (inputs.switching_state === 'discontinued') {
 		reasons.unshift({

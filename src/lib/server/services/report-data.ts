@@ -120,7 +120,7 @@ export async function buildReportData(db: Db, lotId: string, opts: { decisionId?
 	const final = FINAL[status];
 	if (decision?.kind === 'override' && final) {
 		const engineWord = result.status.toUpperCase();
-		reasons.unshift({ code: 'quality_decision', severity: 'info', message: `Quality decision by ${decision.by} (e-signed): ${decision.reason ?? ''} The engine's evaluation was ${engineWord}.` });
+		reasons.unshift({ code: 'quality_decision', severity: 'info', message: `Quality decision by ${decision.by} (e-signed): “${decision.reason ?? ''}”. The engine's evaluation was ${engineWord}.` });
 	}
 	const units = unitsOf(engine, new Map(acRows.map((r) => [r.id, r.ac])));
 	return {
@@ -179,7 +179,7 @@ export function tagDataFrom(report: ReportData): TagData | null {
 		quantity: report.lot.quantity,
 		reason,
 		safety: report.disposition.safety,
-		date: report.decision?.at ?? report.generated_at,
+		date: `${(report.decision?.at ?? report.generated_at).slice(0, 16).replace('T', ' ')} UTC`,
 		url: `${appOrigin()}/lots/${report.lot.id}`
 	};
 }

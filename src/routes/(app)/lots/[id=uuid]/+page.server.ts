@@ -79,10 +79,10 @@ export const actions: Actions = {
 			await markAwaitingArrival(getDb(), locals.user!, params.id);
 		} catch (e) {
 			const message = conflictMessage(e);
-			if (message) return fail(409, { action: 'release', message });
+			if (message) return fail(409, { action: 'release', ok: false, message });
 			throw e;
 		}
-		return { action: 'release', message: 'Released: receiving now expects this lot.' };
+		return { action: 'release', ok: true, message: 'Released: receiving now expects this lot.' };
 	},
 	cancel: async ({ locals, params, request }) => {
 		if (!can(locals.user, 'lot:cancel')) error(403, 'Only buyers cancel lots');
@@ -92,29 +92,29 @@ export const actions: Actions = {
 			await cancelLot(getDb(), locals.user!, params.id, reason || undefined);
 		} catch (e) {
 			const message = conflictMessage(e);
-			if (message) return fail(409, { action: 'cancel', message });
+			if (message) return fail(409, { action: 'cancel', ok: false, message });
 			throw e;
 		}
-		return { action: 'cancel', message: 'The lot is cancelled.' };
+		return { action: 'cancel', ok: true, message: 'The lot is cancelled.' };
 	},
 	upload: async ({ locals, params, request }) => {
 		if (!can(locals.user, 'document:upload')) error(403, 'Only buyers attach documents');
 		const lot = await lotOr404(locals, params.id);
-		if (lot.status === 'cancelled') return fail(409, { action: 'upload', message: 'The lot is cancelled; documents can no longer be added.' });
+		if (lot.status === 'cancelled') return fail(409, { action: 'upload', ok: false, message: 'The lot is cancelled; documents can no longer be added.' });
 		const form = await request.formData();
 		const kind = documentKindSchema.safeParse(form.get('kind'));
 		const file = form.get('file');
-		if (!kind.success) return fail(400, { action: 'upload', message: 'Choose what kind of document this is.' });
-		if (!(file instanceof File) || file.size === 0) return fail(400, { action: 'upload', message: 'Choose a file to attach.' });
+		if (!kind.success) return fail(400, { action: 'upload', ok: false, message: 'Choose what kind of document this is.' });
+		if (!(file instanceof File) || file.size === 0) return fail(400, { action: 'upload', ok: false, message: 'Choose a file to attach.' });
 		try {
 			const doc = await uploadDocument(getDb(), locals.user!, lot.id, {
 				kind: kind.data,
 				fileName: file.name,
 				bytes: new Uint8Array(await file.arrayBuffer())
 			});
-			return { action: 'upload', message: `Attached “${doc.fileName}”.` };
+			return { action: 'upload', ok: true, message: `Attached “${doc.fileName}”.` };
 		} catch (e) {
-			if (e instanceof DocumentRejected) return fail(e.status, { action: 'upload', message: e.message });
+			if (e instanceof DocumentRejected) return fail(e.status, { action: 'upload', ok: false, message: e.message });
 			throw e;
 		}
 	}

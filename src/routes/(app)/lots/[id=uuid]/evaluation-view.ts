@@ -38,7 +38,7 @@ export const SEVERITY_WORD = { normal: 'Normal', tightened: 'Tightened', reduced
 export const REASON_LOOK = {
 	reject: { word: 'Reject', shape: '■', tone: 'text-status-reject' },
 	hold: { word: 'Hold', shape: '▲', tone: 'text-status-hold' },
-	info: { word: 'Note', shape: 'ⓘ', tone: 'text-status-info' }
+	info: { word: 'Note', shape: '◇', tone: 'text-status-info' }
 } as const;
 
 /** Voltage to 0.1 mV for cells (instrument resolution), as the design notes ask. */

@@ -48,7 +48,8 @@ export const actions: Actions = {
 			for (const issue of e.issues) setError(form, issue.path as 'part_number', issue.message);
 			return fail(400, { descriptiveForm: form });
 		}
-		return { descriptiveForm: message(form, 'Part details saved.') };
+		message(form, 'Part details saved.');
+		return { descriptiveForm: form };
 	},
 	limits: async (event) => {
 		if (!can(event.locals.user, 'part:limits')) error(403, 'Only quality edits limits and sampling');
@@ -62,6 +63,7 @@ export const actions: Actions = {
 			for (const issue of e.issues) setError(form, issue.path as 'model_id', issue.message);
 			return fail(400, { limitsForm: form });
 		}
-		return { limitsForm: message(form, 'Limits and sampling saved.') };
+		message(form, 'Limits and sampling saved.');
+		return { limitsForm: form };
 	}
 };

@@ -24,10 +24,10 @@ export interface RowFeedback {
 }
 
 const FLAG_WORDS: Record<string, { word: string; shape: string; tone: FeedbackTone }> = {
-	deep_discharge: { word: 'deep discharge — quarantine', shape: '■', tone: 'danger' },
+	deep_discharge: { word: 'deep discharge', shape: '■', tone: 'danger' },
 	over_voltage: { word: 'over voltage', shape: '■', tone: 'danger' },
-	soc_indeterminate: { word: 'SOC indeterminate (flat OCV)', shape: '◇', tone: 'info' },
-	temperature_out_of_range: { word: 'temperature out of range', shape: '▲', tone: 'warn' },
+	soc_indeterminate: { word: 'SOC indeterminate', shape: '◇', tone: 'info' },
+	temperature_out_of_range: { word: 'temp. out of range', shape: '▲', tone: 'warn' },
 	below_window: { word: 'below model range', shape: '▲', tone: 'warn' },
 	above_window: { word: 'above model range', shape: '▲', tone: 'warn' }
 };
@@ -50,15 +50,19 @@ export function feedbackFor(ctx: BenchContext, ocvV: number, temperatureC: numbe
 		return null;
 	}
 	const findings = r.flags.filter((f) => f !== 'below_window' && f !== 'above_window').map((f) => FLAG_WORDS[f]);
-	if (r.ocv_at_25c_v < ctx.limits.ocv_min_v || r.ocv_at_25c_v > ctx.limits.ocv_max_v) findings.push({ word: 'outside part window', shape: '▲', tone: 'warn' });
+	if (r.ocv_at_25c_v < ctx.limits.ocv_min_v || r.ocv_at_25c_v > ctx.limits.ocv_max_v) findings.push({ word: 'outside window', shape: '▲', tone: 'warn' });
 	if (r.residual_v !== null && Math.abs(r.residual_v) > ctx.limits.residual_tolerance_v && r.determinate) {
 		findings.push({ word: 'far from declared SOC', shape: '▲', tone: 'warn' });
 	}
 	if (findings.length === 0) findings.push({ word: 'in window', shape: '●', tone: 'ok' });
 	return {
-		socText: r.determinate
+		socText: r.flags.includes('below_window')
+			? 'below range'
+			: r.flags.includes('above_window')
+				? 'above range'
+				: r.determinate
 			? `${(r.soc * 100).toFixed(0)} % ± ${(r.soc_sigma * 100).toFixed(0)}`
-			: `indeterminate (${(r.soc_low * 100).toFixed(0)}–${(r.soc_high * 100).toFixed(0)} %)`,
+			: `indeterminate ${(r.soc_low * 100).toFixed(0)}–${(r.soc_high * 100).toFixed(0)} %`,
 		expectedText: r.expected_ocv_v === null ? '—' : `${(r.expected_ocv_v * ctx.cellsInSeries).toFixed(ctx.cellsInSeries > 1 ? 2 : 3)} V`,
 		residualText: r.residual_v === null ? '—' : `${r.residual_v >= 0 ? '+' : '−'}${Math.abs(r.residual_v * 1000).toFixed(1)} mV`,
 		findings,

@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
-import { importMappingSchema } from '$lib/schemas/readings';
+import { importMappingSchema, MAX_IMPORT_BYTES } from '$lib/schemas/readings';
 import { getDb } from '$lib/server/db';
-import { api, authorize, badRequest, notFound, parseWith, unprocessable } from '$lib/server/http';
+import { api, ApiError, authorize, badRequest, notFound, parseWith, unprocessable } from '$lib/server/http';
 import { commitImport, previewImport, type MeterFile } from '$lib/server/services/imports';
 import { getLotForUser } from '$lib/server/services/lots';
 import type { RequestHandler } from './$types';
@@ -43,6 +43,10 @@ export const POST: RequestHandler = api(async (event) => {
 	const db = getDb();
 	const lot = await getLotForUser(db, user, event.params.id);
 	if (!lot) throw notFound('lot');
+	// Refuse an oversized upload before reading it (multipart framing adds a little).
+	if (Number(event.request.headers.get('content-length') ?? 0) > MAX_IMPORT_BYTES + 64 * 1024) {
+		throw new ApiError(413, 'file_too_large', `Meter files are limited to ${MAX_IMPORT_BYTES / 1024 / 1024} MB`);
+	}
 	const form = await readForm(event.request);
 	const file = await fileOf(form);
 	const mapping = mappingOf(form);
