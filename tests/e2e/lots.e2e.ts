@@ -34,9 +34,9 @@ async function attach(page: Page, kind: string, name: string, bytes: Buffer) {
 
 test('a buyer registers a lot with documents and releases it', async ({ page }) => {
 	await signInPage(page, app.url, 'buyer@kestrel-mobility.example');
-	await page.goto(`${app.url}/lots`);
-	await expect(page.getByText('No lots registered yet.')).toBeVisible();
-	await shot(page, 'lots-empty');
+	await page.goto(`${app.url}/lots?search=no-such-po`);
+	await expect(page.getByText('No lots match these filters.')).toBeVisible();
+	await shot(page, 'lots-none-match');
 
 	await page.getByRole('link', { name: 'Register a lot' }).first().click();
 	await expect(page.getByRole('heading', { name: 'Register a lot' })).toBeVisible();
@@ -121,14 +121,16 @@ test('the lot list pages through many lots and filters by status', async ({ page
 	await expect(table.locator('tbody tr')).toHaveCount(25);
 	await page.getByRole('link', { name: 'Older lots →' }).click();
 	await expect(page.getByText('Page 2 · newest first')).toBeVisible();
-	await expect(table.locator('tbody tr')).toHaveCount(total - 25);
+	await expect(table.locator('tbody tr')).toHaveCount(Math.min(25, total - 25));
 	await page.getByRole('link', { name: '← Newer lots' }).click();
 	await expect(page.getByText('Page 1 · newest first')).toBeVisible();
 
 	await page.getByRole('combobox', { name: 'Status' }).selectOption({ label: 'Cancelled' });
 	await page.getByRole('button', { name: 'Show lots' }).click();
-	await expect(table.locator('tbody tr')).toHaveCount(10);
-	await expect(table.locator('[data-status="cancelled"]')).toHaveCount(10);
+	const cancelled = await withClient(db.url, async (c) => Number((await c.query(`select count(*) from lots where status = 'cancelled'`)).rows[0].count));
+	expect(cancelled).toBeGreaterThanOrEqual(10);
+	await expect(table.locator('tbody tr')).toHaveCount(Math.min(25, cancelled));
+	await expect(table.locator('[data-status="cancelled"]')).toHaveCount(Math.min(25, cancelled));
 	await page.getByLabel('Quick filter on this page').fill('PO-LEAD-3');
 	await expect(table.locator('tbody tr')).toHaveCount(2); // PO-LEAD-3 and PO-LEAD-30
 	await page.locator('summary', { hasText: 'Columns' }).click();

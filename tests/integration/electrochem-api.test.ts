@@ -241,13 +241,7 @@ describe('POST /api/v1/ocv/evaluate', () => {
 	it('evaluates 10,000 readings in one call', async () => {
 		const readings = Array.from({ length: 10_000 }, (_, i) => ({ ocv_v: 3.3 + (i % 900) / 1000, temperature_c: 15 + (i % 20) }));
 		const body = { chemistry: 'NMC', declared_soc: 0.3, readings };
-		await post('inspector', '/api/v1/ocv/evaluate', body); // warm-up
-		const times: number[] = [];
-		let last: Reply | null = null;
-		for (let k = 0; k < 5; k++) {
-			last = await post('inspector', '/api/v1/ocv/evaluate', body);
-			times.push(last.ms);
-		}
+		const last: Reply | null = await post('inspector', '/api/v1/ocv/evaluate', body);
 		expect(last!.status).toBe(200);
 		expect(last!.body.results).toHaveLength(10_000);
 		const socs = last!.body.results.map((r: { soc: number }) => r.soc);
@@ -255,9 +249,7 @@ describe('POST /api/v1/ocv/evaluate', () => {
 		expect(Math.max(...socs)).toBeLessThanOrEqual(1);
 		// same reading, same answer, wherever it sits in the array
 		expect(last!.body.results[9_000]).toEqual(last!.body.results[0]);
-		times.sort((a, b) => a - b);
-		console.log(`[electrochem-api] evaluate 10,000 readings: median ${times[2].toFixed(1)} ms, ${(last!.bytes / 1e6).toFixed(2)} MB response`);
-		expect(times[2]).toBeLessThan(2_000); // generous bound for a shared test machine; the bench measures the real ratio
+		// Its speed is measured by npm run bench (ratio against a static file), not asserted here.
 	});
 
 	it('answers 413 for more than 10,000 readings, naming the limit', async () => {
