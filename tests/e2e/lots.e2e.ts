@@ -94,8 +94,9 @@ test('a buyer registers a lot with documents and releases it', async ({ page }) 
 	await shot(page, 'lot-released');
 
 	await page.goto(`${app.url}/lots`);
-	await expect(page.getByRole('table', { name: 'Lots' }).getByText('PO-2026-0417')).toBeVisible();
-	await expect(page.getByRole('table', { name: 'Lots' }).locator('[data-status="awaiting_arrival"]')).toHaveText('Awaiting arrival');
+	const row = page.getByRole('table', { name: 'Lots' }).getByRole('row').filter({ hasText: 'PO-2026-0417' });
+	await expect(row).toHaveCount(1);
+	await expect(row.locator('[data-status]')).toHaveText('Awaiting arrival');
 	await shot(page, 'lots-list');
 
 	const rows = await withClient(db.url, (c) => c.query(`select status, declared_soc, un_number from lots where po_number = 'PO-2026-0417'`));

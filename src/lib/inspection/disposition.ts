@@ -1,6 +1,6 @@
 // Lot disposition: count nonconforming units against the active plan and collect reasons.
 // Precedence: reject beats pending beats hold beats accept. Deterministic: same input, same output.
-import { lotStatistics, robustOutliers, selfDischargeMvPerDay, spreadCheck, median, type LotStatistics } from './statistics';
+import { lotStatistics, robustCentre, robustOutliers, selfDischargeOfParsed, spreadCheck, median, type LotStatistics } from './statistics';
 import { variablesCheck, type VariablesCheck } from './variables';
 import type { SamplingPlan, Severity, UnitResult } from './types';
 
@@ -216,7 +216,9 @@ function statusOf(reasons: readonly Reason[], incomplete: boolean): Disposition[
 export function decideLot(input: DispositionInput): Disposition {
 	const { lot, plan, limits } = input;
 	const ocv = input.units.map((u) => u.result.ocv_at_25c_v);
-	const outlierIdx = new Set(robustOutliers(ocv, limits.outlier_k, input.ocv_resolution_v ?? 0.0005));
+	// One median/MAD for both the outlier rule and the statistics block (each would otherwise sort twice).
+	const centre = ocv.length > 0 ? robustCentre(ocv) : undefined;
+	const outlierIdx = new Set(robustOutliers(ocv, limits.outlier_k, input.ocv_resolution_v ?? 0.0005, centre));
 	const units: UnitDisposition[] = input.units.map((u, i) => {
 		const flags = unitFlags(u, limits, outlierIdx.has(i));
 		return {
@@ -303,7 +305,7 @@ export function decideLot(input: DispositionInput): Disposition {
 		reasons,
 		nonconforming: ncSerials.length,
 		nonconforming_serials: ncSerials,
-		stats: lotStatistics(ocv),
+		stats: lotStatistics(ocv, centre),
 		variables,
 		units
 	};
@@ -333,12 +335,17 @@ export function evaluateLot(input: EvaluateLotInput): Disposition {
 		else bySerial.set(r.serial, [r]);
 	}
 	const units: UnitInput[] = [];
-	for (const [serial, list] of bySerial) {
-		let latest = list[0];
-		for (const r of list) if (Date.parse(r.measured_at) > Date.parse(latest.measured_at)) latest = r;
-		const sd = selfDischargeMvPerDay(list.map((r) => ({ measured_at: r.measured_at, ocv_v: r.result.ocv_at_25c_v })));
-		units.push({ serial, result: latest.result, self_discharge_mv_per_day: sd });
-	}
+	for (const [serial, list] of bySerial) units.push(unitOf(serial, list));
 	const { readings: _readings, ...rest } = input;
 	return decideLot({ ...rest, units });
+}
+
+/** A unit read once needs no dates (no self-discharge pair); otherwise each timestamp is parsed once. */
+function unitOf(serial: string, list: readonly TimedUnitReading[]): UnitInput {
+	if (list.length === 1) return { serial, result: list[0].result, self_discharge_mv_per_day: null };
+	const times = list.map((r) => Date.parse(r.measured_at));
+	let latest = 0;
+	for (let i = 1; i < list.length; i++) if (times[i] > times[latest]) latest = i;
+	const sd = selfDischargeOfParsed(times, list.map((r) => r.result.ocv_at_25c_v));
+	return { serial, result: list[latest].result, self_discharge_mv_per_day: sd };
 }

@@ -19,6 +19,9 @@ export {
 	robustOutliers,
 	spreadCheck,
 	selfDischargeMvPerDay,
+	selfDischargeOfParsed,
+	robustCentre,
+	type RobustCentre,
 	MAD_TO_SIGMA,
 	type LotStatistics,
 	type TimedVoltage

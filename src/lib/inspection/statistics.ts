@@ -31,7 +31,19 @@ export function medianAbsoluteDeviation(values: readonly number[], center = medi
 	return medianOfSorted(Float64Array.from(values, (v) => Math.abs(v - center)).sort());
 }
 
-export function lotStatistics(values: readonly number[]): LotStatistics {
+/** Median and raw MAD of a list, computed once so callers can share them (two sorts in all). */
+export interface RobustCentre {
+	median: number;
+	mad: number;
+}
+
+export function robustCentre(values: readonly number[]): RobustCentre {
+	const med = median(values);
+	return { median: med, mad: medianAbsoluteDeviation(values, med) };
+}
+
+/** `centre` (from robustCentre of the same values) saves re-sorting when the caller already has it. */
+export function lotStatistics(values: readonly number[], centre?: RobustCentre): LotStatistics {
 	const n = values.length;
 	if (n === 0) return { count: 0, mean: null, sd: null, median: null, mad: null, min: null, max: null, range: null };
 	let sum = 0;
@@ -45,13 +57,13 @@ export function lotStatistics(values: readonly number[]): LotStatistics {
 	const mean = sum / n;
 	let squares = 0;
 	for (const v of values) squares += (v - mean) * (v - mean); // two-pass: stable for OCV-sized numbers
-	const med = median(values);
+	const { median: med, mad } = centre ?? robustCentre(values);
 	return {
 		count: n,
 		mean,
 		sd: n >= 2 ? Math.sqrt(squares / (n - 1)) : null,
 		median: med,
-		mad: medianAbsoluteDeviation(values, med),
+		mad,
 		min,
 		max,
 		range: max - min
@@ -67,10 +79,10 @@ export const MAD_TO_SIGMA = 1.4826;
  * resolution, e.g. 0.5 mV) is the smallest spread we trust, so values within k·minScale of the
  * median are not flagged. With minScale 0 and MAD 0 any value different from the median is flagged.
  */
-export function robustOutliers(values: readonly number[], k = 4, minScale = 0): number[] {
+export function robustOutliers(values: readonly number[], k = 4, minScale = 0, centre?: RobustCentre): number[] {
 	if (values.length < 3) return [];
-	const med = median(values);
-	const scale = Math.max(MAD_TO_SIGMA * medianAbsoluteDeviation(values, med), minScale);
+	const { median: med, mad } = centre ?? robustCentre(values);
+	const scale = Math.max(MAD_TO_SIGMA * mad, minScale);
 	const limit = k * scale;
 	const out: number[] = [];
 	values.forEach((v, i) => {
@@ -105,14 +117,22 @@ const DAY_MS = 86_400_000;
  * 24 h apart; positive = voltage drop. Null when there is no such pair or a timestamp is unreadable.
  */
 export function selfDischargeMvPerDay(readings: readonly TimedVoltage[]): number | null {
-	let first: { t: number; v: number } | null = null;
-	let last: { t: number; v: number } | null = null;
-	for (const r of readings) {
-		const t = Date.parse(r.measured_at);
+	return selfDischargeOfParsed(
+		readings.map((r) => Date.parse(r.measured_at)),
+		readings.map((r) => r.ocv_v)
+	);
+}
+
+/** selfDischargeMvPerDay for timestamps already parsed to epoch ms (NaN = unreadable); same rules. */
+export function selfDischargeOfParsed(times: readonly number[], volts: readonly number[]): number | null {
+	let first = -1;
+	let last = -1;
+	for (let i = 0; i < times.length; i++) {
+		const t = times[i];
 		if (!Number.isFinite(t)) return null;
-		if (!first || t < first.t) first = { t, v: r.ocv_v };
-		if (!last || t > last.t) last = { t, v: r.ocv_v };
+		if (first < 0 || t < times[first]) first = i;
+		if (last < 0 || t > times[last]) last = i;
 	}
-	if (!first || !last || last.t - first.t < DAY_MS) return null;
-	return ((first.v - last.v) * 1000) / ((last.t - first.t) / DAY_MS);
+	if (first < 0 || times[last] - times[first] < DAY_MS) return null;
+	return ((volts[first] - volts[last]) * 1000) / ((times[last] - times[first]) / DAY_MS);
 }
