@@ -22,13 +22,15 @@ const pg = await ensurePostgres({ dataDir: join(scratch, 'pg'), preferredPort: a
 const smtpPort = await freePort();
 const httpPort = await freePort();
 const peer = await startMailPeer({ smtpPort, httpPort, dir: join(scratch, 'mail') });
-const templateUrl = await ensureDatabase(pg.url, 'restvolt_template');
-await migrateDatabase(templateUrl, root);
-const code = await runInherit('npx', ['tsx', 'seed/index.ts'], { cwd: root, env: { ...process.env, DATABASE_URL: templateUrl } });
-if (code !== 0) console.error('[dev-services] seeding failed');
+for (const [name, seedLots] of [['restvolt_template', 'on'], ['restvolt_base', 'off']]) {
+	const url = await ensureDatabase(pg.url, name);
+	await migrateDatabase(url, root);
+	const code = await runInherit('npx', ['tsx', 'seed/index.ts'], { cwd: root, env: { ...process.env, DATABASE_URL: url, SEED_LOTS: seedLots } });
+	if (code !== 0) console.error(`[dev-services] seeding ${name} failed`);
+}
 const dbUrl = await ensureDatabase(pg.url, 'restvolt_test', 'restvolt_template');
 const vars = {
-	TEST_PG_URL: pg.url, TEST_PG_BIN: pg.bin, TEST_PG_DATA: pg.dataDir, TEST_TEMPLATE_DB: 'restvolt_template',
+	TEST_PG_URL: pg.url, TEST_PG_BIN: pg.bin, TEST_PG_DATA: pg.dataDir, TEST_TEMPLATE_DB: 'restvolt_template', TEST_BASE_DB: 'restvolt_base',
 	TEST_SMTP_PORT: smtpPort, TEST_MAIL_HTTP_URL: `http://127.0.0.1:${httpPort}`, TEST_SCRATCH: scratch, DATABASE_URL: dbUrl
 };
 mkdirSync(dirname(envFile), { recursive: true });

@@ -30,12 +30,19 @@ const smtpPort = await freePort();
 const mailHttpPort = await freePort();
 const peer = await startMailPeer({ smtpPort, httpPort: mailHttpPort, dir: join(scratch, 'mail') });
 
+/** Two templates: the full demo scenario, and its people, models and parts without any lots. */
+async function prepareTemplates(serverUrl) {
+	for (const [name, seedLots] of [['restvolt_template', 'on'], ['restvolt_base', 'off']]) {
+		const url = await ensureDatabase(serverUrl, name);
+		await migrateDatabase(url, root);
+		const code = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...process.env, DATABASE_URL: url, SEED_LOTS: seedLots } });
+		if (code !== 0) throw new Error(`seeding the ${name} database failed`);
+	}
+}
+
 const failures = [];
 try {
-	const templateUrl = await ensureDatabase(pg.url, 'restvolt_template');
-	await migrateDatabase(templateUrl, root);
-	const seedCode = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...process.env, DATABASE_URL: templateUrl } });
-	if (seedCode !== 0) throw new Error('seeding the template database failed');
+	await prepareTemplates(pg.url);
 	if (wants('e2e') || wants('integration')) await ensureBuild(root);
 
 	const env = {
@@ -44,6 +51,7 @@ try {
 		TEST_PG_BIN: pg.bin,
 		TEST_PG_DATA: pg.dataDir,
 		TEST_TEMPLATE_DB: 'restvolt_template',
+		TEST_BASE_DB: 'restvolt_base',
 		TEST_SMTP_PORT: String(smtpPort),
 		TEST_MAIL_HTTP_URL: `http://127.0.0.1:${mailHttpPort}`,
 		TEST_SCRATCH: scratch,

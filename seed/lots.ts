@@ -46,7 +46,16 @@ async function attachDocuments(db: Database, buyer: SessionUser, lotId: string, 
 
 /** Move the lot's dates back so the demo has a history (switching rules, scorecard trends). */
 async function backdate(db: Database, lotId: string, when: Date) {
-	await db.update(lots).set({ createdAt: when, updatedAt: when, decidedAt: sql`case when ${lots.decidedAt} is null then null else ${new Date(when.getTime() + DAY)}::timestamptz end` }).where(eq(lots.id, lotId));
+	const later = (days: number) => sql`${new Date(when.getTime() + days * DAY)}::timestamptz`;
+	await db
+		.update(lots)
+		.set({
+			createdAt: when,
+			updatedAt: when,
+			receivedAt: sql`case when ${lots.receivedAt} is null then null else ${later(0.5)} end`,
+			decidedAt: sql`case when ${lots.decidedAt} is null then null else ${later(1)} end`
+		})
+		.where(eq(lots.id, lotId));
 	await db.update(decisions).set({ decidedAt: new Date(when.getTime() + DAY) }).where(eq(decisions.lotId, lotId));
 	await db.update(evaluations).set({ createdAt: new Date(when.getTime() + DAY) }).where(eq(evaluations.lotId, lotId));
 }

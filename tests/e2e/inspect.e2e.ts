@@ -17,7 +17,7 @@ let buyer: Caller;
 const shot = screens('inspect');
 
 test.beforeAll(async () => {
-	db = await freshDatabase('e2e_inspect');
+	db = await freshDatabase('e2e_inspect', { demo: false });
 	app = await startApp({ databaseUrl: db.url });
 	buyer = { base: app.url, token: await tokenFor(db.url, 'buyer@kestrel-mobility.example') };
 });
@@ -38,7 +38,7 @@ async function typeRow(page: Page, r: { serial: string; ocv_v: number; temperatu
 
 test('keyboard entry, live feedback, retry after a network error, meter import and submit', async ({ page }) => {
 	// 5 units → MIL-STD-105E Table I letter A; at AQL 1.0 the plan is every unit (n 5, Ac 0, Re 1).
-	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary'] });
+	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary', 'sds'] });
 	const rows = modelReadings('NMC', 5, 0.3, { prefix: 'VC50G' });
 
 	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
@@ -111,7 +111,7 @@ test('keyboard entry, live feedback, retry after a network error, meter import a
 });
 
 test('a deep-discharged unit gets the quarantine caution at once, and the server rejects', async ({ page }) => {
-	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary'] });
+	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary', 'sds'] });
 	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
 	await page.goto(`${app.url}/lots/${lot.id}/inspect`);
 	await expect(page.getByLabel('Serial')).toBeFocused();

@@ -161,6 +161,15 @@ test('quality edits a part’s limits; suppliers show contacts and severity', as
 	await expect(page.getByText('quality-desk@voltaria-cells.example')).toBeVisible();
 	await expect(page.getByRole('table').getByText('Normal').first()).toBeVisible();
 	await shot(page, 'supplier-detail');
+
+	// A decided lot from the seeded scenario: the lot page carries the evaluation and decision panels.
+	await page.goto(`${app.url}/lots?status=on_hold`);
+	await page.getByRole('table', { name: 'Lots' }).getByRole('link').first().click();
+	await expect(page.locator('h1 + [data-status]')).toHaveText('On hold');
+	await expect(page.getByRole('heading', { name: 'Sampling plan' })).toBeVisible();
+	await expect(page.getByRole('button', { name: 'Release for arrival' })).toHaveCount(0);
+	await page.waitForLoadState('networkidle');
+	await shot(page, 'lot-on-hold');
 });
 
 test('a buyer adds a supplier contact who receives notices', async ({ page }) => {

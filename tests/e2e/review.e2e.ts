@@ -24,7 +24,7 @@ let other: { id: string; lot_code: string };
 let ferrolithLot: { id: string; lot_code: string };
 
 test.beforeAll(async () => {
-	db = await freshDatabase('e2e_review');
+	db = await freshDatabase('e2e_review', { demo: false });
 	app = await startApp({ databaseUrl: db.url });
 	const as = async (email: string): Promise<Caller> => ({ base: app.url, token: await tokenFor(db.url, email) });
 	const buyer = await as('buyer@kestrel-mobility.example');

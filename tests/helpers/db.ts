@@ -1,13 +1,19 @@
 /**
- * Each test file gets its own database, copied from the migrated and seeded template, so files
- * cannot disturb each other and every file starts from the demo scenario.
+ * Each test file gets its own database, copied from a migrated and seeded template, so files
+ * cannot disturb each other. By default it holds the whole demo scenario (thirty lots with their
+ * history); `{ demo: false }` gives the same people, models and parts without any lots, for tests
+ * whose expectations depend on a supplier × part having no lot history (e.g. normal inspection).
  */
 import pg from 'pg';
 import { randomBytes } from 'node:crypto';
 import { testEnv } from './env';
 
-export async function freshDatabase(label = 'db'): Promise<{ url: string; name: string; drop: () => Promise<void> }> {
-	const { pgUrl, templateDb } = testEnv();
+export async function freshDatabase(
+	label = 'db',
+	{ demo = true }: { demo?: boolean } = {}
+): Promise<{ url: string; name: string; drop: () => Promise<void> }> {
+	const { pgUrl, templateDb: demoDb, baseDb } = testEnv();
+	const templateDb = demo ? demoDb : baseDb;
 	const name = `t_${label.replace(/\W/g, '_').slice(0, 30)}_${randomBytes(4).toString('hex')}`;
 	await admin(`create database "${name}" template "${templateDb}"`);
 	return {

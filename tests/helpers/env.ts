@@ -10,6 +10,7 @@ export function testEnv() {
 		pgBin: need('TEST_PG_BIN'),
 		pgData: need('TEST_PG_DATA'),
 		templateDb: need('TEST_TEMPLATE_DB'),
+		baseDb: process.env.TEST_BASE_DB ?? 'restvolt_base',
 		smtpPort: Number(need('TEST_SMTP_PORT')),
 		mailHttpUrl: need('TEST_MAIL_HTTP_URL'),
 		scratch: need('TEST_SCRATCH')

@@ -18,7 +18,7 @@ let buyer: Caller, inspector: Caller, quality: Caller, voltaria: Caller, ferroli
 let qualityCookie: string;
 
 beforeAll(async () => {
-	db = await freshDatabase('decisions');
+	db = await freshDatabase('decisions', { demo: false });
 	app = await startApp({ databaseUrl: db.url });
 	const as = async (email: string) => ({ base: app.url, token: await tokenFor(db.url, email) });
 	[buyer, inspector, quality, voltaria, ferrolith] = await Promise.all([

@@ -49,7 +49,7 @@ async function expectEachDeliveredOnce(ids: string[], peerUrl: string) {
 }
 
 beforeAll(async () => {
-	db = await freshDatabase('outbox_faults');
+	db = await freshDatabase('outbox_faults', { demo: false });
 	[smtpPort, httpPort] = [await freePort(), await freePort()];
 	mailDir = join(testEnv().scratch, `outbox-faults-${Date.now()}`);
 }, 60_000);

@@ -9,7 +9,7 @@ import { tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient } from '../helpers/db';
 import { call, createLot, modelReadings, type Caller } from './readings-fixtures';
 
-const LI_DOCS = ['coc', 'un38_3_summary'] as const;
+const LI_DOCS = ['coc', 'un38_3_summary', 'sds'] as const; // the seeded lithium parts require all three
 let app: RunningApp;
 let db: Awaited<ReturnType<typeof freshDatabase>>;
 let inspector: Caller;
@@ -18,7 +18,7 @@ let voltariaSupplier: Caller;
 let ferrolithSupplier: Caller;
 
 beforeAll(async () => {
-	db = await freshDatabase('readings_api');
+	db = await freshDatabase('readings_api', { demo: false });
 	app = await startApp({ databaseUrl: db.url });
 	const as = async (email: string) => ({ base: app.url, token: await tokenFor(db.url, email) });
 	[inspector, buyer, voltariaSupplier, ferrolithSupplier] = await Promise.all([

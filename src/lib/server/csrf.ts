@@ -6,6 +6,7 @@
  * form actions included, is checked exactly as before.
  */
 import { json, text, type Handle } from '@sveltejs/kit';
+import { ApiError, errorResponse } from './http';
 
 const FORM_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
 const UNSAFE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
@@ -28,6 +29,8 @@ export const csrfGuard: Handle = async ({ event, resolve }) => {
 		!isBearerApiCall(request, url.pathname);
 	if (crossSite) {
 		const message = `Cross-site ${request.method} form submissions are forbidden`;
+		// The JSON API answers in its own error shape; pages keep SvelteKit's answer.
+		if (url.pathname.startsWith('/api/')) return errorResponse(new ApiError(403, 'cross_site', message));
 		return request.headers.get('accept') === 'application/json' ? json({ message }, { status: 403 }) : text(message, { status: 403 });
 	}
 	return resolve(event);

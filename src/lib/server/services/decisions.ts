@@ -12,6 +12,7 @@ import { can } from '../policy';
 import { recordAudit } from './audit';
 import { evaluateLotNow, type LotEvaluation } from './evaluation';
 import { queueNotice } from './notices';
+import { lockSamplingOfLot, refreshSamplingState } from './sampling-state';
 import { isThrottled, recordFailure, clearFailures } from './throttle';
 import type { FinalStatus } from '../mail/templates';
 import type { SessionUser } from '../../roles';
@@ -30,8 +31,12 @@ export interface DecisionOutcome {
 	evaluation: Omit<LotEvaluation, 'inputs'> | null;
 }
 
-/** Lock the lot row for the rest of the transaction; 404 when the user may not see it. */
+/**
+ * Lock the lot row for the rest of the transaction; 404 when the user may not see it. The part's
+ * switching-state lock comes first (the order every state writer keeps; see sampling-state.ts).
+ */
 async function lockLot(tx: Tx, user: SessionUser, lotId: string) {
+	await lockSamplingOfLot(tx, lotId);
 	const [lot] = await tx.select().from(lots).where(eq(lots.id, lotId)).for('update');
 	if (!lot || !can(user, 'lot:read', { supplierId: lot.supplierId })) throw notFound('lot');
 	return lot;
@@ -70,6 +75,7 @@ function evaluateOrExplain(evaluation: LotEvaluation): asserts evaluation is Lot
 async function applyAutomatic(
 	tx: Tx,
 	user: SessionUser,
+	lot: { supplierId: string; partId: string },
 	evaluation: LotEvaluation & { status: 'accept' | 'hold' | 'reject' },
 	from: LotStatus,
 	evaluationId: number,
@@ -85,6 +91,7 @@ async function applyAutomatic(
 		.insert(decisions)
 		.values({ lotId: evaluation.lot_id, evaluationId, kind: 'automatic', fromStatus: from, toStatus: status, reason, decidedBy: user.id })
 		.returning({ id: decisions.id });
+	await refreshSamplingState(tx, lot.supplierId, lot.partId);
 	const noticeId = await queueNotice(tx, {
 		lotId: evaluation.lot_id,
 		decisionId: decision.id,
@@ -117,7 +124,7 @@ export async function submitLot(user: SessionUser, lotId: string): Promise<Decis
 		const evaluation = await evaluateLotNow(tx, lotId);
 		evaluateOrExplain(evaluation);
 		const evaluationId = await storeEvaluation(tx, user, evaluation);
-		const applied = await applyAutomatic(tx, user, evaluation, lot.status, evaluationId, null);
+		const applied = await applyAutomatic(tx, user, lot, evaluation, lot.status, evaluationId, null);
 		return { lotId, previousStatus: lot.status, evaluationId, ...applied, evaluation: withoutInputs(evaluation) };
 	});
 }
@@ -138,7 +145,7 @@ export async function reevaluateLot(user: SessionUser, lotId: string): Promise<D
 			await recordAudit(tx, { actorId: user.id, actorEmail: user.email, action: 'lot.reevaluated', entityType: 'lot', entityId: lotId, lotId, details: { evaluationId, result: 'hold' } });
 			return { lotId, previousStatus: lot.status, status: 'on_hold', evaluationId, decisionId: null, noticeId: null, evaluation: withoutInputs(evaluation) };
 		}
-		const applied = await applyAutomatic(tx, user, evaluation, lot.status, evaluationId, 'Re-evaluated after corrected readings');
+		const applied = await applyAutomatic(tx, user, lot, evaluation, lot.status, evaluationId, 'Re-evaluated after corrected readings');
 		return { lotId, previousStatus: lot.status, evaluationId, ...applied, evaluation: withoutInputs(evaluation) };
 	});
 }
@@ -196,6 +203,7 @@ export async function decideOverride(user: SessionUser, lotId: string, input: Ov
 	if (!can(user, 'lot:decide', { supplierId: visible.supplierId })) throw new ApiError(403, 'forbidden', 'Only quality managers decide held lots');
 	await verifySignature(user, input.password, ip);
 	return getDb().transaction(async (tx) => {
+		await lockSamplingOfLot(tx, lotId);
 		const latest = await latestEvaluation(tx, lotId);
 		if (input.decision === 'accept' && latest?.safety) throw conflict(`Rejected for safety: ${SAFETY_RELEASE_REFUSED}`);
 		const status: FinalStatus = input.decision === 'accept' ? 'accepted' : 'rejected';
@@ -203,7 +211,7 @@ export async function decideOverride(user: SessionUser, lotId: string, input: Ov
 			.update(lots)
 			.set({ status, decidedAt: new Date(), updatedAt: new Date() })
 			.where(and(eq(lots.id, lotId), eq(lots.status, 'on_hold')))
-			.returning({ id: lots.id });
+			.returning({ id: lots.id, partId: lots.partId });
 		if (!won) {
 			const [now] = await tx.select({ status: lots.status }).from(lots).where(eq(lots.id, lotId));
 			throw await alreadyDecided(tx, lotId, now.status);
@@ -224,6 +232,7 @@ export async function decideOverride(user: SessionUser, lotId: string, input: Ov
 			.insert(decisions)
 			.values({ lotId, evaluationId: latest?.id ?? null, kind: 'override', fromStatus: 'on_hold', toStatus: status, reason, signature, decidedBy: user.id, decidedAt: signedAt })
 			.returning({ id: decisions.id });
+		await refreshSamplingState(tx, visible.supplierId, won.partId);
 		const noticeId = await queueNotice(tx, {
 			lotId,
 			decisionId: decision.id,

@@ -21,6 +21,7 @@ import {
 } from '$lib/inspection';
 import type { Database, Tx } from '../db';
 import { lots, ocvModels, parts, readings } from '../db/schema';
+import { nextLotSeverity } from './sampling-state';
 import { currentSeverity } from './switching';
 
 /** Added by the service when switching has discontinued inspection (ISO 2859-1 9.4). */
@@ -121,8 +122,13 @@ function limitsOf(part: LoadedLot['part']): PartLimits {
 	};
 }
 
-/** The severity that applies to this lot: the history before its own original decision. */
+/**
+ * The severity that applies to this lot: for an undecided lot the stored state for the next lot
+ * (equal to the replay of the whole history); for a decided one the replay of the history before
+ * its own original decision.
+ */
 async function severityFor(db: Database | Tx, lot: LoadedLot['lot']): Promise<SwitchingState> {
+	if (lot.decidedAt === null) return nextLotSeverity(db, lot.supplierId, lot.partId);
 	const view = await currentSeverity(db, lot.supplierId, lot.partId, { excludeLotId: lot.id, before: lot.decidedAt ?? null });
 	return view.severity;
 }

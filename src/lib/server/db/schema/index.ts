@@ -10,3 +10,4 @@ export * from './readings';
 export * from './decisions';
 export * from './notices';
 export * from './audit';
+export * from './derived';

@@ -29,12 +29,16 @@ export const lots = pgTable(
 		createdBy: text('created_by').references(() => users.id),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-		decidedAt: timestamp('decided_at', { withTimezone: true })
+		decidedAt: timestamp('decided_at', { withTimezone: true }),
+		/** Bumped by triggers on every write that can change the lot's evaluation (cache key). */
+		revision: integer('revision').notNull().default(0)
 	},
 	(t) => [
-		index('lots_created_idx').on(t.createdAt.desc(), t.id.desc()),
-		index('lots_status_created_idx').on(t.status, t.createdAt.desc(), t.id.desc()),
-		index('lots_supplier_created_idx').on(t.supplierId, t.createdAt.desc(), t.id.desc()),
+		// NULLS FIRST: what `ORDER BY … DESC` means, so the list's ORDER BY can walk these indexes
+		// (drizzle's plain .desc() makes them NULLS LAST, and PostgreSQL then sorts every lot).
+		index('lots_created_idx').on(t.createdAt.desc().nullsFirst(), t.id.desc().nullsFirst()),
+		index('lots_status_created_idx').on(t.status, t.createdAt.desc().nullsFirst(), t.id.desc().nullsFirst()),
+		index('lots_supplier_created_idx').on(t.supplierId, t.createdAt.desc().nullsFirst(), t.id.desc().nullsFirst()),
 		index('lots_part_decided_idx').on(t.supplierId, t.partId, t.decidedAt),
 		check('lots_quantity_positive', sql`${t.quantity} > 0`),
 		check('lots_declared_soc_range', sql`${t.declaredSoc} is null or (${t.declaredSoc} >= 0 and ${t.declaredSoc} <= 1)`),

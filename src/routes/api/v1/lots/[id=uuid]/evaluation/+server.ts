@@ -1,26 +1,31 @@
 import { json } from '@sveltejs/kit';
 import { getDb } from '$lib/server/db';
 import { api, authorize, notFound } from '$lib/server/http';
-import { evaluateLotNow } from '$lib/server/services/evaluation';
-import { getLotForUser } from '$lib/server/services/lots';
+import { computeAndCache, etagMatches, evaluationEtag, lotRevision } from '$lib/server/services/evaluation-cache';
 import type { RequestHandler } from './$types';
 
 /**
- * GET /api/v1/lots/{id}/evaluation — the disposition computed now from the stored readings.
- * `?detail=summary` leaves out the per-unit results and the inputs snapshot (the bench polls it).
+ * GET /api/v1/lots/{id}/evaluation — the disposition computed from the stored readings, served
+ * from the revision-keyed cache while nothing that feeds it changed. ETag = the lot's revision;
+ * `If-None-Match` → 304. `?detail=summary` leaves out the per-unit results and the inputs snapshot.
  */
 export const GET: RequestHandler = api(async (event) => {
 	const user = authorize(event, 'lot:read', event.locals.user?.role === 'supplier' ? { supplierId: event.locals.user.organisationId } : undefined);
 	const db = getDb();
-	const lot = await getLotForUser(db, user, event.params.id);
-	if (!lot) throw notFound('lot');
+	const lot = await lotRevision(db, event.params.id);
+	// Another supplier's lot is simply not there (404, not 403).
+	if (!lot || (user.role === 'supplier' && lot.supplierId !== user.organisationId)) throw notFound('lot');
 	authorize(event, 'lot:read', { supplierId: lot.supplierId });
+	const summary = event.url.searchParams.get('detail') === 'summary';
+	const etag = evaluationEtag(lot.revision, summary ? 'summary' : 'full');
+	if (etagMatches(event.request.headers.get('if-none-match'), etag)) return new Response(null, { status: 304, headers: { etag } });
+
 	const started = performance.now();
-	const evaluation = await evaluateLotNow(db, lot.id);
-	const headers = { 'server-timing': `evaluate;dur=${(performance.now() - started).toFixed(1)}` };
-	if (event.url.searchParams.get('detail') === 'summary') {
-		const { units: _units, inputs: _inputs, ...summary } = evaluation;
-		return json({ ...summary, unit_count: evaluation.units.length }, { headers });
+	const body = lot.body ?? (await computeAndCache(db, lot));
+	const headers = { etag, 'server-timing': `evaluate;dur=${(performance.now() - started).toFixed(1)};desc="${lot.body ? 'cached' : 'computed'}"` };
+	if (summary) {
+		const { units, inputs: _inputs, ...rest } = JSON.parse(body) as { units: unknown[]; inputs: unknown };
+		return json({ ...rest, unit_count: units.length }, { headers });
 	}
-	return json(evaluation, { headers });
+	return new Response(body, { headers: { ...headers, 'content-type': 'application/json' } });
 });
