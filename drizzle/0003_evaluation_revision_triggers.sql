@@ -92,3 +92,8 @@ END;
 $$;
 --> statement-breakpoint
 CREATE TRIGGER sampling_states_bump_open_lots AFTER INSERT OR UPDATE OR DELETE ON sampling_states FOR EACH ROW EXECUTE FUNCTION sampling_states_bump_open_lots();
+--> statement-breakpoint
+
+-- Cached bodies are read far more often than written: keep them uncompressed out of line (no
+-- pglz decompression of ~90 KB on every read).
+ALTER TABLE lot_evaluations_cache ALTER COLUMN body SET STORAGE EXTERNAL;

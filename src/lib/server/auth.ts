@@ -128,6 +128,12 @@ export const authHandle: Handle = async (input) => {
 	if (request.method === 'POST' && url.pathname.startsWith('/auth/')) {
 		return new Response('Sign in at /signin', { status: 404 });
 	}
+	// An API call with an Authorization header is decided by that header alone (resolveUser), so
+	// skip Auth.js there: its handle builds the whole config (adapter included) on every request.
+	if (url.pathname.startsWith('/api/') && bearerToken(request) !== undefined) {
+		input.event.locals.auth = async () => null;
+		return input.resolve(input.event);
+	}
 	const response = await auth.handle(input);
 	if (!url.pathname.startsWith('/auth/')) return response;
 	// Auth.js answers some errors with Response.redirect(), whose headers are immutable; the

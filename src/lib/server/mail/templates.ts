@@ -57,10 +57,12 @@ function actionsFor(n: NoticeInput): string[] {
 /** Calm cautions for quarantined and deep-discharged lithium units and for shipping them. */
 export function noticeCautions(n: Pick<NoticeInput, 'status' | 'lithium' | 'safety' | 'transport'>): string[] {
 	if (n.status === 'accepted' || !n.lithium) return [];
+	// "Generally not accepted by air" for damaged/defective lithium cells: from memory (check the current
+	// DG regulations); the marker stays here, not in the text the supplier reads.
 	const cautions = [
 		'Quarantined units stay in their packaging in a marked area, apart from combustible material. Swollen, damaged, leaking or hot units are separated at once.',
 		'A lithium-ion cell that has rested below its minimum voltage must not be recharged: it may have internal damage and can heat up when charged.',
-		'Returning cells is a dangerous-goods shipment. Damaged or defective lithium cells and batteries fall under special provisions and are generally not accepted by air (from memory). Lithium-ion cells and batteries shipped by air packed on their own must be at no more than 30 % SOC.'
+		'Returning cells is a dangerous-goods shipment. Damaged or defective lithium cells and batteries fall under special provisions and are generally not accepted by air. Lithium-ion cells and batteries shipped by air packed on their own must be at no more than 30 % SOC.'
 	];
 	cautions.push('Follow your site procedure, local codes and the current dangerous-goods regulations before handling or shipping these units.');
 	return cautions;

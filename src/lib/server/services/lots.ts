@@ -172,17 +172,25 @@ export async function listLots(
 	filter: LotListFilter
 ): Promise<{ lots: LotView[]; nextCursor: string | null }> {
 	const where: SQL[] = [];
-	if (user.role === 'supplier') where.push(eq(lots.supplierId, user.organisationId ?? '00000000-0000-0000-0000-000000000000'));
-	if (filter.status) where.push(eq(lots.status, filter.status));
-	if (filter.supplierId) where.push(eq(lots.supplierId, filter.supplierId));
-	if (filter.partId) where.push(eq(lots.partId, filter.partId));
+	// The statement's shape (which filters are present) names it: PostgreSQL then parses and plans
+	// each shape once per connection instead of on every page (the plan is most of a page's cost).
+	let shape = '';
+	if (user.role === 'supplier') {
+		where.push(eq(lots.supplierId, user.organisationId ?? '00000000-0000-0000-0000-000000000000'));
+		shape += 'o';
+	}
+	if (filter.status) where.push(eq(lots.status, filter.status)), (shape += 's');
+	if (filter.supplierId) where.push(eq(lots.supplierId, filter.supplierId)), (shape += 'u');
+	if (filter.partId) where.push(eq(lots.partId, filter.partId)), (shape += 'p');
 	if (filter.search) {
 		const like = `%${filter.search.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
 		where.push(or(ilike(lots.poNumber, like), ilike(lots.lotCode, like))!);
+		shape += 'q';
 	}
 	if (filter.cursor) {
 		const { at, id } = decodeCursor(filter.cursor);
 		where.push(sql`(${lots.createdAt}, ${lots.id}) < (${at}::timestamptz, ${id}::uuid)`);
+		shape += 'c';
 	}
 	const rows = await db
 		.select({ ...viewColumns, cursorAt: sql<string>`${lots.createdAt}::text` })
@@ -191,7 +199,9 @@ export async function listLots(
 		.innerJoin(parts, eq(parts.id, lots.partId))
 		.where(and(...where))
 		.orderBy(desc(lots.createdAt), desc(lots.id))
-		.limit(filter.limit + 1);
+		.limit(filter.limit + 1)
+		.prepare(`restvolt_lot_list_v1_${shape || 'all'}`)
+		.execute();
 	const page = rows.slice(0, filter.limit);
 	const last = page.at(-1);
 	const nextCursor = rows.length > filter.limit && last ? encodeCursor(last.cursorAt, last.lot.id) : null;

@@ -120,7 +120,9 @@ export async function buildReportData(db: Db, lotId: string, opts: { decisionId?
 	const final = FINAL[status];
 	if (decision?.kind === 'override' && final) {
 		const engineWord = result.status.toUpperCase();
-		reasons.unshift({ code: 'quality_decision', severity: 'info', message: `Quality decision by ${decision.by} (e-signed): “${decision.reason ?? ''}”. The engine's evaluation was ${engineWord}.` });
+		const said = (decision.reason ?? '').trim();
+		const stop = /[.!?]$/.test(said) ? '' : '.'; // the reason's own full stop ends the sentence
+		reasons.unshift({ code: 'quality_decision', severity: 'info', message: `Quality decision by ${decision.by} (e-signed): “${said}”${stop} The engine's evaluation was ${engineWord}.` });
 	}
 	const units = unitsOf(engine, new Map(acRows.map((r) => [r.id, r.ac])));
 	return {

@@ -1,6 +1,16 @@
-// Any /api/ path no route matches (an unknown path, or an id that fails its [id=uuid] matcher)
-// answers in the API's error shape instead of SvelteKit's HTML 404 page.
-import { errorResponse, notFound } from '$lib/server/http';
+import { api, ApiError } from '$lib/server/http';
 import type { RequestHandler } from './$types';
 
-export const fallback: RequestHandler = () => errorResponse(notFound('API route'));
+/**
+ * Any /api path no route matched (including malformed ids, which the [id=uuid] matchers refuse)
+ * answers in the API's error shape rather than with an HTML page.
+ */
+const unknown: RequestHandler = api(async ({ url }) => {
+	throw new ApiError(404, 'not_found', `No API endpoint at ${url.pathname}`);
+});
+
+export const GET = unknown;
+export const POST = unknown;
+export const PUT = unknown;
+export const PATCH = unknown;
+export const DELETE = unknown;

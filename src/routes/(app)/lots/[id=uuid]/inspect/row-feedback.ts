@@ -9,6 +9,8 @@ export interface BenchContext {
 	declaredSoc: number | null;
 	meterAccuracyV: number;
 	limits: PartLimits;
+	/** SOC limit for an air-shipped lithium-ion lot (the server's air rule), else null. */
+	airSocLimit?: number | null;
 }
 
 export type FeedbackTone = 'ok' | 'warn' | 'danger' | 'info';
@@ -53,6 +55,10 @@ export function feedbackFor(ctx: BenchContext, ocvV: number, temperatureC: numbe
 	if (r.ocv_at_25c_v < ctx.limits.ocv_min_v || r.ocv_at_25c_v > ctx.limits.ocv_max_v) findings.push({ word: 'outside window', shape: '▲', tone: 'warn' });
 	if (r.residual_v !== null && Math.abs(r.residual_v) > ctx.limits.residual_tolerance_v && r.determinate) {
 		findings.push({ word: 'far from declared SOC', shape: '▲', tone: 'warn' });
+	}
+	// Same test as the server's air rule: the unit's SOC interval lies wholly above the limit.
+	if (ctx.airSocLimit != null && r.soc_low > ctx.airSocLimit) {
+		findings.push({ word: `above ${Math.round(ctx.airSocLimit * 100)} % air limit`, shape: '▲', tone: 'warn' });
 	}
 	if (findings.length === 0) findings.push({ word: 'in window', shape: '●', tone: 'ok' });
 	return {

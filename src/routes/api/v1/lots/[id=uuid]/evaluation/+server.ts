@@ -27,5 +27,7 @@ export const GET: RequestHandler = api(async (event) => {
 		const { units, inputs: _inputs, ...rest } = JSON.parse(body) as { units: unknown[]; inputs: unknown };
 		return json({ ...rest, unit_count: units.length }, { headers });
 	}
-	return new Response(body, { headers: { ...headers, 'content-type': 'application/json' } });
+	// Bytes with their length: one write, no chunked encoding.
+	const bytes = Buffer.from(body, 'utf8');
+	return new Response(bytes, { headers: { ...headers, 'content-type': 'application/json', 'content-length': String(bytes.length) } });
 });
