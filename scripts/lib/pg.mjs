@@ -91,9 +91,12 @@ export function stopPostgres({ bin, dataDir }) {
 	pgRun(bin, 'pg_ctl', ['-D', dataDir, '-m', 'fast', '-w', 'stop']);
 }
 
-/** Restart with the same options (used by the fault tests). */
+/**
+ * Restart with the same options (used by the fault tests). The log file matters: without `-l` the
+ * new postmaster inherits pg_ctl's stdout, and the synchronous run() would wait for it to exit.
+ */
 export function restartPostgres({ bin, dataDir }) {
-	pgRun(bin, 'pg_ctl', ['-D', dataDir, '-m', 'fast', '-w', 'restart']);
+	pgRun(bin, 'pg_ctl', ['-D', dataDir, '-l', join(dataDir, 'server.log'), '-m', 'fast', '-w', '-t', '30', 'restart']);
 }
 
 function socketDir(dataDir) {

@@ -244,6 +244,7 @@ describe('role × API route matrix', () => {
 			expect(lots.length).toBeGreaterThan(0);
 			expect(lots.every((l) => l.supplier_id === own)).toBe(true);
 			const notices = (await (await fetch(`${app.url}/api/v1/notices`, { headers: auth })).json()).notices as Array<{ lot_id?: string; lotId?: string }>;
+			expect(notices.length).toBeGreaterThan(0);
 			const lotIds = await withClient(db.url, async (c) => (await c.query('select id from lots where supplier_id = $1', [own])).rows.map((r) => r.id));
 			expect(notices.every((n) => lotIds.includes(n.lot_id ?? n.lotId))).toBe(true);
 		}

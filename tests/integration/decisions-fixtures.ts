@@ -20,7 +20,8 @@ export const VOLTARIA_CONTACTS = ['supplier@voltaria-cells.example', 'quality-de
  * safety: one unit at 2.00 V, well below the NMC minimum (deep discharge → safety reject).
  */
 export async function measuredLot(buyer: Caller, inspector: Caller, scenario: Scenario) {
-	const documents = scenario === 'hold' ? (['coc'] as const) : (['coc', 'un38_3_summary', 'sds'] as const);
+	// The hold scenario lacks only the UN 38.3 summary, so attaching it later can release the lot.
+	const documents = scenario === 'hold' ? (['coc', 'sds'] as const) : (['coc', 'un38_3_summary', 'sds'] as const);
 	const lot = await createLot(buyer, { partNumber: PART, quantity: 100, declaredSoc: 0.3, documents: [...documents] });
 	const readings = modelReadings('NMC', 1, 0.3, { prefix: 'P' });
 	const first = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings } });

@@ -81,9 +81,23 @@ export function api<E extends RequestEvent>(handler: (event: E) => Promise<Respo
 			if (error instanceof ApiError) return errorResponse(error);
 			if (isKitResponse(error)) throw error;
 			console.error(`[api] ${event.request.method} ${event.url.pathname}`, error);
+			if (isDatabaseUnavailable(error)) {
+				return errorResponse(new ApiError(503, 'database_unavailable', 'The database is not reachable right now; nothing was saved. Try again in a moment.'));
+			}
 			return errorResponse(new ApiError(500, 'internal', 'Something went wrong on the server'));
 		}
 	};
+}
+
+/** PostgreSQL went away (restart, shutdown, network): a retryable 503, not a server bug. */
+const UNAVAILABLE_CODES = new Set(['57P01', '57P02', '57P03', '08000', '08001', '08003', '08006', 'ECONNREFUSED', 'ECONNRESET', 'EPIPE']);
+export function isDatabaseUnavailable(error: unknown): boolean {
+	for (let e: unknown = error, depth = 0; e && typeof e === 'object' && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
+		const { code, message } = e as { code?: unknown; message?: unknown };
+		if (typeof code === 'string' && UNAVAILABLE_CODES.has(code)) return true;
+		if (typeof message === 'string' && /Connection terminated|terminating connection due to administrator command/.test(message)) return true;
+	}
+	return false;
 }
 
 function isKitResponse(error: unknown): boolean {

@@ -20,7 +20,14 @@ export function databaseUrl(): string {
 export function getPool(): pg.Pool {
 	// allowExitOnIdle: idle connections must not keep a stopping process alive (adapter-node's
 	// graceful shutdown ends when the event loop is empty).
-	pool ??= new pg.Pool({ connectionString: databaseUrl(), max: Number(process.env.PG_POOL_MAX ?? 10), allowExitOnIdle: true });
+	if (!pool) {
+		pool = new pg.Pool({ connectionString: databaseUrl(), max: Number(process.env.PG_POOL_MAX ?? 10), allowExitOnIdle: true });
+		// A connection dies when PostgreSQL restarts. pg emits 'error' on the pool (idle clients) or on
+		// the client itself (checked out, e.g. mid-transaction); an unhandled 'error' event would end
+		// the whole process. The failed query still rejects, and the pool discards the dead client.
+		pool.on('error', (error) => console.error('[db] an idle database connection was lost:', error.message));
+		pool.on('connect', (client) => client.on('error', (error) => console.error('[db] a database connection was lost:', error.message)));
+	}
 	return pool;
 }
 

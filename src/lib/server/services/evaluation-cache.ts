@@ -8,7 +8,7 @@
  * from newer data than its revision is at worst labelled older (and then never matches again).
  */
 import { sql } from 'drizzle-orm';
-import type { Database } from '../db';
+import { getPool, type Database } from '../db';
 import { evaluateLotNow } from './evaluation';
 
 export interface LotRevision {
@@ -19,12 +19,18 @@ export interface LotRevision {
 	body: string | null;
 }
 
-/** Lot visibility data, revision and cached body in one round trip; null when there is no such lot. */
-export async function lotRevision(db: Database, lotId: string): Promise<LotRevision | null> {
-	const result = await db.execute<{ supplier_id: string; revision: number; body: string | null }>(sql`
-		select l.supplier_id, l.revision, c.body
-		from lots l left join lot_evaluations_cache c on c.lot_id = l.id and c.revision = l.revision
-		where l.id = ${lotId}`);
+/**
+ * Lot visibility data, revision and cached body in one round trip; null when there is no such lot.
+ * A named statement on the pool: parsed and planned once per connection.
+ */
+export async function lotRevision(lotId: string): Promise<LotRevision | null> {
+	const result = await getPool().query<{ supplier_id: string; revision: number; body: string | null }>({
+		name: 'restvolt_lot_evaluation_cache_v1',
+		text: `select l.supplier_id, l.revision, c.body
+			from lots l left join lot_evaluations_cache c on c.lot_id = l.id and c.revision = l.revision
+			where l.id = $1`,
+		values: [lotId]
+	});
 	const row = result.rows[0];
 	return row ? { lotId, supplierId: row.supplier_id, revision: Number(row.revision), body: row.body } : null;
 }

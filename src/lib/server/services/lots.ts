@@ -2,7 +2,8 @@
  * Lots: registration, listing (keyset pages), supplier-isolated reads, status transitions and the
  * lot history. All SQL for lots lives here; other services reuse `transitionLot`.
  */
-import { and, asc, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
+import type { Pool } from 'pg';
 import type { Database, Tx } from '../db';
 import { auditEvents, decisions, lots, organisations, parts, users } from '../db/schema';
 import type { SessionUser } from '$lib/roles';
@@ -165,47 +166,84 @@ function decodeCursor(cursor: string): { at: string; id: string } {
 	return { at, id };
 }
 
-/** Lots visible to this user, newest first, one keyset page at a time. */
+/** Columns of a list row, in the order LIST_COLUMNS selects them (LotView, flat). */
+const LIST_COLUMNS = `l.id, l.lot_code, l.po_number, l.supplier_id, l.part_id, l.quantity, l.declared_soc, l.transport::text,
+	l.un_number, l.expected_arrival::text, l.received_at, l.status::text, l.severity::text, l.created_by, l.created_at,
+	l.updated_at, l.decided_at, l.revision, o.name, p.part_number, p.description, p.chemistry, p.cells_in_series,
+	p.cells_in_parallel, p.nominal_capacity_ah, l.created_at::text`;
+
+type ListRow = [
+	string, string, string, string, string, number, number | null, LotRow['transport'], string | null, string | null, Date | null,
+	LotStatus, LotRow['severity'], string | null, Date, Date, Date | null, number, string, string, string, string, number, number, number, string
+];
+
+type DrizzleInternals = { $client: Pool; session?: { logger?: { logQuery(query: string, params: unknown[]): void } } };
+
+/**
+ * Plain SQL as a named statement (rows as arrays) on the pool behind a drizzle handle, logged
+ * through the handle's logger like its own queries (drizzle() sets $client and session; the
+ * Database type leaves them out).
+ */
+async function namedArrayQuery<R extends unknown[]>(db: Database, name: string, text: string, values: unknown[]): Promise<R[]> {
+	const handle = db as Database & DrizzleInternals;
+	handle.session?.logger?.logQuery(text, values);
+	return (await handle.$client.query<R>({ name, text, values, rowMode: 'array' })).rows;
+}
+
+function listItem(r: ListRow): LotView {
+	return {
+		id: r[0], lotCode: r[1], poNumber: r[2], supplierId: r[3], partId: r[4], quantity: r[5], declaredSoc: r[6], transport: r[7],
+		unNumber: r[8], expectedArrival: r[9], receivedAt: r[10], status: r[11], severity: r[12], createdBy: r[13], createdAt: r[14],
+		updatedAt: r[15], decidedAt: r[16], revision: r[17], supplierName: r[18], partNumber: r[19], partDescription: r[20],
+		chemistry: r[21], cellsInSeries: r[22], cellsInParallel: r[23], nominalCapacityAh: r[24]
+	};
+}
+
+/**
+ * Lots visible to this user, newest first, one keyset page at a time. Plain SQL on the pool as a
+ * named statement per filter shape: PostgreSQL parses and plans each shape once per connection, and
+ * rows come back as arrays mapped straight to LotView (the query builder's own work per page was
+ * larger than the index scan of the page itself).
+ */
 export async function listLots(
 	db: Database,
 	user: SessionUser,
 	filter: LotListFilter
 ): Promise<{ lots: LotView[]; nextCursor: string | null }> {
-	const where: SQL[] = [];
-	// The statement's shape (which filters are present) names it: PostgreSQL then parses and plans
-	// each shape once per connection instead of on every page (the plan is most of a page's cost).
+	const where: string[] = [];
+	const values: unknown[] = [];
 	let shape = '';
-	if (user.role === 'supplier') {
-		where.push(eq(lots.supplierId, user.organisationId ?? '00000000-0000-0000-0000-000000000000'));
-		shape += 'o';
-	}
-	if (filter.status) where.push(eq(lots.status, filter.status)), (shape += 's');
-	if (filter.supplierId) where.push(eq(lots.supplierId, filter.supplierId)), (shape += 'u');
-	if (filter.partId) where.push(eq(lots.partId, filter.partId)), (shape += 'p');
+	const add = (key: string, condition: (...params: string[]) => string, ...params: unknown[]) => {
+		const refs = params.map((p) => `$${values.push(p)}`);
+		where.push(condition(...refs));
+		shape += key;
+	};
+	if (user.role === 'supplier') add('o', (p) => `l.supplier_id = ${p}`, user.organisationId ?? '00000000-0000-0000-0000-000000000000');
+	if (filter.status) add('s', (p) => `l.status = ${p}`, filter.status);
+	if (filter.supplierId) add('u', (p) => `l.supplier_id = ${p}`, filter.supplierId);
+	if (filter.partId) add('p', (p) => `l.part_id = ${p}`, filter.partId);
 	if (filter.search) {
 		const like = `%${filter.search.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
-		where.push(or(ilike(lots.poNumber, like), ilike(lots.lotCode, like))!);
-		shape += 'q';
+		add('q', (p) => `(l.po_number ilike ${p} or l.lot_code ilike ${p})`, like);
 	}
 	if (filter.cursor) {
 		const { at, id } = decodeCursor(filter.cursor);
-		where.push(sql`(${lots.createdAt}, ${lots.id}) < (${at}::timestamptz, ${id}::uuid)`);
-		shape += 'c';
+		add('c', (a, b) => `(l.created_at, l.id) < (${a}::timestamptz, ${b}::uuid)`, at, id);
 	}
-	const rows = await db
-		.select({ ...viewColumns, cursorAt: sql<string>`${lots.createdAt}::text` })
-		.from(lots)
-		.innerJoin(organisations, eq(organisations.id, lots.supplierId))
-		.innerJoin(parts, eq(parts.id, lots.partId))
-		.where(and(...where))
-		.orderBy(desc(lots.createdAt), desc(lots.id))
-		.limit(filter.limit + 1)
-		.prepare(`restvolt_lot_list_v1_${shape || 'all'}`)
-		.execute();
+	const limit = `$${values.push(filter.limit + 1)}`;
+	const rows = await namedArrayQuery<ListRow>(
+		db,
+		`restvolt_lot_list_v1_${shape || 'all'}`,
+		`select ${LIST_COLUMNS}
+			from lots l join organisations o on o.id = l.supplier_id join parts p on p.id = l.part_id
+			${where.length > 0 ? `where ${where.join(' and ')}` : ''}
+			order by l.created_at desc, l.id desc
+			limit ${limit}`,
+		values
+	);
 	const page = rows.slice(0, filter.limit);
-	const last = page.at(-1);
-	const nextCursor = rows.length > filter.limit && last ? encodeCursor(last.cursorAt, last.lot.id) : null;
-	return { lots: page.map(({ cursorAt: _c, ...r }) => flatten(r)), nextCursor };
+	const nextCursor = rows.length > filter.limit && page.length > 0 ? encodeCursor(page[page.length - 1][25], page[page.length - 1][0]) : null;
+	return { lots: page.map(listItem), nextCursor };
 }
 
 /** A lot as this user may see it: another supplier's lot is simply not there (null → 404). */

@@ -5,7 +5,7 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 import { and, desc, eq, isNull, sql } from 'drizzle-orm';
-import { getDb } from '../db';
+import { getDb, getPool } from '../db';
 import { apiTokens, users } from '../db/schema';
 import { recordAudit } from './audit';
 import { findUserByEmail, toSessionUser, type Actor } from './users';
@@ -93,20 +93,25 @@ export async function listTokens() {
 }
 
 /**
- * The user a bearer token acts as, or null. Notes the use at most once a minute. One statement (a
- * data-modifying CTE), so token auth costs a single round trip on every API call.
+ * The user a bearer token acts as, or null. One named statement (parsed and planned once per
+ * connection) on every API call; the last-use note is a second statement at most once a minute.
  */
 export async function userForToken(token: string): Promise<SessionUser | null> {
-	const result = await getDb().execute<{ token_id: string; id: string; email: string; name: string | null; role: SessionUser['role']; organisation_id: string | null }>(sql`
-		with found as (
-			select t.id as token_id, t.last_used_at, u.id, u.email, u.name, u.role, u.organisation_id
+	const result = await getPool().query<{ token_id: string; stale: boolean; id: string; email: string; name: string | null; role: SessionUser['role']; organisation_id: string | null }>({
+		name: 'restvolt_user_for_token_v2',
+		text: `select t.id as token_id, (t.last_used_at is null or t.last_used_at < now() - interval '1 minute') as stale,
+				u.id, u.email, u.name, u.role::text as role, u.organisation_id
 			from api_tokens t join "user" u on u.id = t.user_id
-			where t.token_hash = ${hashToken(token)} and t.revoked_at is null and u.active
-		), touched as (
-			update api_tokens set last_used_at = now()
-			where id in (select token_id from found where last_used_at is null or last_used_at < now() - interval '1 minute')
-		)
-		select token_id, id, email, name, role::text as role, organisation_id from found`);
+			where t.token_hash = $1 and t.revoked_at is null and u.active`,
+		values: [hashToken(token)]
+	});
 	const row = result.rows[0];
-	return row ? toSessionUser({ id: row.id, email: row.email, name: row.name, role: row.role, organisationId: row.organisation_id }) : null;
+	if (!row) return null;
+	if (row.stale) {
+		await getDb()
+			.update(apiTokens)
+			.set({ lastUsedAt: new Date() })
+			.where(and(eq(apiTokens.id, row.token_id), sql`(${apiTokens.lastUsedAt} is null or ${apiTokens.lastUsedAt} < now() - interval '1 minute')`));
+	}
+	return toSessionUser({ id: row.id, email: row.email, name: row.name, role: row.role, organisationId: row.organisation_id });
 }

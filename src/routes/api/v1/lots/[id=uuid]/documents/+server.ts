@@ -14,6 +14,8 @@ async function visibleLot(event: RequestEvent<{ id: string }>) {
 	authorize(event, 'document:read', user?.role === 'supplier' ? { supplierId: user.organisationId } : undefined);
 	const lot = await getLotForUser(getDb(), user!, event.params.id);
 	if (!lot) throw notFound('lot');
+	// Second check on the lot's own supplier (as the other lot routes do), not only the lookup's filter.
+	authorize(event, 'document:read', { supplierId: lot.supplierId });
 	return { user: user!, lot };
 }
 

@@ -12,7 +12,7 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = api(async (event) => {
 	const user = authorize(event, 'lot:read', event.locals.user?.role === 'supplier' ? { supplierId: event.locals.user.organisationId } : undefined);
 	const db = getDb();
-	const lot = await lotRevision(db, event.params.id);
+	const lot = await lotRevision(event.params.id);
 	// Another supplier's lot is simply not there (404, not 403).
 	if (!lot || (user.role === 'supplier' && lot.supplierId !== user.organisationId)) throw notFound('lot');
 	authorize(event, 'lot:read', { supplierId: lot.supplierId });

@@ -11,6 +11,7 @@ export const GET: RequestHandler = api(async (event) => {
 	const db = getDb();
 	const lot = await getLotForUser(db, user!, event.params.id);
 	if (!lot) throw notFound('lot');
+	authorize(event, 'document:read', { supplierId: lot.supplierId }); // the lot's own supplier, as the other lot routes check
 	const doc = await getDocumentFile(db, lot.id, event.params.docId);
 	if (!doc) throw notFound('document');
 	return new Response(new Uint8Array(doc.bytes), { headers: downloadHeaders(doc) });
