@@ -90,9 +90,6 @@ async function seedOne(db: Database, people: SeededPeople, part: SeededPart, spe
 	if (spec.stage === 'cancelled') await cancelLot(db, buyer, lot.id, 'Order merged into a later PO');
 	if (spec.stage !== 'draft' && spec.stage !== 'cancelled') await markAwaitingArrival(db, buyer, lot.id);
 	if (['in_inspection', 'pending_decision', 'decided'].includes(spec.stage)) await inspect(db, people, lot.id, spec, part, index, when);
-	if (spec.stage === 'pending_decision') {
-		await db.update(lots).set({ status: 'pending_decision' }).where(eq(lots.id, lot.id));
-	}
 	if (spec.stage === 'decided') {
 		const outcome = await submitLot(staffUser(people, 'inspector'), lot.id);
 		if (spec.override && outcome.status === 'on_hold') {

@@ -7,6 +7,8 @@ declare global {
 			user: SessionUser | null;
 			/** How the user authenticated: an interactive session or an API token. */
 			authMethod: 'session' | 'token' | null;
+			/** An API token not yet checked: set instead of `user` only for routes that check it in their own statement (auth.ts). */
+			bearerToken: string | null;
 		}
 		interface Error {
 			message: string;

@@ -315,7 +315,8 @@ test('3. the new inspector records the sample by keyboard and from a meter file'
 
 test('4. the inspector submits the lot, which goes on hold with its reasons', async ({ page }) => {
 	await signInPage(page, app.url, PEOPLE.inspector.email, PEOPLE.inspector.password);
-	await page.getByRole('link', { name: `Continue ${lot.code}` }).click();
+	// The whole sample is measured, so the bench offers to submit it ("awaiting decision").
+	await page.getByRole('link', { name: `Submit ${lot.code}` }).click();
 	await expect(page.getByTestId('server-status')).toHaveAttribute('data-status', 'hold');
 	await page.getByTestId('submit-lot').click();
 	await page.waitForURL(`${app.url}/lots/${lot.id}`);

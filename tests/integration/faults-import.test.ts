@@ -102,7 +102,8 @@ describe('PostgreSQL restart during a 10,000-row import', () => {
 		await waitUntil(async () => (await fetch(`${app.url}/api/v1/health`)).status === 200, 30_000, 'the app to reach the database again');
 		const again = await call(inspector, `/api/v1/lots/${lot.id}/imports`, { form: importForm(csv) });
 		expect(again.status, JSON.stringify(again.json).slice(0, 500)).toBe(201);
-		expect(again.json).toMatchObject({ inserted: ROWS, already_imported_at: null, lot_status: 'in_inspection' });
-		expect(await lotState(lot.id)).toEqual({ readings: ROWS, imports: 1, status: 'in_inspection' });
+		// 10,000 units complete the sample (lot 50,000 → letter N), so the lot awaits its decision.
+		expect(again.json).toMatchObject({ inserted: ROWS, already_imported_at: null, lot_status: 'pending_decision' });
+		expect(await lotState(lot.id)).toEqual({ readings: ROWS, imports: 1, status: 'pending_decision' });
 	}, 120_000);
 });

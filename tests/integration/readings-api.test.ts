@@ -55,6 +55,23 @@ describe('POST/GET /api/v1/lots/{id}/readings', () => {
 		expect(list.json.readings[0]).toMatchObject({ temperature_c: 25, source: 'api' });
 	});
 
+	it('moves the lot to "awaiting decision" when the sample is complete, and still takes readings', async () => {
+		// Lot of 100 at AQL 1.0, level II: MIL-STD-105E Table I letter F; Table II-A's arrow at F / 1.0
+		// points up to letter E: n 13, Ac 0, Re 1.
+		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
+		const plan = (await call(inspector, `/api/v1/lots/${lot.id}/evaluation`)).json.plan;
+		expect(plan).toMatchObject({ code_letter: 'F', plan_code_letter: 'E', sample_size: 13 });
+		const rows = modelReadings('NMC', 14, 0.3);
+		const first = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: rows.slice(0, 12) } });
+		expect(first.json.lot_status).toBe('in_inspection');
+		const last = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: rows.slice(12, 13) } });
+		expect(last.json.lot_status).toBe('pending_decision');
+		expect((await lotStatus(lot.id)).status).toBe('pending_decision');
+		const extra = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: rows.slice(13) } });
+		expect(extra.status).toBe(201);
+		expect(extra.json.lot_status).toBe('pending_decision');
+	});
+
 	it('is all or nothing: one bad row (NaN as a string, negative OCV) stores nothing', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
 		const good = modelReadings('NMC', 5, 0.3);
@@ -250,7 +267,8 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 		const mapping = preview.json.guessed_mapping;
 		const first = await upload(lot.id, 'meter.csv', csv, mapping);
 		expect(first.status).toBe(201);
-		expect(first.json).toMatchObject({ inserted: 20, lot_status: 'in_inspection', already_imported_at: null });
+		// 20 units complete this lot's sample (n 13), so the lot now awaits its decision.
+		expect(first.json).toMatchObject({ inserted: 20, lot_status: 'pending_decision', already_imported_at: null });
 		const again = await upload(lot.id, 'meter-copy.csv', csv, mapping);
 		expect(again.status).toBe(200);
 		expect(again.json.inserted).toBe(0);

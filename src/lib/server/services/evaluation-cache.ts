@@ -10,6 +10,9 @@
 import { sql } from 'drizzle-orm';
 import { getPool, type Database } from '../db';
 import { evaluateLotNow } from './evaluation';
+import { servedEvaluation } from './evaluation-body';
+import { hashToken, LIVE_TOKEN, tokenUserOf, TOKEN_USER_COLUMNS, TOKEN_USER_FROM, type TokenUserRow } from './tokens';
+import type { SessionUser } from '../../roles';
 
 export interface LotRevision {
 	lotId: string;
@@ -35,9 +38,31 @@ export async function lotRevision(lotId: string): Promise<LotRevision | null> {
 	return row ? { lotId, supplierId: row.supplier_id, revision: Number(row.revision), body: row.body } : null;
 }
 
-/** Compute the evaluation now and store its serialised form under the revision read before. */
+/**
+ * A bearer token's user and the lot's revision + cached body in ONE round trip (the endpoint's hot
+ * path: half its database work). The token is checked exactly as `userForToken` does (hash, not
+ * revoked, user active; same last-use note); null when the token is not live. `lot` is null when
+ * there is no such lot. The caller still authorises and checks supplier isolation.
+ */
+export async function tokenUserAndLotRevision(token: string, lotId: string): Promise<{ user: SessionUser; lot: LotRevision | null } | null> {
+	const result = await getPool().query<TokenUserRow & { supplier_id: string | null; revision: number | null; body: string | null }>({
+		name: 'restvolt_token_lot_evaluation_cache_v1',
+		text: `select ${TOKEN_USER_COLUMNS}, l.supplier_id, l.revision, c.body
+			from ${TOKEN_USER_FROM}
+				left join lots l on l.id = $2
+				left join lot_evaluations_cache c on c.lot_id = l.id and c.revision = l.revision
+			where ${LIVE_TOKEN}`,
+		values: [hashToken(token), lotId]
+	});
+	const row = result.rows[0];
+	if (!row) return null;
+	const lot = row.supplier_id === null ? null : { lotId, supplierId: row.supplier_id, revision: Number(row.revision), body: row.body };
+	return { user: await tokenUserOf(row), lot };
+}
+
+/** Compute the evaluation now and store its served form (evaluation-body.ts) under the revision read before. */
 export async function computeAndCache(db: Database, lot: LotRevision): Promise<string> {
-	const body = JSON.stringify(await evaluateLotNow(db, lot.lotId));
+	const body = JSON.stringify(servedEvaluation(await evaluateLotNow(db, lot.lotId)));
 	await db.execute(sql`
 		insert into lot_evaluations_cache (lot_id, revision, body, computed_at)
 		values (${lot.lotId}, ${lot.revision}, ${body}, now())

@@ -133,6 +133,16 @@ async function severityFor(db: Database | Tx, lot: LoadedLot['lot']): Promise<Sw
 	return view.severity;
 }
 
+/** The sample size the lot's plan asks for now (part AQL and level, lot size, current severity). */
+export async function requiredSampleSize(db: Database | Tx, lotId: string): Promise<number> {
+	const row = await loadLot(db, lotId);
+	if (!row) throw new EvaluationError('lot_not_found', 'lot not found');
+	const state = await severityFor(db, row.lot);
+	const severity: Severity = state === 'discontinued' ? 'tightened' : state;
+	const level = row.part.inspectionLevel as InspectionLevel;
+	return samplingPlan({ lotSize: row.lot.quantity, aql: row.part.aql, level, severity }).sample_size;
+}
+
 /** Everything computed from the stored readings, reproducible from `inputs`. */
 export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<LotEvaluation> {
 	const row = await loadLot(db, lotId);

@@ -11,11 +11,13 @@ import type { Database, Tx } from '../db';
 import { readings } from '../db/schema';
 import { ApiError, conflict, notFound, unprocessable, type ApiIssue } from '../http';
 import { recordAudit } from './audit';
-import { recordArrival } from './lots';
+import { recordArrival, transitionLot } from './lots';
+import { requiredSampleSize } from './evaluation';
 
 export type ReadingSource = 'keyboard' | 'import' | 'api';
 /** Lots that take new readings; awaiting_arrival is moved into inspection by the first batch. */
-const OPEN_STATUSES = ['awaiting_arrival', 'in_inspection'] as const;
+// A lot awaiting its decision (sample complete) still takes readings: extra units, second OCVs.
+const OPEN_STATUSES = ['awaiting_arrival', 'in_inspection', 'pending_decision'] as const;
 /** A held lot may be corrected too: quality then re-evaluates it (a new evaluation row). */
 const CORRECTABLE = ['in_inspection', 'pending_decision', 'on_hold'];
 /** Rows per INSERT … SELECT FROM unnest(…): one round trip per chunk, parameters stay arrays. */
@@ -120,7 +122,35 @@ export async function addReadingsTx(
 			details: { count: inserted, source, import_id: importId }
 		});
 	}
-	return { inserted, duplicates: rows.length - inserted, lot_status: 'in_inspection', arrived };
+	const complete = await markSampleCompleteIfDue(tx, user, lotId);
+	const lotStatus = complete || lot.status === 'pending_decision' ? 'pending_decision' : 'in_inspection';
+	return { inserted, duplicates: rows.length - inserted, lot_status: lotStatus, arrived };
+}
+
+/**
+ * When the lot's distinct measured units reach the plan's sample size, the lot moves from
+ * "in inspection" to "awaiting decision": the sample is complete and the inspector can submit it.
+ */
+async function markSampleCompleteIfDue(tx: Tx, user: SessionUser, lotId: string): Promise<boolean> {
+	const [{ units, status }] = (
+		await tx.execute<{ units: number; status: string }>(
+			sql`select (select count(distinct serial) from readings where lot_id = ${lotId})::int as units, status::text as status from lots where id = ${lotId}`
+		)
+	).rows;
+	if (status !== 'in_inspection') return false;
+	const needed = await requiredSampleSize(tx, lotId);
+	if (units < needed) return false;
+	await transitionLot(tx, lotId, ['in_inspection'], 'pending_decision');
+	await recordAudit(tx, {
+		actorId: user.id,
+		actorEmail: user.email,
+		action: 'lot.sample_complete',
+		entityType: 'lot',
+		entityId: lotId,
+		lotId,
+		details: { units, sample_size: needed, to: 'pending_decision' }
+	});
+	return true;
 }
 
 /**
@@ -189,7 +219,7 @@ export interface BenchLot {
 	id: string;
 	lot_code: string;
 	po_number: string;
-	status: 'awaiting_arrival' | 'in_inspection';
+	status: 'awaiting_arrival' | 'in_inspection' | 'pending_decision';
 	supplier_name: string;
 	part_number: string;
 	part_description: string;
@@ -206,7 +236,7 @@ export interface BenchLot {
 	units_measured: number;
 }
 
-/** Lots for the receiving bench: awaiting arrival or in inspection, oldest first. */
+/** Lots for the receiving bench: awaiting arrival, on the bench or awaiting their decision, oldest first. */
 export async function benchLots(db: Database): Promise<BenchLot[]> {
 	const result = await db.execute<BenchLot & Record<string, unknown>>(sql`
 		select l.id, l.lot_code, l.po_number, l.status::text as status, o.name as supplier_name, p.part_number,
@@ -215,7 +245,7 @@ export async function benchLots(db: Database): Promise<BenchLot[]> {
 		       l.received_at, l.created_at,
 		       (select count(distinct r.serial) from readings r where r.lot_id = l.id)::int as units_measured
 		from lots l join parts p on p.id = l.part_id join organisations o on o.id = l.supplier_id
-		where l.status in ('awaiting_arrival', 'in_inspection')
+		where l.status in ('awaiting_arrival', 'in_inspection', 'pending_decision')
 		order by coalesce(l.received_at, l.created_at), l.id
 		limit 500`);
 	const iso = (d: unknown) => (d instanceof Date ? d.toISOString() : d === null ? null : String(d));
