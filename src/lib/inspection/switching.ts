@@ -91,8 +91,9 @@ function onNormal(t: Tracker, lot: LotOutcome, opts: SwitchingOptions, aqlIdx: n
 	t.recentNormal = [...t.recentNormal, !lot.accepted].slice(-5);
 	const rejections = t.recentNormal.filter(Boolean).length;
 	if (rejections >= 2) {
+		const window = t.recentNormal.length; // read before enter() clears it
 		enter(t, 'tightened');
-		return `${rejections} of the last ${t.recentNormal.length} lots on normal inspection were not accepted (ISO 2859-1:1999 9.3.1).`;
+		return `${rejections} of the last ${window} lots on normal inspection were not accepted (ISO 2859-1:1999 9.3.1).`;
 	}
 	const plan = planNumbers('normal', opts.code_letter, aqlIdx);
 	t.score = nextSwitchingScore(t.score, lot, plan.ac, tighterNormalAccept(plan.planLetter, aqlIdx));

@@ -19,6 +19,8 @@ describe('normal -> tightened (ISO 2859-1:1999 9.3.1: 2 of 5 or fewer consecutiv
 		expect(r.severity).toBe('tightened');
 		expect(r.history).toHaveLength(1);
 		expect(r.history[0]).toMatchObject({ from: 'normal', to: 'tightened' });
+		// The reason names the window it counted: 2 not accepted among the last 4 lots.
+		expect(r.history[0].reason).toMatch(/^2 of the last 4 lots on normal inspection were not accepted/);
 	});
 	it('does not switch when the two rejections are six lots apart', () => {
 		const r = switchingState([lot(false), ...many(4, true), lot(false)], ACZERO);

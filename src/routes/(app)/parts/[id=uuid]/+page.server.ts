@@ -13,6 +13,7 @@ import {
 } from '$lib/server/services/parts';
 import { InputError } from '$lib/server/services/lots';
 import { listSuppliers } from '$lib/server/services/suppliers';
+import { currentSeverity } from '$lib/server/services/switching';
 import { partDescriptiveSchema, partLimitsSchema } from '$lib/schemas/part';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -25,7 +26,10 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const part = await getPart(db, params.id);
 	if (!part) error(404, 'No such part');
 	const [suppliers, models] = await Promise.all([listSuppliers(db), approvedModels(db, part.chemistry)]);
+	// The ISO 2859-1 severity now, with the switches and lots that led to it.
+	const severity = await currentSeverity(db, part.supplierId, part.id);
 	return {
+		severity,
 		part: { ...part, createdAt: part.createdAt.toISOString(), updatedAt: part.updatedAt.toISOString() },
 		descriptiveForm: await superValidate(descriptiveFormValues(part), zod4(partDescriptiveSchema), { id: DESCRIPTIVE, errors: false }),
 		limitsForm: await superValidate(limitsFormValues(part), zod4(partLimitsSchema), { id: LIMITS, errors: false }),

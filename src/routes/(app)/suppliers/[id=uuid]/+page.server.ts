@@ -28,7 +28,8 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 			aql: p.aql,
 			level: p.inspectionLevel,
 			severity: severities[i].severity,
-			decidedLots: severities[i].lots.length
+			decidedLots: severities[i].lots.length,
+			severityView: severities[i]
 		})),
 		form: await superValidate(zod4(contactSchema), { id: FORM_ID }),
 		may: { edit: can(locals.user, 'supplier:edit'), registerLot: can(locals.user, 'lot:create'), addPart: can(locals.user, 'part:edit') }
