@@ -17,7 +17,7 @@ const { ensureDatabase, ensurePostgres } = await import('./lib/pg.mjs');
 const { startMailPeer } = await import('./lib/mail-peer.mjs');
 const { migrateDatabase } = await import('./lib/migrate.mjs');
 const { ensureBuild } = await import('./lib/build.mjs');
-const { appEnv, authSecret } = await import('./lib/env.mjs');
+const { appEnv, authSecret, SERVER_NODE_FLAGS } = await import('./lib/env.mjs');
 
 const cleanups = [];
 let databaseUrl = process.env.DATABASE_URL;
@@ -36,22 +36,24 @@ if (!process.env.SMTP_URL) {
 	cleanups.unshift(peer.stop);
 }
 
-await migrateDatabase(databaseUrl, root);
-const seedCode = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...process.env, DATABASE_URL: databaseUrl } });
-if (seedCode !== 0) throw new Error('seeding the demo scenario failed');
-await ensureBuild(root);
-
 const port = await firstFreePort(Number(process.env.PORT ?? 3000));
 const env = appEnv({ port, databaseUrl, smtpPort, mailHttpPort, secret: authSecret(dataRoot) });
-const app = spawn(process.execPath, ['build'], { env, stdio: 'inherit' });
+
+await migrateDatabase(databaseUrl, root);
+// The seed decides demo lots, which writes supplier notices with portal links: give it the app's origin.
+const seedCode = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...process.env, DATABASE_URL: databaseUrl, ORIGIN: env.ORIGIN } });
+if (seedCode !== 0) throw new Error('seeding the demo scenario failed');
+await ensureBuild(root);
+const app = spawn(process.execPath, [...SERVER_NODE_FLAGS, 'build'], { env, stdio: 'inherit' });
 cleanups.unshift(() => new Promise((r) => (app.exitCode !== null ? r() : (app.once('exit', r), app.kill('SIGTERM')))));
 await waitForHttp(`http://127.0.0.1:${port}/api/v1/health`, { timeoutMs: 60_000 });
 
 console.log(`
   Restvolt is running at ${env.ORIGIN}
-  Demo sign-ins (password for staff: see README — demo only):
-    buyer@restvolt.example · inspector@restvolt.example · quality@restvolt.example · admin@restvolt.example
-    supplier contacts sign in by e-mailed link, e.g. notices@voltaria-cells.example
+  Demo sign-ins (invented demo data; the password is for demo staff only):
+    buyer@kestrel-mobility.example · inspector@kestrel-mobility.example · quality@kestrel-mobility.example
+    admin@kestrel-mobility.example — password restvolt-demo-2026
+    suppliers sign in by e-mailed link, e.g. supplier@voltaria-cells.example (read the link in the mail below)
   Sent mail: ${mailHttpPort ? `http://127.0.0.1:${mailHttpPort}/` : env.SMTP_URL}
   Ctrl-C stops the app, the mail peer and PostgreSQL.
 `);

@@ -68,6 +68,15 @@ describe('TrendChart', () => {
 		expect(texts(noPpm)).not.toContain('rejected (ppm)');
 	});
 
+	it('names its axes and legend after what the caller counts', () => {
+		const labelled = render(TrendChart, { props: { points, countLabel: 'lots', ppmLabel: 'nonconforming ppm' } }).body;
+		const words = texts(labelled);
+		expect(words).toContain('lots');
+		expect(words).toContain('nonconforming (ppm)');
+		expect(words).toContain('nonconforming ppm (right axis)');
+		expect(words).not.toContain('rejected (ppm)');
+	});
+
 	it('thins period labels when there are too many to fit', () => {
 		const many = Array.from({ length: 30 }, (_, i) => ({ period: `W${i + 10}-2025`, received: 10, accepted: 9, held: 1, rejected: 0 }));
 		const markup = render(TrendChart, { props: { points: many, width: 600 } }).body;
