@@ -1,18 +1,12 @@
 import { pgEnum } from 'drizzle-orm/pg-core';
+// One list of lot states and transport modes, shared with the forms and the API (relative import:
+// drizzle-kit reads this file without SvelteKit's aliases).
+import { LOT_STATUSES, TRANSPORTS } from '../../../schemas/lot';
 
 export const roleEnum = pgEnum('role', ['buyer', 'inspector', 'quality', 'supplier', 'admin']);
 export const organisationKindEnum = pgEnum('organisation_kind', ['own', 'supplier']);
-export const lotStatusEnum = pgEnum('lot_status', [
-	'draft',
-	'awaiting_arrival',
-	'in_inspection',
-	'pending_decision',
-	'accepted',
-	'on_hold',
-	'rejected',
-	'cancelled'
-]);
-export const transportEnum = pgEnum('transport_mode', ['air', 'sea', 'road', 'rail']);
+export const lotStatusEnum = pgEnum('lot_status', LOT_STATUSES);
+export const transportEnum = pgEnum('transport_mode', TRANSPORTS);
 export const documentKindEnum = pgEnum('document_kind', [
 	'coc',
 	'un38_3_summary',
