@@ -31,6 +31,11 @@ afterAll(async () => {
 
 const get = (path: string, headers: Record<string, string> = {}) => fetch(`${app.url}${path}`, { redirect: 'manual', headers });
 const me = (headers: Record<string, string>) => get('/api/v1/me', headers);
+/** The lot evaluation endpoint checks a bearer token in its own statement (auth.ts): same refusals as everywhere. */
+async function evaluation(headers: Record<string, string>) {
+	const lotId = await withClient(db.url, async (c) => (await c.query('select id from lots order by created_at limit 1')).rows[0].id);
+	return get(`/api/v1/lots/${lotId}/evaluation`, headers);
+}
 const passwordPost = (email: string, password: string) => postForm(app.url, '/signin?/password', { email, password, redirectTo: '/' });
 
 async function auditCount(action: string, email: string): Promise<number> {
@@ -142,8 +147,10 @@ describe('API tokens', () => {
 		expect((await me({})).status).toBe(401);
 		expect((await me({ authorization: 'Bearer rv_not-a-token' })).status).toBe(401);
 
+		expect((await evaluation({ authorization: 'Bearer rv_not-a-token' })).status).toBe(401);
 		const token = await tokenFor(db.url, BUYER);
 		expect((await me({ authorization: `Bearer ${token}` })).status).toBe(200);
+		expect((await evaluation({ authorization: `Bearer ${token}` })).status).toBe(200);
 		const tokenId = await withClient(db.url, async (c) => (await c.query('select id from api_tokens where prefix = $1', [token.slice(0, 10)])).rows[0].id);
 		const admin = await signInApi(app.url, ADMIN);
 		const revoke = await postForm(app.url, '/admin/tokens?/revoke', { tokenId }, admin);
@@ -151,6 +158,7 @@ describe('API tokens', () => {
 		const res = await me({ authorization: `Bearer ${token}` });
 		expect(res.status).toBe(401);
 		expect((await res.json()).error.code).toBe('unauthenticated');
+		expect((await evaluation({ authorization: `Bearer ${token}` })).status).toBe(401);
 		expect(await auditCount('token.revoked', ADMIN)).toBe(1);
 		expect(await auditCount('token.created', 'command line')).toBeGreaterThanOrEqual(2);
 	});
@@ -243,10 +251,12 @@ describe('admin changes and password links', () => {
 		const person = 'quality@kestrel-mobility.example';
 		const session = await signInApi(app.url, person);
 		const token = await tokenFor(db.url, person);
+		expect((await evaluation({ authorization: `Bearer ${token}` })).status).toBe(200);
 		const res = await postForm(app.url, '/admin/users?/active', { userId: await userId(person), active: 'false' }, admin);
 		expect(res.status).toBe(200);
 		expect((await me({ cookie: session })).status).toBe(401);
 		expect((await me({ authorization: `Bearer ${token}` })).status).toBe(401);
+		expect((await evaluation({ authorization: `Bearer ${token}` })).status).toBe(401);
 		expect((await passwordPost(person, DEMO_PASSWORD)).status).toBe(400);
 		expect(await auditCount('user.deactivated', ADMIN)).toBe(1);
 	});

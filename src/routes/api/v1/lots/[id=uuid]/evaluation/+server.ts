@@ -16,7 +16,8 @@ async function withTokenUser(event: RequestEvent): Promise<LotRevision | null> {
 /**
  * GET /api/v1/lots/{id}/evaluation — the disposition computed from the stored readings, served
  * from the revision-keyed cache while nothing that feeds it changed. ETag = the lot's revision;
- * `If-None-Match` → 304. `?detail=summary` leaves out the per-unit results and the inputs snapshot.
+ * `If-None-Match` → 304. The body is services/evaluation-body.ts's served form (no readings snapshot,
+ * unit numbers to 1e-6); `?detail=summary` also leaves out the per-unit results and the inputs.
  */
 export const GET: RequestHandler = api(async (event) => {
 	// A bearer token is checked here, in the same statement as the lot read (auth.ts lists this route).
