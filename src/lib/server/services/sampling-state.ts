@@ -10,11 +10,14 @@
  * takes it before touching lots), so a replay always sees the decisions committed before it and no
  * older replay can overwrite a newer one.
  */
+import { alertInspectionDiscontinued } from './staff-alerts';
 import { sql, type SQL } from 'drizzle-orm';
 import type { SwitchingState } from '$lib/inspection';
 import type { Database, Tx } from '../db';
 import { inspectionResumptions, samplingStates } from '../db/schema';
 import { currentSeverity, type SeverityView } from './switching';
+import { recordAudit } from './audit';
+import { conflict, notFound } from '../http';
 
 const lockKey = (partIdSql: SQL) => sql`hashtext('restvolt.sampling:' || ${partIdSql}::text)`;
 
@@ -45,10 +48,16 @@ function rowOf(supplierId: string, partId: string, view: SeverityView) {
 /** Replay now and store the result; inside the transaction that wrote the decision or resumption. */
 export async function refreshSamplingState(tx: Tx, supplierId: string, partId: string): Promise<SeverityView> {
 	await lockSamplingOfPart(tx, partId);
+	const before = await storedRow(tx, supplierId, partId);
 	const view = await currentSeverity(tx, supplierId, partId);
 	const row = rowOf(supplierId, partId, view);
 	const { supplierId: _s, partId: _p, ...changes } = row;
 	await tx.insert(samplingStates).values(row).onConflictDoUpdate({ target: [samplingStates.supplierId, samplingStates.partId], set: changes });
+	// Entering discontinuation (ISO 2859-1 9.4) alerts buyers and quality, in this same transaction.
+	const lastLot = view.lots.at(-1);
+	if (view.severity === 'discontinued' && before?.severity !== 'discontinued' && lastLot) {
+		await alertInspectionDiscontinued(tx, lastLot.lot_id, view);
+	}
 	return view;
 }
 
@@ -89,4 +98,28 @@ export async function recordResumption(tx: Tx, input: ResumptionInput): Promise<
 	await lockSamplingOfPart(tx, input.partId);
 	await tx.insert(inspectionResumptions).values({ supplierId: input.supplierId, partId: input.partId, reason: input.reason, resumedBy: input.resumedBy });
 	return refreshSamplingState(tx, input.supplierId, input.partId);
+}
+
+/**
+ * Quality resumes discontinued inspection after accepting the supplier's corrective action
+ * (ISO 2859-1 9.4); the next lots are inspected on tightened inspection.
+ */
+export async function resumeInspection(db: Database, user: { id: string; email: string }, partId: string, reason: string): Promise<SeverityView> {
+	return db.transaction(async (tx) => {
+		const [part] = (await tx.execute<{ supplier_id: string }>(sql`select supplier_id from parts where id = ${partId}`)).rows;
+		if (!part) throw notFound('part');
+		await lockSamplingOfPart(tx, partId);
+		const now = await currentSeverity(tx, part.supplier_id, partId);
+		if (now.severity !== 'discontinued') throw conflict(`Inspection of this part is ${now.severity}, not discontinued; there is nothing to resume.`);
+		const view = await recordResumption(tx, { supplierId: part.supplier_id, partId, reason, resumedBy: user.id });
+		await recordAudit(tx, {
+			actorId: user.id,
+			actorEmail: user.email,
+			action: 'inspection.resumed',
+			entityType: 'part',
+			entityId: partId,
+			details: { reason, severity: view.severity }
+		});
+		return view;
+	});
 }

@@ -21,7 +21,8 @@ export const notices = pgTable(
 		organisationId: uuid('organisation_id')
 			.notNull()
 			.references(() => organisations.id),
-		kind: text('kind', { enum: ['accept', 'hold', 'reject', 'override'] }).notNull(),
+		// 'alert': an internal message to the receiving company's buyers and quality managers (organisation = own).
+		kind: text('kind', { enum: ['accept', 'hold', 'reject', 'override', 'alert'] }).notNull(),
 		recipients: text('recipients').array().notNull(),
 		subject: text('subject').notNull(),
 		bodyText: text('body_text').notNull(),

@@ -14,11 +14,15 @@ import {
 import { InputError } from '$lib/server/services/lots';
 import { listSuppliers } from '$lib/server/services/suppliers';
 import { currentSeverity } from '$lib/server/services/switching';
+import { resumeInspection } from '$lib/server/services/sampling-state';
+import { ApiError } from '$lib/server/http';
+import { resumeSchema } from '$lib/schemas/resume';
 import { partDescriptiveSchema, partLimitsSchema } from '$lib/schemas/part';
 import type { Actions, PageServerLoad } from './$types';
 
 const DESCRIPTIVE = 'part-descriptive';
 const LIMITS = 'part-limits';
+const RESUME = 'part-resume';
 
 export const load: PageServerLoad = async ({ locals, params }) => {
 	if (!can(locals.user, 'part:read')) error(403, 'Your role may not read parts');
@@ -35,7 +39,8 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		limitsForm: await superValidate(limitsFormValues(part), zod4(partLimitsSchema), { id: LIMITS, errors: false }),
 		suppliers: suppliers.map((s) => ({ id: s.id, name: s.name })),
 		models: models.map((m) => ({ id: m.id, label: `${m.version} — ${m.name}${m.origin === 'fitted' ? ' (fitted)' : ''}` })),
-		may: { edit: can(locals.user, 'part:edit'), limits: can(locals.user, 'part:limits') }
+		resumeForm: await superValidate(zod4(resumeSchema), { id: RESUME }),
+		may: { edit: can(locals.user, 'part:edit'), limits: can(locals.user, 'part:limits'), resume: can(locals.user, 'sampling:resume') }
 	};
 };
 
@@ -69,5 +74,18 @@ export const actions: Actions = {
 		}
 		message(form, 'Limits and sampling saved.');
 		return { limitsForm: form };
+	},
+	resume: async (event) => {
+		if (!can(event.locals.user, 'sampling:resume')) error(403, 'Only quality managers resume inspection');
+		const form = await superValidate(event, zod4(resumeSchema), { id: RESUME });
+		if (!form.valid) return fail(400, { resumeForm: form });
+		try {
+			await resumeInspection(getDb(), event.locals.user!, event.params.id, form.data.reason);
+		} catch (e) {
+			if (!(e instanceof ApiError)) throw e;
+			return message(form, e.message, { status: e.status === 404 ? 404 : 409 });
+		}
+		message(form, 'Inspection resumed on tightened inspection.');
+		return { resumeForm: form };
 	}
 };

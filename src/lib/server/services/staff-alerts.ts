@@ -1,0 +1,64 @@
+/**
+ * Internal alerts to the receiving company's buyers and quality managers, sent through the same
+ * outbox as supplier notices (organisation = own company, kind 'alert'), so they are written in
+ * the transaction of the event that raised them and are never lost or sent twice.
+ */
+import { and, eq, inArray } from 'drizzle-orm';
+import type { Tx } from '../db';
+import { lots, notices, organisations, parts, users } from '../db/schema';
+import type { SeverityView } from './switching';
+import { recordAudit } from './audit';
+import { appOrigin } from './notices';
+
+const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+
+async function staffRecipients(tx: Tx): Promise<string[]> {
+	const rows = await tx
+		.select({ email: users.email })
+		.from(users)
+		.where(and(inArray(users.role, ['buyer', 'quality']), eq(users.active, true)));
+	return [...new Set(rows.map((r) => r.email.toLowerCase()))];
+}
+
+/** ISO 2859-1 9.4: inspection of a supplier × part is discontinued; buyer and quality must act. */
+export async function alertInspectionDiscontinued(tx: Tx, lotId: string, view: SeverityView): Promise<string | null> {
+	const [row] = await tx
+		.select({ lotCode: lots.lotCode, partId: parts.id, partNumber: parts.partNumber, supplier: organisations.name })
+		.from(lots)
+		.innerJoin(parts, eq(parts.id, lots.partId))
+		.innerJoin(organisations, eq(organisations.id, lots.supplierId))
+		.where(eq(lots.id, lotId));
+	const [own] = await tx.select({ id: organisations.id }).from(organisations).where(eq(organisations.kind, 'own')).limit(1);
+	const recipients = await staffRecipients(tx);
+	if (!row || !own || recipients.length === 0) return null;
+	const subject = `Inspection discontinued: ${row.supplier} ${row.partNumber} (after lot ${row.lotCode})`;
+	const partUrl = `${appOrigin()}/parts/${row.partId}`;
+	const lines = [
+		`Sampling inspection of ${row.partNumber} from ${row.supplier} is discontinued.`,
+		'',
+		`Five lots were not accepted while inspection was tightened (ISO 2859-1, clause 9.4); the last was lot ${row.lotCode}.`,
+		'',
+		'What happens now:',
+		'- New lots of this part from this supplier are held on arrival until inspection is resumed.',
+		'- Buyer: ask the supplier for a corrective action and agree what happens to open orders.',
+		'- Quality: review the corrective action; when it is accepted, resume inspection on the part page (it restarts on tightened inspection).',
+		'',
+		`Switching history and the resume form: ${partUrl}`,
+		'',
+		`The last decided lots: ${view.lots.slice(-8).map((l) => `${l.lot_code} ${l.accepted ? 'accepted' : 'not accepted'}`).join(', ')}.`
+	];
+	const text = lines.join('\n');
+	const html = `<p>${lines.map(escapeHtml).join('<br>')}</p>`.replace(escapeHtml(partUrl), `<a href="${escapeHtml(partUrl)}">${escapeHtml(partUrl)}</a>`);
+	const [notice] = await tx
+		.insert(notices)
+		.values({ lotId, organisationId: own.id, kind: 'alert', recipients, subject, bodyText: text, bodyHtml: html })
+		.returning({ id: notices.id });
+	await recordAudit(tx, {
+		action: 'inspection.discontinued',
+		entityType: 'part',
+		entityId: row.partId,
+		lotId,
+		details: { notice_id: notice.id, recipients, severity: view.severity }
+	});
+	return notice.id;
+}
