@@ -210,7 +210,7 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 describe('GET /api/v1/sampling/plan', () => {
 	// Expected values: MIL-STD-105E Table I (code letters) and Tables II-A/II-B/II-C (single sampling,
 	// normal/tightened/reduced), identical to ISO 2859-1:1999. Cells cross-checked against the inspection
-	// core's own unit tests (an independent transcription), otherwise from memory.
+	// core's own unit tests (an independent copy of the tables), otherwise from memory.
 	const cases: Array<[string, Record<string, unknown>]> = [
 		['lot_size=500&aql=1&level=II', { code_letter: 'H', plan_code_letter: 'H', sample_size: 50, accept: 1, reject: 2, hundred_percent: false }],
 		['lot_size=500&aql=2.5', { code_letter: 'H', plan_code_letter: 'H', sample_size: 50, accept: 3, reject: 4, hundred_percent: false }],
