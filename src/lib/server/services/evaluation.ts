@@ -133,14 +133,22 @@ async function severityFor(db: Database | Tx, lot: LoadedLot['lot']): Promise<Sw
 	return view.severity;
 }
 
-/** The sample size the lot's plan asks for now (part AQL and level, lot size, current severity). */
+/** The lot's sampling plan now: part AQL and level, lot size and the switching state. */
+async function planForLot(db: Database | Tx, { lot, part }: LoadedLot) {
+	const state = await severityFor(db, lot);
+	const level = part.inspectionLevel as InspectionLevel;
+	// Discontinued inspection has no plan of its own: the next plan on resumption is tightened (9.4).
+	const severity: Severity = state === 'discontinued' ? 'tightened' : state;
+	const planRequest = { lot_size: lot.quantity, aql: part.aql, level, severity };
+	const plan = samplingPlan({ lotSize: lot.quantity, aql: part.aql, level, severity });
+	return { state, level, planRequest, plan };
+}
+
+/** The sample size the lot's plan asks for now. */
 export async function requiredSampleSize(db: Database | Tx, lotId: string): Promise<number> {
 	const row = await loadLot(db, lotId);
 	if (!row) throw new EvaluationError('lot_not_found', 'lot not found');
-	const state = await severityFor(db, row.lot);
-	const severity: Severity = state === 'discontinued' ? 'tightened' : state;
-	const level = row.part.inspectionLevel as InspectionLevel;
-	return samplingPlan({ lotSize: row.lot.quantity, aql: row.part.aql, level, severity }).sample_size;
+	return (await planForLot(db, row)).plan.sample_size;
 }
 
 /** Everything computed from the stored readings, reproducible from `inputs`. */
@@ -152,12 +160,7 @@ export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<
 	// One after another: inside a transaction these share a single connection.
 	const documents = await documentKinds(db, lotId);
 	const stored = await loadReadings(db, lotId);
-	const state = await severityFor(db, lot);
-	const level = part.inspectionLevel as InspectionLevel;
-	// Discontinued inspection has no plan of its own: the next plan on resumption is tightened (9.4).
-	const severity: Severity = state === 'discontinued' ? 'tightened' : state;
-	const planRequest = { lot_size: lot.quantity, aql: part.aql, level, severity };
-	const plan = samplingPlan({ lotSize: lot.quantity, aql: part.aql, level, severity });
+	const { state, level, planRequest, plan } = await planForLot(db, row);
 	const lotInfo: LotInfo = {
 		quantity: lot.quantity,
 		declared_soc: lot.declaredSoc,
