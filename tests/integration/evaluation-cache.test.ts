@@ -12,6 +12,7 @@ import { measuredLot, PART } from './decisions-fixtures';
 import { call, type Caller } from './readings-fixtures';
 import { closeDb, getDb } from '../../src/lib/server/db';
 import { currentSeverity } from '../../src/lib/server/services/switching';
+import { getLibraryModel } from '../../src/lib/electrochem/models';
 
 let app: RunningApp;
 let db: Awaited<ReturnType<typeof freshDatabase>>;
@@ -98,6 +99,23 @@ describe('GET /api/v1/lots/{id}/evaluation cache', () => {
 		const decided = await evaluation(lot.id);
 		expect(decided.etag).not.toBe(restored.etag);
 		expect(decided.json.inputs.lot.status).toBe('accepted');
+	});
+
+	it('serves ASCII-only bytes whose parsed text keeps every non-ASCII character (minus sign, middle dot, Greek, degree sign)', async () => {
+		expect.hasAssertions();
+		const lot = await measuredLot(buyer, inspector, 'accept');
+		for (const round of ['computed', 'cached']) {
+			const res = await fetch(`${app.url}/api/v1/lots/${lot.id}/evaluation`, { headers: { authorization: `Bearer ${inspector.token}` } });
+			expect(res.headers.get('server-timing'), round).toContain(round);
+			const bytes = new Uint8Array(await res.arrayBuffer());
+			expect(res.headers.get('content-length')).toBe(String(bytes.length));
+			expect(bytes.every((b) => b < 0x80)).toBe(true);
+			const served = JSON.parse(new TextDecoder('utf-8', { fatal: true }).decode(bytes));
+			// The NMC model's source note is written with U+2212, U+00B7, U+03B5 and °.
+			const source = getLibraryModel('NMC').source;
+			expect(source).toMatch(/[^\x00-\x7f]/);
+			expect(served.inputs.model.source).toBe(source);
+		}
 	});
 });
 

@@ -13,7 +13,7 @@ import { bearer, checkTwin, EVALUATION_TWIN } from '../lib/static-twins';
 
 const CONNECTIONS = 50;
 const SECONDS = 10;
-const ROUNDS = 2;
+const ROUNDS = 3;
 
 interface CannonResult {
 	requestsPerSecond: number;

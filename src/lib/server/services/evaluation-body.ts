@@ -4,6 +4,10 @@
  * row of a decision keeps the full snapshot) and with per-unit numbers rounded to 1e-6 — 1 µV,
  * 0.0001 % SOC, far below any meter's resolution, as POST /api/v1/ocv/evaluate does. About 30 %
  * fewer bytes than the full form, and the body is most of what each request moves.
+ *
+ * Stored and served as ASCII-only JSON (`servedJson`): one reason message with an en dash or a ±
+ * would otherwise make the whole body a two-byte string in V8 (twice the memory per request) and
+ * force a UTF-8 transcoding on every read and write; escaped, the bytes are the characters.
  */
 import type { LotEvaluation } from './evaluation';
 
@@ -28,4 +32,18 @@ export function servedEvaluation(evaluation: LotEvaluation): ServedEvaluation {
 		self_discharge_mv_per_day: round6(u.self_discharge_mv_per_day)
 	}));
 	return { ...evaluation, units, inputs };
+}
+
+/** Any character outside ASCII (JSON.stringify emits them only inside strings). */
+const NON_ASCII = /[\u0080-\uffff]/g;
+
+const escapeUnit = (c: string) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`;
+
+/**
+ * JSON text of a value with every non-ASCII UTF-16 unit written as a `\uXXXX` escape: the same
+ * value when parsed (RFC 8259 section 7; a surrogate pair becomes two escapes), and each character is
+ * one byte, so the text's Latin-1 and UTF-8 encodings are the same bytes.
+ */
+export function servedJson(value: unknown): string {
+	return JSON.stringify(value).replace(NON_ASCII, escapeUnit);
 }

@@ -10,7 +10,7 @@
 import { sql } from 'drizzle-orm';
 import { getPool, type Database } from '../db';
 import { evaluateLotNow } from './evaluation';
-import { servedEvaluation } from './evaluation-body';
+import { servedEvaluation, servedJson } from './evaluation-body';
 import { hashToken, LIVE_TOKEN, tokenUserOf, TOKEN_USER_COLUMNS, TOKEN_USER_FROM, type TokenUserRow } from './tokens';
 import type { SessionUser } from '../../roles';
 
@@ -18,7 +18,7 @@ export interface LotRevision {
 	lotId: string;
 	supplierId: string;
 	revision: number;
-	/** The cached full body at this revision, or null. */
+	/** The cached full body at this revision (ASCII-only JSON, see evaluation-body.ts), or null. */
 	body: string | null;
 }
 
@@ -60,9 +60,9 @@ export async function tokenUserAndLotRevision(token: string, lotId: string): Pro
 	return { user: await tokenUserOf(row), lot };
 }
 
-/** Compute the evaluation now and store its served form (evaluation-body.ts) under the revision read before. */
+/** Compute the evaluation now and store its served form (evaluation-body.ts: ASCII-only JSON) under the revision read before. */
 export async function computeAndCache(db: Database, lot: LotRevision): Promise<string> {
-	const body = JSON.stringify(servedEvaluation(await evaluateLotNow(db, lot.lotId)));
+	const body = servedJson(servedEvaluation(await evaluateLotNow(db, lot.lotId)));
 	await db.execute(sql`
 		insert into lot_evaluations_cache (lot_id, revision, body, computed_at)
 		values (${lot.lotId}, ${lot.revision}, ${body}, now())

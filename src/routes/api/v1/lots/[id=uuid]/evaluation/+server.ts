@@ -13,6 +13,16 @@ async function withTokenUser(event: RequestEvent): Promise<LotRevision | null> {
 	return found.lot;
 }
 
+/** The bytes as a one-chunk stream: a Response copies a Buffer body once more, a stream's chunk it hands on as is. */
+function oneChunk(bytes: Uint8Array): ReadableStream<Uint8Array> {
+	return new ReadableStream({
+		start(controller) {
+			controller.enqueue(bytes);
+			controller.close();
+		}
+	});
+}
+
 /**
  * GET /api/v1/lots/{id}/evaluation — the disposition computed from the stored readings, served
  * from the revision-keyed cache while nothing that feeds it changed. ETag = the lot's revision;
@@ -39,7 +49,8 @@ export const GET: RequestHandler = api(async (event) => {
 		const { units, inputs: _inputs, ...rest } = JSON.parse(body) as { units: unknown[]; inputs: unknown };
 		return json({ ...rest, unit_count: units.length }, { headers });
 	}
-	// Bytes with their length: one write, no chunked encoding.
-	const bytes = Buffer.from(body, 'utf8');
-	return new Response(bytes, { headers: { ...headers, 'content-type': 'application/json', 'content-length': String(bytes.length) } });
+	// Bytes with their length: one write, no chunked encoding. The body is ASCII-only (servedJson),
+	// so Latin-1 gives its UTF-8 bytes with a plain copy.
+	const bytes = Buffer.from(body, 'latin1');
+	return new Response(oneChunk(bytes), { headers: { ...headers, 'content-type': 'application/json', 'content-length': String(bytes.length) } });
 });
