@@ -10,6 +10,7 @@ import { fileURLToPath } from 'node:url';
 import { ensureDatabase, ensurePostgres } from './lib/pg.mjs';
 import { migrateDatabase } from './lib/migrate.mjs';
 import { freePort, runInherit } from './lib/proc.mjs';
+import { cpuPlan, pinPostgres } from './lib/cpus.mjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 process.chdir(root);
@@ -44,6 +45,8 @@ let pg;
 let exitCode = 1;
 try {
 	pg = await ensurePostgres({ dataDir: join(scratch, 'pg'), preferredPort: await freePort(), throwaway: true, log: quiet });
+	const cpus = cpuPlan();
+	if (cpus) pinPostgres(pg.dataDir, cpus.rest);
 	const databaseUrl = await ensureDatabase(pg.url, 'restvolt_bench');
 	await migrateDatabase(databaseUrl, root);
 	const { NODE_ENV: _production, ...seedEnv } = process.env; // the demo seed refuses NODE_ENV=production
@@ -60,7 +63,9 @@ try {
 			BENCH_PG_URL: pg.url,
 			BENCH_PG_BIN: pg.bin,
 			BENCH_BUILD_DIR: buildDir,
-			BENCH_SCRATCH: scratch
+			BENCH_SCRATCH: scratch,
+			BENCH_APP_CPUS: cpus?.app ?? '',
+			BENCH_REST_CPUS: cpus?.rest ?? ''
 		}
 	});
 } catch (error) {

@@ -18,6 +18,7 @@ import { benchEvaluationLoad } from './ops/evaluation-load';
 import { benchLotList } from './ops/lot-list';
 import { benchClientWeight } from './ops/client-weight';
 import { EVALUATE_TWIN, EVALUATION_TWIN, writeStaticTwins } from './lib/static-twins';
+import { placement } from './lib/cpus';
 
 const need = (name: string) => {
 	const value = process.env[name];
@@ -31,7 +32,7 @@ const seconds = (since: number) => `${((performance.now() - since) / 1000).toFix
 async function printMachine(databaseUrl: string) {
 	const pgVersion = await withClient(databaseUrl, async (c) => (await c.query('show server_version')).rows[0].server_version as string);
 	const cpu = cpus();
-	console.log(`machine cores=${cpu.length} cpu="${cpu[0]?.model.trim() ?? 'unknown'}" memory=${(totalmem() / 1024 ** 3).toFixed(1)}GB node=${process.version} postgres=${pgVersion} platform=${process.platform}-${process.arch}`);
+	console.log(`machine cores=${cpu.length} cpu="${cpu[0]?.model.trim() ?? 'unknown'}" memory=${(totalmem() / 1024 ** 3).toFixed(1)}GB node=${process.version} postgres=${pgVersion} platform=${process.platform}-${process.arch} cpus=${placement()}`);
 }
 
 /** Lines that were measured; `false` entries mark operations that could not run. */

@@ -4,6 +4,7 @@ import { randomBytes } from 'node:crypto';
 import { resolve } from 'node:path';
 import { appEnv, SERVER_NODE_FLAGS } from '../../../scripts/lib/env.mjs';
 import { freePort, waitForHttp } from '../../../scripts/lib/proc.mjs';
+import { placed } from './cpus';
 
 export interface BenchApp {
 	url: string;
@@ -29,7 +30,8 @@ export async function startBenchApp(databaseUrl: string, buildDir: string): Prom
 	let output = '';
 	// Started as `npm start` starts it (same V8 flags). BENCH_PROFILE_DIR=/some/dir writes a V8 CPU profile of the app there when it stops (node --cpu-prof).
 	const profile = process.env.BENCH_PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE_DIR}`] : [];
-	const child = spawn(process.execPath, [...SERVER_NODE_FLAGS, ...profile, buildDir], { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
+	const [command, args] = placed('app', process.execPath, [...SERVER_NODE_FLAGS, ...profile, buildDir]);
+	const child = spawn(command, args, { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
 	child.stdout.on('data', (d) => (output += d));
 	child.stderr.on('data', (d) => (output += d));
 	const url = `http://127.0.0.1:${port}`;

@@ -10,9 +10,11 @@ import { ROOT } from '../lib/app';
 import { staticPath, type BenchContext } from '../lib/context';
 import { median, type BenchLine } from '../lib/measure';
 import { bearer, checkTwin, EVALUATION_TWIN } from '../lib/static-twins';
+import { placed } from '../lib/cpus';
 
 const CONNECTIONS = 50;
 const SECONDS = 10;
+// Three rounds: the static floor alone varies by a third between identical runs on a 2-core machine.
 const ROUNDS = 3;
 
 interface CannonResult {
@@ -27,7 +29,8 @@ function autocannon(url: string, seconds: number, headers: Record<string, string
 	for (const [k, v] of Object.entries(headers)) args.push('-H', `${k}=${v}`);
 	args.push(url);
 	return new Promise((resolve, reject) => {
-		const child = spawn(process.execPath, [join(ROOT, 'node_modules/autocannon/autocannon.js'), ...args], { stdio: ['ignore', 'pipe', 'pipe'] });
+		const [command, argv] = placed('load', process.execPath, [join(ROOT, 'node_modules/autocannon/autocannon.js'), ...args]);
+		const child = spawn(command, argv, { stdio: ['ignore', 'pipe', 'pipe'] });
 		let out = '';
 		let err = '';
 		child.stdout.on('data', (d) => (out += d));

@@ -1,0 +1,15 @@
+/**
+ * Where the bench's processes run (chosen by scripts/lib/cpus.mjs, passed in BENCH_APP_CPUS and
+ * BENCH_REST_CPUS): the app server on its own core, the load generator with PostgreSQL on the rest.
+ * Empty: no placement (one core, no taskset, or BENCH_PIN=off).
+ */
+export function placed(role: 'app' | 'load', command: string, args: string[]): [string, string[]] {
+	const cpus = role === 'app' ? process.env.BENCH_APP_CPUS : process.env.BENCH_REST_CPUS;
+	return cpus ? ['taskset', ['-c', cpus, command, ...args]] : [command, args];
+}
+
+/** For the machine line: `app=0 postgres+load=1`, or `none`. */
+export function placement(): string {
+	const app = process.env.BENCH_APP_CPUS;
+	return app ? `app=${app} postgres+load=${process.env.BENCH_REST_CPUS}` : 'none';
+}
