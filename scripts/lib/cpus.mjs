@@ -24,9 +24,17 @@ export function cpuPlan() {
 	return { app: '0', rest: cores === 2 ? '1' : `1-${cores - 1}` };
 }
 
+function childPids(pid) {
+	try {
+		return execFileSync('pgrep', ['-P', pid], { encoding: 'utf8' }).split('\n').filter(Boolean);
+	} catch {
+		return []; // pgrep exits 1 when there are none
+	}
+}
+
 /** Pin a running PostgreSQL (postmaster and the processes it already forked; new backends inherit). */
 export function pinPostgres(dataDir, cpus) {
 	const postmaster = readFileSync(join(dataDir, 'postmaster.pid'), 'utf8').split('\n')[0].trim();
-	const children = execFileSync('pgrep', ['-P', postmaster], { encoding: 'utf8' }).split('\n').filter(Boolean);
+	const children = childPids(postmaster);
 	for (const pid of [postmaster, ...children]) execFileSync('taskset', ['-a', '-p', '-c', cpus, pid], { stdio: 'ignore' });
 }
