@@ -98,7 +98,11 @@ async function main() {
 		await attempt(['evaluate-lot-2000'], async () => report(await benchEvaluateLot(ctx)));
 		await attempt(['ocv-evaluate-10000'], async () => report(await benchOcvEvaluate(ctx)));
 		await attempt(['import-xlsx-10000'], async () => report(await benchImportXlsx(ctx)));
-		await attempt(['evaluation-api-load', 'evaluation-api-p99'], async () => (await benchEvaluationLoad(ctx)).forEach(report));
+		await attempt(['evaluation-api-load', 'evaluation-api-p99'], async () => {
+			const result = await benchEvaluationLoad(ctx);
+			result.lines.forEach(report);
+			console.log(result.ceiling);
+		});
 		await attempt(['lot-list-50k'], async () => {
 			const result = await benchLotList(ctx);
 			report(result.line);
