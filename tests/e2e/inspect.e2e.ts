@@ -126,3 +126,33 @@ test('a deep-discharged unit gets the quarantine caution at once, and the server
 	await expect(page.getByTestId('quarantine-caution')).toContainText('VC50G-LOW');
 	await shot(page, 'lot-page-deep-discharge');
 });
+
+test('a mistyped stored reading is corrected in place with a reason, and the evaluation follows', async ({ page }) => {
+	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary', 'sds'] });
+	const inspector: Caller = { base: app.url, token: await tokenFor(db.url, 'inspector@kestrel-mobility.example') };
+	const readings = modelReadings('NMC', 3, 0.3, { prefix: 'VC50G-FIX' });
+	readings[1] = { ...readings[1], ocv_v: 2.05 }; // typed wrong: reads as a deep discharge
+	const saved = await fetch(`${app.url}/api/v1/lots/${lot.id}/readings`, {
+		method: 'POST',
+		headers: { authorization: `Bearer ${inspector.token}`, 'content-type': 'application/json' },
+		body: JSON.stringify({ readings })
+	});
+	expect(saved.status).toBe(201);
+
+	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
+	await page.goto(`${app.url}/lots/${lot.id}/inspect`);
+	await expect(page.getByTestId('server-status')).toHaveAttribute('data-status', 'reject');
+	const wrong = page.getByTestId('stored-row').filter({ hasText: readings[1].serial });
+	await expect(wrong).toContainText('2.0500');
+	await page.getByRole('button', { name: `Correct reading ${readings[1].serial}` }).click();
+	const form = page.getByRole('form', { name: `Correct reading ${readings[1].serial}` });
+	await form.getByLabel('OCV (V)').fill('3.6050');
+	await form.getByRole('button', { name: 'Save correction' }).click();
+	await expect(form.getByText('say why the value was wrong')).toBeVisible(); // no reason: refused, form stays
+	await form.getByLabel('Why the stored value was wrong').fill('first digits swapped when typing');
+	await shot(page, 'correct-reading');
+	await form.getByRole('button', { name: 'Save correction' }).click();
+	await expect(page.getByTestId('correction-row')).toHaveCount(0);
+	await expect(wrong).toContainText('3.6050');
+	await expect(page.getByTestId('server-status')).not.toHaveAttribute('data-status', 'reject');
+});

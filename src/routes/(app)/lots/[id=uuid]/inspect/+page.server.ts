@@ -1,10 +1,12 @@
-import { error } from '@sveltejs/kit';
+import { error, fail } from '@sveltejs/kit';
+import { readingCorrectionSchema } from '$lib/schemas/readings';
+import { ApiError } from '$lib/server/http';
 import { getDb } from '$lib/server/db';
 import { can } from '$lib/server/policy';
 import { evaluateLotNow } from '$lib/server/services/evaluation';
 import { getLotForUser } from '$lib/server/services/lots';
-import { listReadings } from '$lib/server/services/readings';
-import type { PageServerLoad } from './$types';
+import { correctReading, listReadings } from '$lib/server/services/readings';
+import type { Actions, PageServerLoad } from './$types';
 
 /** Readings shown on the page; older ones stay in the lot's readings list and export. */
 const SHOWN = 300;
@@ -31,4 +33,40 @@ export const load: PageServerLoad = async ({ locals, params, depends }) => {
 		canRecord: can(user, 'reading:write', { supplierId: lot.supplierId }),
 		canSubmit: can(user, 'lot:submit', { supplierId: lot.supplierId })
 	};
+};
+
+/** A form number: blank is "not given", a decimal comma is accepted. */
+function formNumber(value: FormDataEntryValue | null): number | undefined {
+	const text = typeof value === 'string' ? value.trim() : '';
+	return text === '' ? undefined : Number(text.replace(',', '.'));
+}
+
+export const actions: Actions = {
+	/** Correct a wrongly typed stored reading, with a reason for the audit trail (as PATCH …/readings/{id}). */
+	correct: async ({ locals, params, request }) => {
+		const user = locals.user!;
+		const db = getDb();
+		const lot = await getLotForUser(db, user, params.id);
+		if (!lot) error(404, 'No such lot');
+		if (!can(user, 'reading:write', { supplierId: lot.supplierId })) error(403, 'Your role may not correct readings');
+		const form = await request.formData();
+		const readingId = Number(form.get('readingId'));
+		if (!Number.isSafeInteger(readingId) || readingId < 1) return fail(400, { readingId: null, errors: {}, message: 'No reading chosen.' });
+		const parsed = readingCorrectionSchema.safeParse({
+			ocv_v: formNumber(form.get('ocv_v')),
+			temperature_c: formNumber(form.get('temperature_c')),
+			reason: form.get('reason') ?? ''
+		});
+		if (!parsed.success) {
+			const errors = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0] ?? 'form'), i.message]));
+			return fail(400, { readingId, errors, message: 'Check the marked fields.' });
+		}
+		try {
+			await correctReading(db, user, lot.id, readingId, parsed.data);
+		} catch (e) {
+			if (e instanceof ApiError) return fail(e.status, { readingId, errors: {}, message: e.message });
+			throw e;
+		}
+		return { corrected: readingId };
+	}
 };
