@@ -67,7 +67,8 @@ describe('correcting a reading on the inspection page', () => {
 		for (const fields of [
 			{ readingId: String(target.id), ocv_v: '3.61', temperature_c: '22', reason: '' },
 			{ readingId: String(target.id), ocv_v: 'three', temperature_c: '22', reason: 'typo' },
-			{ readingId: 'x', ocv_v: '3.61', temperature_c: '22', reason: 'typo' }
+			{ readingId: 'x', ocv_v: '3.61', temperature_c: '22', reason: 'typo' },
+			{ readingId: String(target.id), ocv_v: '', temperature_c: '', reason: 'nothing to change' }
 		]) {
 			const res = await correct(lot.id, fields, inspectorCookie);
 			expect(res.status, JSON.stringify(fields)).toBe(400);

@@ -59,7 +59,7 @@ export const actions: Actions = {
 		});
 		if (!parsed.success) {
 			const errors = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0] ?? 'form'), i.message]));
-			return fail(400, { readingId, errors, message: 'Check the marked fields.' });
+			return fail(400, { readingId, errors, message: errors.form ?? 'Check the marked fields.' });
 		}
 		try {
 			await correctReading(db, user, lot.id, readingId, parsed.data);
