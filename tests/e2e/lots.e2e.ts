@@ -8,7 +8,7 @@ import { expect, test, type Page } from '@playwright/test';
 import { startApp, type RunningApp } from '../helpers/app';
 import { freshDatabase, withClient } from '../helpers/db';
 import { screens } from '../helpers/screens';
-import { signInPage } from '../helpers/auth';
+import { signInPage, tokenFor } from '../helpers/auth';
 
 let app: RunningApp;
 let db: { url: string; drop: () => Promise<void> };
@@ -188,4 +188,33 @@ test('a buyer adds a supplier contact who receives notices', async ({ page }) =>
 		c.query(`select name, receives_notices from supplier_contacts where email = 'returns@ferrolith.example'`)
 	);
 	expect(rows.rows).toEqual([{ name: 'Ferrolith returns desk', receives_notices: true }]);
+});
+
+test('a buyer corrects a lot’s quantity before arrival and the sampling plan follows', async ({ page }) => {
+	const token = await tokenFor(db.url, 'buyer@kestrel-mobility.example');
+	const api = (path: string, init: RequestInit = {}) => fetch(`${app.url}${path}`, { ...init, headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' } });
+	const parts = await (await api('/api/v1/parts')).json();
+	const part = (parts.parts ?? parts).find((p: { part_number: string }) => p.part_number === 'VC-18650-35E');
+	const created = await api('/api/v1/lots', {
+		method: 'POST',
+		body: JSON.stringify({ po_number: 'PO-2026-0533', supplier_id: part.supplier_id, part_id: part.id, quantity: 1200, declared_soc: 0.3, transport: 'sea', un_number: 'UN3480' })
+	});
+	expect(created.status).toBe(201);
+	const lot = await created.json();
+
+	await signInPage(page, app.url, 'buyer@kestrel-mobility.example');
+	await page.goto(`${app.url}/lots/${lot.id}`);
+	await expect(page.getByText('Code letter J')).toBeVisible(); // ISO 2859-1 Table I, level II: 501–1,200 → J
+	await page.getByRole('link', { name: 'Edit purchase facts' }).click();
+	await expect(page.getByRole('heading', { name: `Edit lot ${lot.lot_code}` })).toBeVisible();
+	await expect(page.getByLabel('Quantity (units)')).toHaveValue('1200');
+	await expect(page.getByLabel('Declared SOC at shipment (%)')).toHaveValue('30');
+	await page.getByLabel('Quantity (units)').fill('0');
+	await page.getByRole('button', { name: 'Save changes' }).click();
+	await expect(page.getByText(/at least 1/i)).toBeVisible();
+	await page.getByLabel('Quantity (units)').fill('1250');
+	await shot(page, 'edit-lot');
+	await page.getByRole('button', { name: 'Save changes' }).click();
+	await expect(page.getByText('Changes saved')).toBeVisible();
+	await expect(page.getByText('Code letter K')).toBeVisible(); // Table I, level II: 1,201–3,200 → K
 });

@@ -54,8 +54,10 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 		sampling: samplingView(lot.quantity, part.aql, part.inspectionLevel, severity),
 		history: history.map((h) => ({ ...h, at: h.at.toISOString() })),
 		justRegistered: url.searchParams.has('registered'),
+		justEdited: url.searchParams.has('edited'),
 		may: {
 			release: can(user, 'lot:edit') && lot.status === 'draft',
+			edit: can(user, 'lot:edit') && BEFORE_INSPECTION.includes(lot.status),
 			cancel: can(user, 'lot:cancel') && BEFORE_INSPECTION.includes(lot.status),
 			upload: can(user, 'document:upload') && lot.status !== 'cancelled',
 			inspect: can(user, 'reading:write') && (lot.status === 'awaiting_arrival' || lot.status === 'in_inspection')

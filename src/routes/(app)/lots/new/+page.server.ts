@@ -4,10 +4,9 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
 import { createLot, InputError } from '$lib/server/services/lots';
-import { listSuppliers } from '$lib/server/services/suppliers';
-import { listParts } from '$lib/server/services/parts';
 import { lotFormSchema, lotInputFromForm, type LotForm } from '$lib/schemas/lot';
 import { clientAddress } from '$lib/server/auth';
+import { formField, lotFormChoices } from '../lot-form.server';
 import type { Actions, PageServerLoad } from './$types';
 
 const FORM_ID = 'register-lot';
@@ -15,29 +14,14 @@ const FORM_ID = 'register-lot';
 export const load: PageServerLoad = async ({ locals, url }) => {
 	if (!can(locals.user, 'lot:create')) error(403, 'Only buyers register lots');
 	const db = getDb();
-	const [suppliers, parts] = await Promise.all([listSuppliers(db), listParts(db)]);
+	const choices = await lotFormChoices(db);
 	const form = await superValidate(zod4(lotFormSchema), { id: FORM_ID });
 	// No transport preselected: the buyer states it (the schema's first enum value would otherwise be the default).
 	form.data.transport = '' as LotForm['transport'];
 	const supplier = url.searchParams.get('supplier_id');
-	if (supplier && suppliers.some((s) => s.id === supplier)) form.data.supplier_id = supplier;
-	return {
-		form,
-		suppliers: suppliers.map((s) => ({ id: s.id, name: s.name })),
-		parts: parts.map((p) => ({
-			id: p.id,
-			supplierId: p.supplierId,
-			partNumber: p.partNumber,
-			description: p.description,
-			chemistry: p.chemistry,
-			cellsInSeries: p.cellsInSeries,
-			cellsInParallel: p.cellsInParallel
-		}))
-	};
+	if (supplier && choices.suppliers.some((s) => s.id === supplier)) form.data.supplier_id = supplier;
+	return { form, ...choices };
 };
-
-/** Service field names (API spelling) → this form's field names. */
-const formField = (path: string): keyof LotForm => (path === 'declared_soc' ? 'declared_soc_pct' : (path as keyof LotForm));
 
 export const actions: Actions = {
 	default: async (event) => {
