@@ -54,7 +54,8 @@ describe('editing a lot before it reaches the bench', () => {
 	it('refuses bad input with 400 and changes nothing', async () => {
 		const lot = await createLot(buyer, { partNumber: PART, quantity: 100, declaredSoc: 0.3 });
 		const before = await stored(lot.id);
-		for (const bad of [{ quantity: '0' }, { declared_soc_pct: '140' }, { transport: 'teleport' }, { un_number: 'UN34' }, { part_id: 'not-a-uuid' }]) {
+		const refused: Array<Record<string, string>> = [{ quantity: '0' }, { declared_soc_pct: '140' }, { transport: 'teleport' }, { un_number: 'UN34' }, { part_id: 'not-a-uuid' }];
+		for (const bad of refused) {
 			const res = await postForm(app.url, `/lots/${lot.id}/edit`, await editFields(bad), buyerCookie);
 			expect(res.status, JSON.stringify(bad)).toBe(400);
 		}
