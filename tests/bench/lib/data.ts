@@ -120,6 +120,15 @@ export async function loadScaleData(client: pg.Client): Promise<{ lots: number; 
 		from lots l cross join generate_series(1, $1::int) i where l.lot_code like 'S-%'`,
 		[READINGS_PER_SCALE_LOT]
 	);
-	await client.query('analyze');
+	await settleDatabase(client);
 	return { ...(await counts()), reused: false };
+}
+
+/**
+ * After bulk loads: vacuum and analyse now and write the dirty pages out, so that autovacuum and the
+ * checkpointer do not wake up later on PostgreSQL's core in the middle of a timed operation.
+ */
+export async function settleDatabase(client: pg.Client): Promise<void> {
+	await client.query('vacuum (analyze)');
+	await client.query('checkpoint');
 }

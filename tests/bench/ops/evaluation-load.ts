@@ -59,7 +59,7 @@ async function ceilingNote(ctx: BenchContext, auth: Record<string, string>, endp
 	return `ceiling evaluation-api-load: the same route answering 404 (no body) ${Math.round(rps)}req/s = ${(rps / floorRps).toFixed(2)} of the floor; the endpoint reaches ${Math.round((endpointRps / rps) * 100)} % of that`;
 }
 
-export async function benchEvaluationLoad(ctx: BenchContext): Promise<{ lines: BenchLine[]; ceiling: string }> {
+export async function benchEvaluationLoad(ctx: BenchContext): Promise<{ lines: BenchLine[]; notes: string[] }> {
 	const apiUrl = `${ctx.app.url}/api/v1/lots/${ctx.sampleLotId}/evaluation`;
 	const auth = bearer(ctx.token);
 	const response = await fetch(apiUrl, { headers: auth });
@@ -93,5 +93,7 @@ export async function benchEvaluationLoad(ctx: BenchContext): Promise<{ lines: B
 			target: { on: 'value', op: '<=', value: 50, unit: 'ms' }
 		}
 	];
-	return { lines, ceiling: await ceilingNote(ctx, auth, rps, floorRps) };
+	const each = (runs: CannonResult[]) => runs.map((a) => Math.round(a.requestsPerSecond)).join('/');
+	const rounds = `rounds evaluation-api-load: endpoint ${each(api)} req/s, static ${each(floor)} req/s`;
+	return { lines, notes: [rounds, await ceilingNote(ctx, auth, rps, floorRps)] };
 }
