@@ -156,3 +156,27 @@ test('a mistyped stored reading is corrected in place with a reason, and the eva
 	await expect(wrong).toContainText('3.6050');
 	await expect(page.getByTestId('server-status')).not.toHaveAttribute('data-status', 'reject');
 });
+
+test('a row typed in this sitting can be corrected at once, without reloading the page', async ({ page }) => {
+	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary', 'sds'] });
+	const [row] = modelReadings('NMC', 1, 0.3, { prefix: 'VC50G-NOW' });
+	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
+	await page.goto(`${app.url}/lots/${lot.id}/inspect`);
+	await expect(page.getByLabel('Serial')).toBeFocused();
+	await typeRow(page, { ...row, ocv_v: 2.05 }); // a slip of the fingers: reads as a deep discharge
+	const typed = page.getByTestId('bench-row').filter({ hasText: row.serial });
+	await expect(typed).toHaveAttribute('data-state', 'saved');
+	await expect(page.getByTestId('server-status')).toHaveAttribute('data-status', 'reject');
+
+	await typed.getByRole('button', { name: `Correct reading ${row.serial}` }).click();
+	const form = page.getByRole('form', { name: `Correct reading ${row.serial}` });
+	await form.getByLabel('OCV (V)').fill(row.ocv_v.toFixed(4));
+	await form.getByLabel('Why the stored value was wrong').fill('typed 2.05 instead of the meter reading');
+	await form.getByRole('button', { name: 'Save correction' }).click();
+	await expect(page.getByTestId('correction-row')).toHaveCount(0);
+	// The same row now shows the stored, corrected value; nothing was added as a second reading.
+	await expect(typed).toContainText(row.ocv_v.toFixed(4));
+	await expect(page.getByTestId('stored-row')).toHaveCount(0);
+	await expect(page.getByTestId('server-status')).not.toHaveAttribute('data-status', 'reject');
+	await shot(page, 'correct-typed-row');
+});

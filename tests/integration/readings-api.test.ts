@@ -115,6 +115,20 @@ describe('POST/GET /api/v1/lots/{id}/readings', () => {
 		expect(retry.status).toBe(201);
 		expect(retry.json).toMatchObject({ inserted: 0, duplicates: 2 });
 		expect(await readingCount(lot.id)).toBe(2);
+		// Both answers name the stored id of each keyed row (the bench page corrects rows by id).
+		const listed = await call(inspector, `/api/v1/lots/${lot.id}/readings`);
+		const idOf = new Map((listed.json.readings as Array<{ id: number; client_key: string }>).map((r) => [r.client_key, r.id]));
+		const expected = rows.map((r) => ({ client_key: r.client_key, id: idOf.get(r.client_key) }));
+		expect(expected.every((e) => typeof e.id === 'number')).toBe(true);
+		expect(first.json.stored).toEqual(expected);
+		expect(retry.json.stored).toEqual(expected);
+	});
+
+	it('names no stored ids for rows sent without a client_key', async () => {
+		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
+		const saved = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', 2, 0.3) } });
+		expect(saved.status).toBe(201);
+		expect(saved.json).toMatchObject({ inserted: 2, stored: [] });
 	});
 
 	it('keeps suppliers out: 403 on write, 404 on another supplier’s lot, own lot readable', async () => {

@@ -142,7 +142,7 @@ export async function commitImport(db: Database, user: SessionUser, lotId: strin
 				.from(readingImports)
 				.innerJoin(lots, eq(lots.id, readingImports.lotId))
 				.where(and(eq(readingImports.lotId, lotId), eq(readingImports.fileSha256, sha)));
-			return { inserted: 0, duplicates: mapped.rows.length, lot_status: previous?.status ?? '', arrived: false, import_id: null, already_imported_at: previous?.at.toISOString() ?? null, skipped_invalid: skipped };
+			return { inserted: 0, duplicates: mapped.rows.length, lot_status: previous?.status ?? '', arrived: false, stored: [], import_id: null, already_imported_at: previous?.at.toISOString() ?? null, skipped_invalid: skipped };
 		}
 		const added = await addReadingsTx(tx, user, lotId, mapped.rows, 'import', created.id);
 		return { ...added, import_id: created.id, already_imported_at: null, skipped_invalid: skipped };

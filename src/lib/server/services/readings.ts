@@ -29,6 +29,8 @@ export interface AddReadingsResult {
 	duplicates: number;
 	lot_status: string;
 	arrived: boolean;
+	/** The stored id of every row of the batch that carried a client_key (new or stored before), so a bench row can be corrected later. */
+	stored: Array<{ client_key: string; id: number }>;
 }
 
 export interface StoredReading {
@@ -124,7 +126,17 @@ export async function addReadingsTx(
 	}
 	const complete = await markSampleCompleteIfDue(tx, user, lotId);
 	const lotStatus = complete || lot.status === 'pending_decision' ? 'pending_decision' : 'in_inspection';
-	return { inserted, duplicates: rows.length - inserted, lot_status: lotStatus, arrived };
+	return { inserted, duplicates: rows.length - inserted, lot_status: lotStatus, arrived, stored: await idsOfClientKeys(tx, lotId, rows) };
+}
+
+async function idsOfClientKeys(tx: Tx, lotId: string, rows: ReadingInputRow[]): Promise<AddReadingsResult['stored']> {
+	const keys = rows.flatMap((r) => (r.client_key ? [r.client_key] : []));
+	if (keys.length === 0) return [];
+	return tx
+		.select({ client_key: sql<string>`${readings.clientKey}`, id: readings.id })
+		.from(readings)
+		.where(and(eq(readings.lotId, lotId), sql`${readings.clientKey} = any(${sql.param(keys)}::text[])`))
+		.orderBy(asc(readings.id));
 }
 
 /**

@@ -13,6 +13,8 @@ export interface BenchRow {
 	measured_at: string;
 	state: RowState;
 	message?: string;
+	/** The stored reading's id, once the server has answered with it (lets the row be corrected). */
+	id?: number;
 }
 
 const storageKey = (lotId: string) => `restvolt:bench:${lotId}`;
@@ -65,6 +67,12 @@ export class SaveQueue {
 		this.#persist();
 	}
 
+	/** The ids the server gave the saved rows (201 body `stored: [{client_key, id}]`). */
+	#noteIds(body: { stored?: Array<{ client_key: string; id: number }> } | null): void {
+		const ids = new Map((body?.stored ?? []).map((s) => [s.client_key, s.id]));
+		if (ids.size > 0) this.rows = this.rows.map((r) => (ids.has(r.client_key) ? { ...r, id: ids.get(r.client_key) } : r));
+	}
+
 	#scheduleRetry(): void {
 		const delay = BACKOFF_MS[Math.min(this.attempt, BACKOFF_MS.length - 1)];
 		this.attempt += 1;
@@ -94,6 +102,7 @@ export class SaveQueue {
 				this.attempt = 0;
 				this.nextRetryAt = null;
 				this.#mark(keys, 'saved');
+				this.#noteIds(await res.json().catch(() => null));
 				this.onSaved();
 			} else if (res.status >= 500 || res.status === 429) {
 				this.#mark(keys, 'retrying');

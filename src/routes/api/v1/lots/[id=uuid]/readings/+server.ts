@@ -21,7 +21,10 @@ export const GET: RequestHandler = api(async (event) => {
 	return json({ lot_id: lot.id, count: readings.length, readings });
 });
 
-/** POST /api/v1/lots/{id}/readings — up to 10,000 readings, all or nothing; 201 {inserted, lot_status}. */
+/**
+ * POST /api/v1/lots/{id}/readings — up to 10,000 readings, all or nothing; 201 {inserted, duplicates,
+ * lot_status, arrived, stored: [{client_key, id}] for the rows sent with a client_key}.
+ */
 export const POST: RequestHandler = api(async (event) => {
 	const user = authorize(event, 'reading:write');
 	const db = getDb();
