@@ -3,9 +3,9 @@
  * readings, submit, e-signed override), so every verdict in the demo is the engine's own.
  * A lot whose PO number already exists is left alone, which keeps the seed idempotent.
  */
-import { eq, sql } from 'drizzle-orm';
+import { asc, eq, sql } from 'drizzle-orm';
 import type { Database } from '../src/lib/server/db';
-import { decisions, evaluations, lots } from '../src/lib/server/db/schema';
+import { auditEvents, decisions, documents, evaluations, lots, notices } from '../src/lib/server/db/schema';
 import type { SessionUser } from '../src/lib/roles';
 import { cancelLot, createLot, markAwaitingArrival } from '../src/lib/server/services/lots';
 import { uploadDocument } from '../src/lib/server/services/documents';
@@ -44,9 +44,18 @@ async function attachDocuments(db: Database, buyer: SessionUser, lotId: string, 
 	}
 }
 
+/** The day of a lot's demo history an audit action belongs to: registration (0), bench (½), decision (1). */
+const BENCH_ACTIONS = new Set(['lot.arrival', 'readings.added', 'lot.sample_complete', 'reading.corrected']);
+const DECISION_ACTIONS = ['lot.decided', 'lot.override_signed', 'lot.reevaluated', 'notice.', 'decision.'];
+export function historyDay(action: string): number {
+	if (BENCH_ACTIONS.has(action)) return 0.5;
+	return DECISION_ACTIONS.some((prefix) => action.startsWith(prefix)) ? 1 : 0;
+}
+
 /** Move the lot's dates back so the demo has a history (switching rules, scorecard trends). */
 async function backdate(db: Database, lotId: string, when: Date) {
-	const later = (days: number) => sql`${new Date(when.getTime() + days * DAY)}::timestamptz`;
+	const at = (days: number, step = 0) => new Date(when.getTime() + days * DAY + step * 1000);
+	const later = (days: number) => sql`${at(days)}::timestamptz`;
 	await db
 		.update(lots)
 		.set({
@@ -56,8 +65,31 @@ async function backdate(db: Database, lotId: string, when: Date) {
 			decidedAt: sql`case when ${lots.decidedAt} is null then null else ${later(1)} end`
 		})
 		.where(eq(lots.id, lotId));
-	await db.update(decisions).set({ decidedAt: new Date(when.getTime() + DAY) }).where(eq(decisions.lotId, lotId));
-	await db.update(evaluations).set({ createdAt: new Date(when.getTime() + DAY) }).where(eq(evaluations.lotId, lotId));
+	await db.update(decisions).set({ decidedAt: at(1) }).where(eq(decisions.lotId, lotId));
+	await db.update(evaluations).set({ createdAt: at(1) }).where(eq(evaluations.lotId, lotId));
+	await db.update(documents).set({ uploadedAt: at(0, 1) }).where(eq(documents.lotId, lotId));
+	await db.update(notices).set({ createdAt: at(1, 1) }).where(eq(notices.lotId, lotId));
+	await backdateTrail(db, lotId, at);
+}
+
+/**
+ * The lot's audit events follow its invented past, in their own order, so its history reads
+ * registration → bench → decision. The trail refuses UPDATE (a trigger): only this seed step,
+ * in its own transaction, writes it with triggers off (a superuser setting; without it the
+ * events keep the seeding time and a note says so).
+ */
+async function backdateTrail(db: Database, lotId: string, at: (days: number, step?: number) => Date) {
+	try {
+		await db.transaction(async (tx) => {
+			await tx.execute(sql`set local session_replication_role = replica`);
+			const events = await tx.select({ id: auditEvents.id, action: auditEvents.action }).from(auditEvents).where(eq(auditEvents.lotId, lotId)).orderBy(asc(auditEvents.id));
+			for (const [i, event] of events.entries()) {
+				await tx.update(auditEvents).set({ at: at(historyDay(event.action), i + 1) }).where(eq(auditEvents.id, event.id));
+			}
+		});
+	} catch (error) {
+		console.warn(`[seed] lot history keeps today's dates (${error instanceof Error ? error.message : String(error)})`);
+	}
 }
 
 async function inspect(db: Database, people: SeededPeople, lotId: string, spec: LotSeed, part: SeededPart, index: number, when: Date) {

@@ -55,6 +55,29 @@ describe('migrations and seed', () => {
 		expect(before[0]).toBeGreaterThanOrEqual(5); // own company + four suppliers
 	});
 
+	it('dates each demo lot’s history in its invented past: registration, bench, decision, in order', async () => {
+		await withClient(db.url, async (c) => {
+			const { rows } = await c.query(`
+				select l.lot_code, l.created_at, l.received_at, l.decided_at,
+					array_agg(e.action order by e.at, e.id) as by_time, array_agg(e.action order by e.id) as by_insert,
+					min(e.at) as first_at, max(e.at) filter (where e.action = 'lot.arrival') as arrival_at,
+					max(e.at) filter (where e.action = 'lot.decided') as decided_event_at
+				from lots l join audit_events e on e.lot_id = l.id
+				group by l.id`);
+			expect(rows.length).toBeGreaterThanOrEqual(25);
+			const hours = (a: Date, b: Date) => Math.abs(a.getTime() - b.getTime()) / 3_600_000;
+			for (const lot of rows) {
+				expect(lot.by_time, lot.lot_code).toEqual(lot.by_insert);
+				expect(hours(lot.first_at, lot.created_at), lot.lot_code).toBeLessThan(1);
+				if (lot.arrival_at) expect(hours(lot.arrival_at, lot.received_at), lot.lot_code).toBeLessThan(1);
+				if (lot.decided_event_at) expect(hours(lot.decided_event_at, lot.decided_at), lot.lot_code).toBeLessThan(1);
+			}
+			// The demo spans weeks, not the seconds the seed took.
+			const spread = rows.map((r) => r.first_at.getTime());
+			expect((Math.max(...spread) - Math.min(...spread)) / 86_400_000).toBeGreaterThan(14);
+		});
+	});
+
 	it('refuses to seed demo passwords in production', () => {
 		const res = spawnSync('npx', ['tsx', 'seed/index.ts'], {
 			cwd: root,
