@@ -56,7 +56,10 @@ try {
 	});
 	if (seeded !== 0) throw new Error('seeding the bench database failed');
 	await ensureBuildIn(buildDir);
-	exitCode = await runInherit('npx', ['tsx', '--tsconfig', 'tests/bench/tsconfig.json', 'tests/bench/run.ts'], {
+	// The bench runner is a client too (fetch for operations 2 and 3): it runs beside the load generator.
+	const runner = ['npx', 'tsx', '--tsconfig', 'tests/bench/tsconfig.json', 'tests/bench/run.ts'];
+	const [command, ...args] = cpus ? ['taskset', '-c', cpus.rest, ...runner] : runner;
+	exitCode = await runInherit(command, args, {
 		env: {
 			...process.env,
 			DATABASE_URL: databaseUrl,

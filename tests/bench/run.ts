@@ -18,7 +18,7 @@ import { benchEvaluationLoad } from './ops/evaluation-load';
 import { benchLotList } from './ops/lot-list';
 import { benchClientWeight } from './ops/client-weight';
 import { EVALUATE_TWIN, EVALUATION_TWIN, writeStaticTwins } from './lib/static-twins';
-import { placement } from './lib/cpus';
+import { placement, placeSelf } from './lib/cpus';
 
 const need = (name: string) => {
 	const value = process.env[name];
@@ -48,11 +48,14 @@ const only = (process.env.BENCH_ONLY ?? '').split(',').filter(Boolean);
 
 /**
  * Run one operation on a settled database (the one before may have left rows for autovacuum and
- * dirty pages for the checkpointer); a missing endpoint/service or a failure becomes an honest missed line.
+ * dirty pages for the checkpointer), with this process on the app's core for in-process operations
+ * ('app') or beside the load generator when it is an HTTP client ('load'). A missing
+ * endpoint/service or a failure becomes an honest missed line.
  */
-async function attempt(names: string[], fn: () => Promise<void>) {
+async function attempt(names: string[], role: 'app' | 'load', fn: () => Promise<void>) {
 	if (only.length > 0 && !names.some((n) => only.some((o) => n.startsWith(o)))) return;
 	await withClient(need('DATABASE_URL'), settleDatabase);
+	placeSelf(role);
 	const started = performance.now();
 	try {
 		await fn();
@@ -99,20 +102,20 @@ async function main() {
 		app = await startBenchApp(databaseUrl, buildDir);
 		const ctx: BenchContext = { app, databaseUrl, pgBin: need('BENCH_PG_BIN'), scratch: need('BENCH_SCRATCH'), part, token, bigLotId, sampleLotId };
 
-		await attempt(['evaluate-lot-2000'], async () => report(await benchEvaluateLot(ctx)));
-		await attempt(['ocv-evaluate-10000'], async () => report(await benchOcvEvaluate(ctx)));
-		await attempt(['import-xlsx-10000'], async () => report(await benchImportXlsx(ctx)));
-		await attempt(['evaluation-api-load', 'evaluation-api-p99'], async () => {
+		await attempt(['evaluate-lot-2000'], 'app', async () => report(await benchEvaluateLot(ctx)));
+		await attempt(['ocv-evaluate-10000'], 'load', async () => report(await benchOcvEvaluate(ctx)));
+		await attempt(['import-xlsx-10000'], 'load', async () => report(await benchImportXlsx(ctx)));
+		await attempt(['evaluation-api-load', 'evaluation-api-p99'], 'load', async () => {
 			const result = await benchEvaluationLoad(ctx);
 			result.lines.forEach(report);
 			result.notes.forEach((note) => console.log(note));
 		});
-		await attempt(['lot-list-50k'], async () => {
+		await attempt(['lot-list-50k'], 'app', async () => {
 			const result = await benchLotList(ctx);
 			report(result.line);
 			console.log(`explain lot-list (index used: ${result.usesIndex ? 'yes' : 'NO'}):\n${result.explain.replace(/^/gm, '  ')}`);
 		});
-		await attempt(['inspect-page-js'], async () => {
+		await attempt(['inspect-page-js'], 'load', async () => {
 			const result = await benchClientWeight(ctx);
 			report(result.line);
 			const top = result.files.slice(0, 6).map((f) => `${f.path.split('/').pop()}=${(f.gzipBytes / 1024).toFixed(1)}KB`);

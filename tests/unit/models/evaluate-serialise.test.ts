@@ -64,3 +64,34 @@ describe('serialiseResults', () => {
 		expect(body.results[1].flags).toContain('deep_discharge');
 	});
 });
+
+describe('distinctReadings', () => {
+	/** Reference: the first index of each (voltage, temperature) pair, by exact value (0 and -0 alike). */
+	function reference(readings: Array<{ ocv_v: number; temperature_c: number }>) {
+		const first = new Map<string, number>();
+		const unique: Array<{ ocv_v: number; temperature_c: number }> = [];
+		const order = readings.map((r) => {
+			const key = `${r.ocv_v + 0}|${r.temperature_c + 0}`;
+			if (!first.has(key)) {
+				first.set(key, unique.length);
+				unique.push({ ocv_v: r.ocv_v + 0, temperature_c: r.temperature_c + 0 });
+			}
+			return first.get(key)!;
+		});
+		return { unique, order };
+	}
+
+	it('keeps each distinct pair once, in first-seen order, and maps every reading to it', () => {
+		// Few distinct values so that repeats, hash collisions and table wrap-around all occur.
+		const value = fc.oneof(fc.constantFrom(3.6, 3.6001, -0, 0, 25, 25.1, 1e-300, 5e-324), fc.double({ noNaN: true, noDefaultInfinity: true }));
+		const reading = fc.record({ ocv_v: value, temperature_c: value });
+		fc.assert(
+			fc.property(fc.array(reading, { maxLength: 300 }), (readings) => {
+				const { unique, order } = distinctReadings(readings);
+				const expected = reference(readings);
+				expect(unique).toEqual(expected.unique);
+				expect([...order]).toEqual(expected.order);
+			})
+		);
+	});
+});

@@ -1,7 +1,7 @@
 // Many readings of one chemistry → SOC with interval, expected OCV, residual and flags per reading.
 // Validation is split: zod for the small header, a plain loop for the (up to 10,000) readings.
 import { ElectrochemError, evaluateReadings, getLibraryModel, type ReadingInput } from '$lib/electrochem';
-import { api, ApiError, authorize, badRequest, parseWith, unprocessable } from '$lib/server/http';
+import { api, ApiError, authorize, badRequest, jsonBytes, parseWith, unprocessable } from '$lib/server/http';
 import { evaluateHeader, MAX_READINGS, readingsIssues } from '$lib/schemas/electrochem';
 import { distinctReadings } from './distinct';
 import { serialiseResults } from './serialise';
@@ -41,7 +41,7 @@ export const POST: RequestHandler = api(async (event) => {
 			declared_soc: header.declared_soc,
 			meter_accuracy_v: header.meter_accuracy_v
 		});
-		return new Response(serialiseResults(results, order), { headers: { 'content-type': 'application/json' } });
+		return jsonBytes(serialiseResults(results, order));
 	} catch (e) {
 		if (e instanceof ElectrochemError) throw unprocessable(e.message, [{ path: e.field, message: e.message }]);
 		throw e;

@@ -1,6 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { getDb } from '$lib/server/db';
-import { api, authorize, notFound } from '$lib/server/http';
+import { api, authorize, jsonBytes, notFound } from '$lib/server/http';
 import { computeAndCache, etagMatches, evaluationEtag, lotRevision, tokenUserAndLotRevision, type LotRevision } from '$lib/server/services/evaluation-cache';
 import type { RequestEvent, RequestHandler } from './$types';
 
@@ -11,16 +11,6 @@ async function withTokenUser(event: RequestEvent): Promise<LotRevision | null> {
 	event.locals.user = found.user;
 	event.locals.authMethod = 'token';
 	return found.lot;
-}
-
-/** The bytes as a one-chunk stream: a Response copies a Buffer body once more, a stream's chunk it hands on as is. */
-function oneChunk(bytes: Uint8Array): ReadableStream<Uint8Array> {
-	return new ReadableStream({
-		start(controller) {
-			controller.enqueue(bytes);
-			controller.close();
-		}
-	});
 }
 
 /**
@@ -49,8 +39,6 @@ export const GET: RequestHandler = api(async (event) => {
 		const { units, inputs: _inputs, ...rest } = JSON.parse(body) as { units: unknown[]; inputs: unknown };
 		return json({ ...rest, unit_count: units.length }, { headers });
 	}
-	// Bytes with their length: one write, no chunked encoding. The body is ASCII-only (servedJson),
-	// so Latin-1 gives its UTF-8 bytes with a plain copy.
-	const bytes = Buffer.from(body, 'latin1');
-	return new Response(oneChunk(bytes), { headers: { ...headers, 'content-type': 'application/json', 'content-length': String(bytes.length) } });
+	// The body is ASCII-only (servedJson), so Latin-1 gives its UTF-8 bytes with a plain copy.
+	return jsonBytes(Buffer.from(body, 'latin1'), headers);
 });
