@@ -17,23 +17,31 @@ export type Sample = () => Promise<number> | number;
 export interface PairOptions {
 	warmup?: number;
 	rounds: number;
+	/**
+	 * Runs of each side per turn (A×n B×n B×n A×n …). Above 1 when the operation leaves garbage the
+	 * server collects during the next request: a floor run right after it would pay for the op's GC.
+	 */
+	block?: number;
 }
 
 /** Warm both up, then alternate op/floor order each round; returns all samples. */
-export async function interleaved(op: Sample, floor: Sample, { warmup = 1, rounds }: PairOptions) {
+export async function interleaved(op: Sample, floor: Sample, { warmup = 1, rounds, block = 1 }: PairOptions) {
 	for (let i = 0; i < warmup; i++) {
 		await op();
 		await floor();
 	}
 	const ops: number[] = [];
 	const floors: number[] = [];
+	const turn = async (fn: Sample, into: number[]) => {
+		for (let i = 0; i < block; i++) into.push(await fn());
+	};
 	for (let r = 0; r < rounds; r++) {
 		if (r % 2 === 0) {
-			ops.push(await op());
-			floors.push(await floor());
+			await turn(op, ops);
+			await turn(floor, floors);
 		} else {
-			floors.push(await floor());
-			ops.push(await op());
+			await turn(floor, floors);
+			await turn(op, ops);
 		}
 	}
 	return { ops, floors, op: median(ops), floor: median(floors) };
