@@ -212,6 +212,8 @@ test('a buyer corrects a lot’s quantity before arrival and the sampling plan f
 	await page.getByLabel('Quantity (units)').fill('0');
 	await page.getByRole('button', { name: 'Save changes' }).click();
 	await expect(page.getByText(/at least 1/i)).toBeVisible();
+	// The refused form also goes to the server, and its answer resets the fields: let it arrive first.
+	await page.waitForLoadState('networkidle');
 	await page.getByLabel('Quantity (units)').fill('1250');
 	await shot(page, 'edit-lot');
 	await page.getByRole('button', { name: 'Save changes' }).click();
