@@ -56,10 +56,8 @@ try {
 	});
 	if (seeded !== 0) throw new Error('seeding the bench database failed');
 	await ensureBuildIn(buildDir);
-	// The bench runner is a client too (fetch for operations 2 and 3): it runs beside the load generator.
-	const runner = ['npx', 'tsx', '--tsconfig', 'tests/bench/tsconfig.json', 'tests/bench/run.ts'];
-	const [command, ...args] = cpus ? ['taskset', '-c', cpus.rest, ...runner] : runner;
-	exitCode = await runInherit(command, args, {
+	// run.ts places itself before each operation (tests/bench/lib/cpus.ts, placeSelf).
+	exitCode = await runInherit('npx', ['tsx', '--tsconfig', 'tests/bench/tsconfig.json', 'tests/bench/run.ts'], {
 		env: {
 			...process.env,
 			DATABASE_URL: databaseUrl,
