@@ -81,3 +81,26 @@ export const signInFailures = pgTable(
 	},
 	(t) => [index('sign_in_failures_key_at_idx').on(t.throttleKey, t.at)]
 );
+
+/**
+ * One row per signed-in browser session. The session cookie (an Auth.js JWT) names its row, and
+ * every request checks the row: sign-out, a password change, deactivation, the absolute lifetime
+ * and the idle timeout end a session on the server, so a copied cookie stops working too.
+ */
+export const userSessions = pgTable(
+	'user_sessions',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		method: text('method').notNull(),
+		ip: text('ip'),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+		lastSeenAt: timestamp('last_seen_at', { withTimezone: true }).notNull().defaultNow(),
+		expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+		endedAt: timestamp('ended_at', { withTimezone: true }),
+		endedReason: text('ended_reason')
+	},
+	(t) => [index('user_sessions_user_idx').on(t.userId)]
+);
