@@ -1,4 +1,5 @@
-import { bigint, bigserial, boolean, index, jsonb, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
+import { bigint, bigserial, boolean, check, index, integer, jsonb, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { dispositionEnum, lotStatusEnum, severityEnum } from './enums';
 import { lots } from './lots';
 import { ocvModels } from './models';
@@ -47,4 +48,33 @@ export const decisions = pgTable(
 		decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow()
 	},
 	(t) => [index('decisions_lot_idx').on(t.lotId, t.decidedAt)]
+);
+
+/**
+ * Server-issued, single-use challenges for the e-signature of a quality override: each binds one
+ * signer to one lot at one revision and one decision, and expires. The override consumes it
+ * (used_at) in the same transaction as the decision, so a signature cannot be replayed on another
+ * lot, on the same lot after it changed, or for the other decision.
+ */
+export const signatureChallenges = pgTable(
+	'signature_challenges',
+	{
+		id: uuid('id').primaryKey().defaultRandom(),
+		lotId: uuid('lot_id')
+			.notNull()
+			.references(() => lots.id, { onDelete: 'cascade' }),
+		lotRevision: integer('lot_revision').notNull(),
+		decision: text('decision', { enum: ['accept', 'reject'] }).notNull(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id),
+		issuedAt: timestamp('issued_at', { withTimezone: true }).notNull().defaultNow(),
+		expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+		usedAt: timestamp('used_at', { withTimezone: true })
+	},
+	(t) => [
+		index('signature_challenges_lot_idx').on(t.lotId),
+		check('signature_challenges_decision', sql`${t.decision} in ('accept', 'reject')`),
+		check('signature_challenges_expiry_after_issue', sql`${t.expiresAt} > ${t.issuedAt}`)
+	]
 );
