@@ -9,6 +9,8 @@ declare global {
 			authMethod: 'session' | 'token' | null;
 			/** An API token not yet checked: set instead of `user` only for routes that check it in their own statement (auth.ts). */
 			bearerToken: string | null;
+			/** The server-side session row of a cookie session (services/sessions.ts), or null. */
+			sessionId: string | null;
 		}
 		interface Error {
 			message: string;
@@ -19,6 +21,8 @@ declare global {
 
 declare module '@auth/core/types' {
 	interface Session {
+		/** The server-side session row this cookie belongs to; null for cookies from before rows existed. */
+		sessionId: string | null;
 		user: {
 			id: string;
 			email: string;

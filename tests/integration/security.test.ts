@@ -106,7 +106,7 @@ describe('cross-site checks and API tokens', () => {
 			.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
 		const res = await upload(await anyLot(), { cookie, origin: 'https://evil.example' });
 		expect(res.status).toBe(403);
-		expect(await res.text()).toMatch(/Cross-site POST form submissions are forbidden/);
+		expect(await res.text()).toMatch(/Cross-site POST requests are forbidden/);
 	});
 });
 

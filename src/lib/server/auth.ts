@@ -16,7 +16,9 @@ import { env } from '$env/dynamic/private';
 import { getDb } from './db';
 import { accounts, sessions, users, verificationTokens } from './db/schema';
 import { activeSessionUser } from './services/users';
-import { checkStaffPassword, recordSignIn, sendMail, supplierMayUseLink } from './services/sign-in';
+import { checkStaffPassword, recordSignIn, sendMailLater, supplierMayUseLink } from './services/sign-in';
+import { endSession, sessionUser, startSession, SESSION_LIFETIME_HOURS } from './services/sessions';
+import { appOrigin, onAppOrigin } from './origin';
 import { userForToken } from './services/tokens';
 import type { Role } from '$lib/roles';
 
@@ -44,7 +46,8 @@ function config(event: RequestEvent): SvelteKitAuthConfig {
 			sessionsTable: sessions,
 			verificationTokensTable: verificationTokens
 		}),
-		session: { strategy: 'jwt', maxAge: 12 * 60 * 60 },
+		// The cookie's own lifetime; the server-side row (services/sessions.ts) decides before it.
+		session: { strategy: 'jwt', maxAge: SESSION_LIFETIME_HOURS * 60 * 60 },
 		trustHost: env.AUTH_TRUST_HOST === 'true',
 		secret: env.AUTH_SECRET,
 		pages: { signIn: '/signin', verifyRequest: '/signin/link-sent', error: '/signin' },
@@ -74,13 +77,14 @@ function config(event: RequestEvent): SvelteKitAuthConfig {
 				server: env.SMTP_URL ?? 'smtp://127.0.0.1:25',
 				from: env.MAIL_FROM,
 				maxAge: LINK_MINUTES * 60,
+				// Not awaited: the answer must not take longer because the address has an account.
 				sendVerificationRequest: ({ identifier, url }) =>
-					sendMail(identifier, 'Your Restvolt sign-in link', [
+					sendMailLater(identifier, 'Your Restvolt sign-in link', [
 						'Hello,',
 						'',
 						`Open this link within ${LINK_MINUTES} minutes to sign in to the Restvolt supplier portal (it works once):`,
 						'',
-						url,
+						signInLinkOnAppOrigin(url),
 						'',
 						'If you did not ask for it, ignore this message; nobody can sign in without the link.'
 					])
@@ -92,17 +96,20 @@ function config(event: RequestEvent): SvelteKitAuthConfig {
 				if (account?.provider === 'nodemailer') return !!user.email && (await supplierMayUseLink(user.email));
 				return true;
 			},
-			jwt: async ({ token, user }) => {
+			// At sign-in (user is set) a server-side session row is started; the cookie carries its id.
+			jwt: async ({ token, user, account }) => {
 				if (user?.id) {
 					const fresh = await activeSessionUser(user.id);
 					if (!fresh) return null;
 					token.sub = fresh.id;
+					token.sid = await startSession(fresh.id, account?.provider ?? 'unknown', address);
 					token.role = fresh.role;
 					token.organisationId = fresh.organisationId;
 				}
 				return token;
 			},
 			session: ({ session, token }) => {
+				session.sessionId = typeof token.sid === 'string' ? token.sid : null;
 				session.user = {
 					...session.user,
 					id: String(token.sub),
@@ -141,13 +148,30 @@ export const authHandle: Handle = async (input) => {
 	return new Response(response.body, response);
 };
 
-/** Rebuild the request with these fields: superforms has already read the original body. */
+/**
+ * Auth.js builds the link from the request's Host / X-Forwarded-Host. Whatever it built, the
+ * mailed link (and the page it returns to) is put on the configured origin.
+ */
+function signInLinkOnAppOrigin(url: string): string {
+	const link = new URL(onAppOrigin(url));
+	const callback = link.searchParams.get('callbackUrl');
+	if (callback) link.searchParams.set('callbackUrl', onAppOrigin(new URL(callback, appOrigin()).toString()));
+	return link.toString();
+}
+
+/**
+ * Rebuild the request with these fields (superforms has already read the original body), on the
+ * configured origin: host headers sent by the client take no part in what Auth.js builds.
+ */
 function withForm(event: RequestEvent, fields: Record<string, string>): RequestEvent {
 	const body = new FormData();
 	for (const [key, value] of Object.entries(fields)) body.set(key, value);
 	const headers = new Headers(event.request.headers);
 	headers.delete('content-type');
 	headers.delete('content-length');
+	headers.delete('x-forwarded-host');
+	headers.delete('x-forwarded-proto');
+	headers.set('host', new URL(appOrigin()).host);
 	return { ...event, request: new Request(event.request.url, { method: 'POST', headers, body }) };
 }
 
@@ -175,8 +199,9 @@ export async function signInWith(
 	return { ok: false, reason: 'refused' };
 }
 
-/** Clear the session cookie (Auth.js sign-out), then go to `redirectTo` with a 303. */
+/** End the server-side session, clear the cookie (Auth.js sign-out), then go to `redirectTo` with a 303. */
 export async function signOutOf(event: RequestEvent, redirectTo: string): Promise<never> {
+	if (event.locals.sessionId) await endSession(event.locals.sessionId, 'signed_out');
 	try {
 		await auth.signOut(withForm(event, { redirectTo }));
 	} catch (error) {
@@ -207,6 +232,7 @@ export const resolveUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	event.locals.authMethod = null;
 	event.locals.bearerToken = null;
+	event.locals.sessionId = null;
 	const token = bearerToken(event.request);
 	if (token !== undefined && event.url.pathname.startsWith('/api/')) {
 		if (token && ROUTES_CHECKING_TOKEN_THEMSELVES.has(event.route.id ?? '')) {
@@ -222,11 +248,12 @@ export const resolveUser: Handle = async ({ event, resolve }) => {
 		return resolve(event);
 	}
 	const session = await event.locals.auth();
-	const id = session?.user?.id;
-	const user = id ? await activeSessionUser(id) : null;
-	if (user) {
+	const sessionId = session?.sessionId;
+	const user = sessionId ? await sessionUser(sessionId) : null;
+	if (user && user.id === session?.user?.id) {
 		event.locals.user = user;
 		event.locals.authMethod = 'session';
+		event.locals.sessionId = sessionId!;
 	}
 	return resolve(event);
 };

@@ -1,9 +1,11 @@
 /**
- * Cross-site request check. It is SvelteKit's own origin check (same content types, same methods,
- * same answer), moved into a hook for one reason: an API call authenticated by a bearer token —
- * e.g. a meter-file or document upload from an integration — carries no cookie a forged page
- * could ride on, and usually no Origin header either, so it must not be refused. Everything else,
- * form actions included, is checked exactly as before.
+ * Cross-site request check, in place of SvelteKit's own (which looks only at form bodies):
+ * every state-changing request (POST, PUT, PATCH, DELETE) must come from the app's own origin
+ * when it carries a cookie — with or without a body, whatever its content type — and a form
+ * body from another origin is refused even without a cookie, as SvelteKit does.
+ *
+ * Exempt: API calls authenticated by a bearer token. They carry no cookie a forged page could
+ * ride on, and integrations usually send no Origin header.
  */
 import { json, text, type Handle } from '@sveltejs/kit';
 import { ApiError, errorResponse } from './http';
@@ -20,15 +22,17 @@ function isBearerApiCall(request: Request, pathname: string): boolean {
 	return pathname.startsWith('/api/') && /^Bearer\s+\S+/i.test(request.headers.get('authorization') ?? '');
 }
 
+/** Pure: would this request be refused as cross-site? */
+export function isCrossSiteWrite(request: Request, url: URL): boolean {
+	if (!UNSAFE_METHODS.has(request.method) || isBearerApiCall(request, url.pathname)) return false;
+	if (request.headers.get('origin') === url.origin) return false;
+	return isFormContentType(request) || request.headers.has('cookie');
+}
+
 export const csrfGuard: Handle = async ({ event, resolve }) => {
 	const { request, url } = event;
-	const crossSite =
-		UNSAFE_METHODS.has(request.method) &&
-		isFormContentType(request) &&
-		request.headers.get('origin') !== url.origin &&
-		!isBearerApiCall(request, url.pathname);
-	if (crossSite) {
-		const message = `Cross-site ${request.method} form submissions are forbidden`;
+	if (isCrossSiteWrite(request, url)) {
+		const message = `Cross-site ${request.method} requests are forbidden`;
 		// The JSON API answers in its own error shape; pages keep SvelteKit's answer.
 		if (url.pathname.startsWith('/api/')) return errorResponse(new ApiError(403, 'cross_site', message));
 		return request.headers.get('accept') === 'application/json' ? json({ message }, { status: 403 }) : text(message, { status: 403 });

@@ -13,7 +13,7 @@ import { recordAudit } from './audit';
 import { evaluateLotNow, type LotEvaluation } from './evaluation';
 import { queueNotice } from './notices';
 import { lockSamplingOfLot, refreshSamplingState } from './sampling-state';
-import { isThrottled, recordFailure, clearFailures } from './throttle';
+import { accountLimit, clearFailures, releaseAttempt, reserveAttempt } from './throttle';
 import type { FinalStatus } from '../mail/templates';
 import type { SessionUser } from '../../roles';
 
@@ -159,17 +159,21 @@ export interface OverrideInput {
 export const SAFETY_RELEASE_REFUSED =
 	'This lot was rejected for safety (a unit rested below its minimum voltage). It cannot be released: deep-discharged lithium-ion units must not be recharged or used.';
 
-/** The password check of the e-signature: throttled per signer, failures audited. */
+/**
+ * The password check of the e-signature: an attempt is reserved per signer before the hash is
+ * checked (parallel guesses queue behind it and back off), failures are kept and audited.
+ */
 async function verifySignature(user: SessionUser, password: string, ip: string | null): Promise<void> {
 	const key = `signature:${user.id}`;
-	if (await isThrottled([key])) throw new ApiError(429, 'throttled', 'Too many wrong passwords — wait a few minutes and try again.');
+	const reservation = await reserveAttempt([accountLimit(key)]);
+	if (!reservation) throw new ApiError(429, 'throttled', 'Too many wrong passwords — wait a few minutes and try again.');
 	const [row] = await getDb().select({ hash: users.passwordHash, active: users.active }).from(users).where(eq(users.id, user.id));
 	const ok = !!row?.hash && row.active && (await verify(row.hash, password).catch(() => false));
 	if (!ok) {
-		await recordFailure([key]);
 		await recordAudit(getDb(), { actorId: user.id, actorEmail: user.email, action: 'decision.signature_failed', ip });
 		throw new ApiError(403, 'signature_invalid', 'The password is not correct; nothing was decided.');
 	}
+	await releaseAttempt(reservation);
 	await clearFailures(key);
 }
 

@@ -8,16 +8,13 @@ import { lots, notices, organisations, parts, supplierContacts, users } from '..
 import { renderNotice, type FinalStatus, type NoticeKind } from '../mail/templates';
 import { notFound } from '../http';
 import { recordAudit } from './audit';
+import { appOrigin } from '../origin';
 import type { SessionUser } from '../../roles';
 
 type Db = Database | Tx;
 
 const LITHIUM = new Set(['LCO', 'NMC', 'NCA', 'LMO', 'LFP', 'LTO', 'LIMNO2', 'LISOCL2']);
 export const isLithium = (chemistry: string) => LITHIUM.has(chemistry.toUpperCase());
-
-export function appOrigin(): string {
-	return (process.env.ORIGIN ?? 'http://localhost:3000').replace(/\/$/, '');
-}
 
 export interface QueueNoticeInput {
 	lotId: string;

@@ -8,7 +8,7 @@ import { decisions, evaluations, lots, organisations, parts, readings, users } f
 import { notFound } from '../http';
 import type { LotListRow, ReportData, ReportReason, ReportUnit, TagData } from '../reports';
 import { evaluateLotNow, type EvaluationInputs, type LotEvaluation } from './evaluation';
-import { appOrigin } from './notices';
+import { appOrigin } from '../origin';
 
 type Db = Database | Tx;
 /** The lot's final disposition (after any quality decision) as the report words it. */

@@ -9,7 +9,9 @@ import { getDb } from '../db';
 import { passwordResets, users } from '../db/schema';
 import { createTransport, mailFrom } from '../mail/transport';
 import { recordAudit } from './audit';
-import { accountKey, addressKey, clearFailures, isThrottled, recordFailure, signInLimits, type Limit } from './throttle';
+import { accountKey, addressLimit, clearFailures, releaseAttempt, reserveAttempt, signInLimits, type Limit } from './throttle';
+import { endAllSessions } from './sessions';
+import { appOrigin } from '../origin';
 import { findUserByEmail, normaliseEmail, toSessionUser } from './users';
 import type { SessionUser } from '../../roles';
 
@@ -22,13 +24,14 @@ export const INVITE_MINUTES = 3 * 24 * 60;
 export type PasswordCheck = { ok: true; user: SessionUser } | { ok: false; reason: 'throttled' | 'invalid' };
 
 /**
- * The whole staff password check: throttle first, then the hash. Only active staff with a password
+ * The whole staff password check: an attempt is reserved under the throttle first (atomically, so
+ * parallel guesses queue behind it), then the hash is checked. Only active staff with a password
  * may pass; every refusal looks the same from outside and is counted and audited.
  */
 export async function checkStaffPassword(input: { email: string; password: string; address: string }): Promise<PasswordCheck> {
 	const email = normaliseEmail(input.email);
-	const limits = signInLimits(email, input.address);
-	if (await isThrottled(limits)) {
+	const reservation = await reserveAttempt(signInLimits(email, input.address));
+	if (!reservation) {
 		await audit('auth.sign_in_throttled', { email, ip: input.address });
 		return { ok: false, reason: 'throttled' };
 	}
@@ -36,26 +39,42 @@ export async function checkStaffPassword(input: { email: string; password: strin
 	const usable = !!user && user.active && user.role !== 'supplier' && !!user.passwordHash;
 	const matches = await verify(usable ? user.passwordHash! : DECOY_HASH, input.password).catch(() => false);
 	if (!usable || !matches) {
-		await recordFailure(limits);
 		await audit('auth.sign_in_failed', { email, ip: input.address, userId: user?.id, method: 'password' });
 		return { ok: false, reason: 'invalid' };
 	}
+	await releaseAttempt(reservation);
 	await clearFailures(accountKey(email));
 	return { ok: true, user: toSessionUser(user) };
 }
 
 /**
- * Sign-in link requests are counted like failures (5 per e-mail address, 20 per client address
- * per window), so the form cannot be used to flood someone's inbox.
+ * Sign-in link and reset requests are counted (5 per e-mail address, 20 per client address per
+ * 15 minutes), so the forms cannot be used to flood someone's inbox.
  */
 export async function linkRequestAllowed(email: string, address: string): Promise<boolean> {
 	const limits: Limit[] = [
-		{ key: `link:${normaliseEmail(email)}`, max: 5 },
-		{ key: `link-${addressKey(address)}`, max: 20 }
+		{ key: `link:${normaliseEmail(email)}`, kind: 'hard', max: 5, windowMinutes: 15 },
+		{ ...addressLimit(address), key: `link-address:${address}` }
 	];
-	if (await isThrottled(limits)) return false;
-	await recordFailure(limits);
-	return true;
+	return (await reserveAttempt(limits)) !== null;
+}
+
+/** How long sign-in, link and reset answers take at least, whether or not the account exists. */
+export const ANSWER_FLOOR_MS = 400;
+
+/**
+ * Run `work` and answer no sooner than `floorMs` after it began (also when it throws, as a
+ * redirect does), so the time of the answer does not tell whether an account exists. The mail
+ * itself leaves in the background (see `sendMailLater`), so SMTP time does not show either.
+ */
+export async function withAnswerFloor<T>(work: () => Promise<T>, floorMs = ANSWER_FLOOR_MS): Promise<T> {
+	const started = performance.now();
+	try {
+		return await work();
+	} finally {
+		const left = floorMs - (performance.now() - started);
+		if (left > 0) await new Promise((done) => setTimeout(done, left));
+	}
 }
 
 /** Only active supplier users get e-mailed sign-in links. */
@@ -125,6 +144,8 @@ export async function usePasswordLink(token: string, password: string, ip: strin
 			.returning({ id: users.id, email: users.email });
 		if (!user) return null;
 		await tx.update(passwordResets).set({ usedAt: new Date() }).where(eq(passwordResets.tokenHash, tokenHash));
+		// A new password ends every session signed in with the old one (a stolen cookie too).
+		await endAllSessions(tx, user.id, 'password_changed');
 		await recordAudit(tx, { actorId: user.id, actorEmail: user.email, action: 'auth.password_set', entityType: 'user', entityId: user.id, ip });
 		return user;
 	});
@@ -133,25 +154,25 @@ export async function usePasswordLink(token: string, password: string, ip: strin
 }
 
 /** Mail a reset link to active staff; silently nothing for anyone else (no account enumeration). */
-export async function requestPasswordReset(email: string, origin: string, ip: string | null): Promise<void> {
+export async function requestPasswordReset(email: string, ip: string | null): Promise<void> {
 	const user = await findUserByEmail(email);
 	if (!user || !user.active || user.role === 'supplier') return;
 	const token = await createPasswordLink(user.id, RESET_MINUTES);
 	await audit('auth.password_reset_requested', { userId: user.id, email: user.email, ip });
-	await sendMail(user.email, 'Reset your Restvolt password', [
+	sendMailLater(user.email, 'Reset your Restvolt password', [
 		`Hello${user.name ? ' ' + user.name : ''},`,
 		'',
 		'Someone (hopefully you) asked to reset the password of your Restvolt account.',
 		`Choose a new password here within ${RESET_MINUTES} minutes (the link works once):`,
 		'',
-		`${origin}/signin/reset/${token}`,
+		`${appOrigin()}/signin/reset/${token}`,
 		'',
 		'If you did not ask for this, ignore this message; your password stays as it is.'
 	]);
 }
 
 /** Tell a newly invited person how to get in: a set-password link for staff, the portal for suppliers. */
-export async function sendInvitation(user: { id: string; email: string; name: string | null; role: string }, origin: string) {
+export async function sendInvitation(user: { id: string; email: string; name: string | null; role: string }) {
 	const hello = `Hello${user.name ? ' ' + user.name : ''},`;
 	if (user.role === 'supplier') {
 		await sendMail(user.email, 'Your Restvolt supplier portal access', [
@@ -160,7 +181,7 @@ export async function sendInvitation(user: { id: string; email: string; name: st
 			'You now have access to the Restvolt supplier portal, where you see your lots, reports and notices.',
 			'There is no password: open the page below, enter this e-mail address and we e-mail you a sign-in link.',
 			'',
-			`${origin}/signin`
+			`${appOrigin()}/signin`
 		]);
 		return;
 	}
@@ -170,10 +191,18 @@ export async function sendInvitation(user: { id: string; email: string; name: st
 		'',
 		'An administrator created a Restvolt account for you. Choose your password here (the link works once, for 3 days):',
 		'',
-		`${origin}/signin/reset/${token}`
+		`${appOrigin()}/signin/reset/${token}`
 	]);
 }
 
 export async function sendMail(to: string, subject: string, lines: string[]): Promise<void> {
 	await createTransport().sendMail({ from: mailFrom(), to, subject, text: lines.join('\n') });
+}
+
+/**
+ * Send without waiting: for answers that must not take longer when an account exists (sign-in
+ * links, password resets). A failure is logged; the person can ask again.
+ */
+export function sendMailLater(to: string, subject: string, lines: string[]): void {
+	sendMail(to, subject, lines).catch((error: unknown) => console.error(`[mail] "${subject}" to ${to} failed:`, error));
 }

@@ -8,7 +8,7 @@ import type { Tx } from '../db';
 import { lots, notices, organisations, parts, users } from '../db/schema';
 import type { SeverityView } from './switching';
 import { recordAudit } from './audit';
-import { appOrigin } from './notices';
+import { appOrigin } from '../origin';
 
 const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 

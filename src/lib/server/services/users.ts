@@ -6,6 +6,7 @@ import { and, asc, count, eq, sql } from 'drizzle-orm';
 import { getDb } from '../db';
 import { organisations, supplierContacts, users } from '../db/schema';
 import { recordAudit } from './audit';
+import { revokeAllAccess } from './sessions';
 import type { Role, SessionUser } from '../../roles';
 
 export interface Actor {
@@ -125,6 +126,8 @@ export async function setActive(actor: Actor, userId: string, active: boolean): 
 	if (user.active === active) return;
 	await getDb().transaction(async (tx) => {
 		await tx.update(users).set({ active }).where(eq(users.id, userId));
+		// Reactivating someone later must not revive what they held before.
+		if (!active) await revokeAllAccess(tx, userId, user.email);
 		await recordAudit(tx, {
 			actorId: actor.id,
 			actorEmail: actor.email,

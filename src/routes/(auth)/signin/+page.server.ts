@@ -3,7 +3,7 @@ import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { clientAddress, signInWith } from '$lib/server/auth';
 import { THROTTLED_MESSAGE } from '$lib/server/services/throttle';
-import { linkRequestAllowed } from '$lib/server/services/sign-in';
+import { linkRequestAllowed, withAnswerFloor } from '$lib/server/services/sign-in';
 import { linkSignIn, passwordSignIn } from './schemas';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -33,11 +33,14 @@ export const actions: Actions = {
 		const password = form.data.password;
 		form.data.password = ''; // never echo a password back to the browser
 		if (!form.valid) return fail(400, { form });
-		const outcome = await signInWith(event, 'credentials', {
-			email: form.data.email,
-			password,
-			redirectTo: form.data.redirectTo || '/'
-		});
+		// Known or unknown account, right or wrong password: the answer comes after the same time.
+		const outcome = await withAnswerFloor(() =>
+			signInWith(event, 'credentials', {
+				email: form.data.email,
+				password,
+				redirectTo: form.data.redirectTo || '/'
+			})
+		);
 		if (outcome.ok) redirect(303, outcome.location);
 		const throttled = outcome.reason === 'throttled';
 		const text = throttled ? THROTTLED_MESSAGE : 'That e-mail address and password do not match.';
@@ -47,11 +50,13 @@ export const actions: Actions = {
 	link: async (event) => {
 		const form = await superValidate(event, zod4(linkSignIn), { id: 'link' });
 		if (!form.valid) return fail(400, { form });
-		if (!(await linkRequestAllowed(form.data.email, clientAddress(event)))) {
-			return message(form, THROTTLED_MESSAGE, { status: 429 });
-		}
-		await signInWith(event, 'nodemailer', { email: form.data.email, redirectTo: form.data.redirectTo || '/portal' });
-		// Sent or not (not a supplier account, or inactive): the same page either way.
+		const allowed = await withAnswerFloor(async () => {
+			if (!(await linkRequestAllowed(form.data.email, clientAddress(event)))) return false;
+			await signInWith(event, 'nodemailer', { email: form.data.email, redirectTo: form.data.redirectTo || '/portal' });
+			return true;
+		});
+		if (!allowed) return message(form, THROTTLED_MESSAGE, { status: 429 });
+		// Sent or not (not a supplier account, or inactive): the same page, after the same time.
 		redirect(303, '/signin/link-sent');
 	}
 };

@@ -44,7 +44,7 @@ export const actions: Actions = {
 		try {
 			const person = await inviteUser(actor, form.data);
 			try {
-				await sendInvitation(person, event.url.origin);
+				await sendInvitation(person);
 			} catch (e) {
 				console.error('[admin] invitation mail failed', e);
 				return message(form, `Created ${person.email}, but the invitation e-mail could not be sent. Try a password reset later.`, { status: 502 });
