@@ -8,7 +8,7 @@ import type { Database } from '../src/lib/server/db';
 import { auditEvents, decisions, documents, evaluations, lots, notices } from '../src/lib/server/db/schema';
 import type { SessionUser } from '../src/lib/roles';
 import { cancelLot, createLot, markAwaitingArrival } from '../src/lib/server/services/lots';
-import { uploadDocument } from '../src/lib/server/services/documents';
+import { uploadDocument } from '../src/lib/server/services/uploads';
 import { addReadings } from '../src/lib/server/services/readings';
 import { evaluateLotNow } from '../src/lib/server/services/evaluation';
 import { decideOverride, submitLot } from '../src/lib/server/services/decisions';

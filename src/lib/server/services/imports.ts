@@ -3,20 +3,23 @@
  * → one transaction that writes the reading_imports row and the readings. (lot, sha256) is unique,
  * so the same file twice is recognised and answered with the date of the first import.
  */
-import { createHash } from 'node:crypto';
 import { and, eq } from 'drizzle-orm';
 import type { SessionUser } from '$lib/roles';
-import { MAX_IMPORT_BYTES, MAX_READINGS_PER_CALL, type ImportMapping } from '$lib/schemas/readings';
+import { MAX_READINGS_PER_CALL, type ImportMapping } from '$lib/schemas/readings';
 import type { Database } from '../db';
 import { lots, readingImports } from '../db/schema';
 import { ApiError, unprocessable } from '../http';
 import { guessMapping, mapTable, parseCsv, type RowError, type Table } from './meter-file';
 import { addReadingsTx, type AddReadingsResult } from './readings';
+import { sha256Hex } from './uploads';
 import { readXlsxTable } from './xlsx-reader';
 
+/** A meter file that passed the upload rules (services/uploads.ts, use `meter_file`). */
 export interface MeterFile {
 	name: string;
 	bytes: Uint8Array;
+	/** What the content sniffing found: CSV (plain text) or an XLSX workbook. */
+	format: 'csv' | 'xlsx';
 }
 
 export interface ImportPreview {
@@ -44,14 +47,12 @@ export interface ImportResult extends AddReadingsResult {
 const PREVIEW_ROWS = 50;
 const ERROR_LIMIT = 200;
 
-const isZip = (b: Uint8Array) => b.length > 4 && b[0] === 0x50 && b[1] === 0x4b && b[2] === 0x03 && b[3] === 0x04;
-
 /** The first sheet as text (direct zip + XML reader: no workbook object model for a 10,000-row file). */
 function readXlsx(bytes: Uint8Array): Table {
 	try {
 		return readXlsxTable(bytes);
 	} catch {
-		throw unprocessable('The file looks like a spreadsheet but could not be read as XLSX');
+		throw unprocessable('The file looks like a spreadsheet but could not be read as XLSX', [{ path: 'file', message: 'not a readable XLSX workbook' }]);
 	}
 }
 
@@ -61,14 +62,10 @@ function readCsv(bytes: Uint8Array): Table {
 	return parseCsv(text);
 }
 
-/** The file as a table of strings; XLSX is recognised by its zip signature, not the name. */
+/** The file as a table of strings, by the format its content was sniffed as (never its name). */
 export async function readTable(file: MeterFile): Promise<{ table: Table; format: 'csv' | 'xlsx' }> {
-	if (file.bytes.length === 0) throw unprocessable('The file is empty');
-	if (file.bytes.length > MAX_IMPORT_BYTES) throw new ApiError(413, 'file_too_large', `Meter files are limited to ${MAX_IMPORT_BYTES / 1024 / 1024} MB`);
-	return isZip(file.bytes) ? { table: readXlsx(file.bytes), format: 'xlsx' } : { table: readCsv(file.bytes), format: 'csv' };
+	return file.format === 'xlsx' ? { table: readXlsx(file.bytes), format: 'xlsx' } : { table: readCsv(file.bytes), format: 'csv' };
 }
-
-export const sha256Hex = (bytes: Uint8Array) => createHash('sha256').update(bytes).digest('hex');
 
 async function previousImport(db: Database, lotId: string, sha: string): Promise<string | null> {
 	const [row] = await db

@@ -2,14 +2,15 @@
  * Supplier isolation for lot-scoped reads and the supplier portal's queries. A supplier asking
  * for another organisation's lot, report or notice gets 404, as if it did not exist.
  */
-import { createHash } from 'node:crypto';
 import { asc, desc, eq, inArray } from 'drizzle-orm';
 import type { RequestEvent } from '@sveltejs/kit';
 import { getDb, type Database } from '../db';
 import { documents, lots, noticeResponses, notices, parts } from '../db/schema';
+import type { IncomingFile } from '$lib/uploads/rules';
 import { authorize, notFound, unprocessable, type ApiError } from '../http';
 import type { Action } from '../policy';
 import { recordAudit } from './audit';
+import { acceptUpload, storeLotFile } from './uploads';
 import { getLotForUser, type LotView } from './lots';
 import { getNoticeForUser } from './notices';
 import type { SessionUser } from '../../roles';
@@ -59,40 +60,23 @@ export async function portalLots(db: Database, user: SessionUser) {
 
 export interface ReplyInput {
 	comment: string;
-	file: { name: string; type: string; bytes: Buffer } | null;
+	file: IncomingFile | null;
 }
 
-const MAX_REPLY_BYTES = 20 * 1024 * 1024;
-
 /**
- * A supplier's reply to a notice: a comment, and optionally a document stored on the lot as a
- * corrective action and linked from the reply.
+ * A supplier's reply to a notice: a comment, and optionally a file (PDF, PNG, JPEG, XLSX, CSV or
+ * text; services/uploads.ts) stored on the lot as a corrective action and linked from the reply.
+ * A file whose bytes the lot already holds (say, the buyer's own CoC sent back) is linked as it
+ * is: the existing document keeps its name, kind and uploader.
  */
 export async function replyToNotice(db: Database, user: SessionUser, noticeId: string, input: ReplyInput) {
 	const comment = input.comment.trim();
 	if (comment.length < 2) throw unprocessable('Write a comment', [{ path: 'comment', message: 'Required' }]);
-	if (input.file && input.file.bytes.length > MAX_REPLY_BYTES) throw unprocessable('The document is larger than 20 MB', [{ path: 'file', message: 'Too large' }]);
 	return db.transaction(async (tx) => {
 		const notice = await getNoticeForUser(tx, user, noticeId);
-		let documentId: string | null = null;
-		if (input.file && input.file.bytes.length > 0) {
-			const sha256 = createHash('sha256').update(input.file.bytes).digest('hex');
-			const [doc] = await tx
-				.insert(documents)
-				.values({
-					lotId: notice.lotId,
-					kind: 'corrective_action',
-					fileName: input.file.name.slice(0, 200),
-					mime: input.file.type || 'application/octet-stream',
-					sizeBytes: input.file.bytes.length,
-					sha256,
-					bytes: input.file.bytes,
-					uploadedBy: user.id
-				})
-				.onConflictDoUpdate({ target: [documents.lotId, documents.sha256], set: { fileName: input.file.name.slice(0, 200) } })
-				.returning({ id: documents.id });
-			documentId = doc.id;
-		}
+		const file = input.file ? acceptUpload('supplier_reply', input.file) : null;
+		const stored = file ? await storeLotFile(tx, user, notice.lotId, 'corrective_action', file, 'supplier_reply') : null;
+		const documentId = stored?.document.id ?? null;
 		const [reply] = await tx
 			.insert(noticeResponses)
 			.values({ noticeId, userId: user.id, comment, documentId })
@@ -104,7 +88,7 @@ export async function replyToNotice(db: Database, user: SessionUser, noticeId: s
 			entityType: 'notice',
 			entityId: noticeId,
 			lotId: notice.lotId,
-			details: { replyId: reply.id, documentId }
+			details: { replyId: reply.id, documentId, ...(stored?.existing ? { sameBytesAsExistingDocument: true } : {}) }
 		});
 		return { id: reply.id, documentId, createdAt: reply.createdAt.toISOString() };
 	});

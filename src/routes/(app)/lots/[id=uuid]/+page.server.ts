@@ -9,7 +9,8 @@ import {
 	lotHistory,
 	markAwaitingArrival
 } from '$lib/server/services/lots';
-import { DocumentRejected, listDocuments, missingDocuments, uploadDocument } from '$lib/server/services/documents';
+import { listDocuments, missingDocuments } from '$lib/server/services/documents';
+import { UploadRefused, uploadDocument } from '$lib/server/services/uploads';
 import { getPart } from '$lib/server/services/parts';
 import { currentSeverity } from '$lib/server/services/switching';
 import { documentKindSchema } from '$lib/schemas/document';
@@ -112,11 +113,12 @@ export const actions: Actions = {
 			const doc = await uploadDocument(getDb(), locals.user!, lot.id, {
 				kind: kind.data,
 				fileName: file.name,
+				declaredType: file.type,
 				bytes: new Uint8Array(await file.arrayBuffer())
 			});
 			return { action: 'upload', ok: true, message: `Attached “${doc.fileName}”.` };
 		} catch (e) {
-			if (e instanceof DocumentRejected) return fail(e.status, { action: 'upload', ok: false, message: e.message });
+			if (e instanceof UploadRefused) return fail(e.status, { action: 'upload', ok: false, message: e.message });
 			throw e;
 		}
 	}

@@ -7,6 +7,7 @@ import { replySchema } from '$lib/schemas/decision';
 import { getLotForUser } from '$lib/server/services/lots';
 import { acknowledgeNotice } from '$lib/server/services/notices';
 import { portalNotices, replyToNotice } from '$lib/server/services/portal';
+import { incomingFile } from '$lib/server/services/uploads';
 import type { Actions, PageServerLoad } from './$types';
 
 function supplier(locals: App.Locals) {
@@ -43,7 +44,7 @@ async function run<T>(work: () => Promise<T>) {
 	try {
 		return { ok: true as const, value: await work() };
 	} catch (e) {
-		if (e instanceof ApiError) return { ok: false as const, status: e.status, message: e.message };
+		if (e instanceof ApiError) return { ok: false as const, status: e.status, message: e.message, field: e.issues?.[0]?.path ?? null };
 		throw e;
 	}
 }
@@ -63,12 +64,9 @@ export const actions: Actions = {
 		if (!id) return fail(400, { noticeId: null, error: 'That notice was not understood.' });
 		const parsed = replySchema.safeParse({ comment: data.get('comment') ?? '' });
 		if (!parsed.success) return fail(400, { noticeId: id, error: parsed.error.issues[0].message });
-		const upload = data.get('document');
-		const file =
-			upload instanceof File && upload.size > 0
-				? { name: upload.name, type: upload.type, bytes: Buffer.from(await upload.arrayBuffer()) }
-				: null;
+		// Every file takes the one upload path (services/uploads.ts); a refusal names the field `file`.
+		const file = await incomingFile(data.get('file'));
 		const result = await run(() => replyToNotice(getDb(), user, id, { comment: parsed.data.comment, file }));
-		return result.ok ? { noticeId: id, replied: true } : fail(result.status, { noticeId: id, error: result.message });
+		return result.ok ? { noticeId: id, replied: true } : fail(result.status, { noticeId: id, error: result.message, field: result.field });
 	}
 };

@@ -2,7 +2,8 @@ import { json, type RequestEvent } from '@sveltejs/kit';
 import { api, ApiError, authorize, notFound, parseWith } from '$lib/server/http';
 import { getDb } from '$lib/server/db';
 import { getLotForUser } from '$lib/server/services/lots';
-import { DocumentRejected, documentJson, listDocuments, uploadDocument } from '$lib/server/services/documents';
+import { documentJson, listDocuments } from '$lib/server/services/documents';
+import { DuplicateDocument, UploadRefused, uploadDocument } from '$lib/server/services/uploads';
 import { documentUploadSchema, MAX_DOCUMENT_BYTES } from '$lib/schemas/document';
 import type { RequestHandler } from './$types';
 
@@ -29,7 +30,7 @@ export const GET: RequestHandler = api(async (event) => {
 async function readUpload(request: Request): Promise<{ kind: unknown; file: File }> {
 	const length = Number(request.headers.get('content-length') ?? 0);
 	if (length > MAX_DOCUMENT_BYTES + MULTIPART_OVERHEAD) {
-		throw new ApiError(413, 'file_too_large', `The upload is ${(length / 1048576).toFixed(1)} MB; the limit is ${MAX_DOCUMENT_BYTES / 1048576} MB per file`);
+		throw new UploadRefused(413, 'file_too_large', `The upload is ${(length / 1048576).toFixed(1)} MB; the limit is ${MAX_DOCUMENT_BYTES / 1048576} MB per file`);
 	}
 	let form: FormData;
 	try {
@@ -44,7 +45,11 @@ async function readUpload(request: Request): Promise<{ kind: unknown; file: File
 	return { kind: form.get('kind'), file };
 }
 
-/** POST /api/v1/lots/{id}/documents — multipart `kind` + `file` → 201 metadata; the same bytes twice → 409. */
+/**
+ * POST /api/v1/lots/{id}/documents — multipart `kind` + `file` (PDF, PNG or JPEG, ≤ 20 MB; see
+ * services/uploads.ts) → 201 metadata; the same bytes twice → 409; a refused file → 400/413/415
+ * with an issue naming `file`.
+ */
 export const POST: RequestHandler = api(async (event) => {
 	const user = authorize(event, 'document:upload');
 	const lot = await getLotForUser(getDb(), user, event.params.id);
@@ -54,11 +59,11 @@ export const POST: RequestHandler = api(async (event) => {
 	const { kind: validKind } = parseWith(documentUploadSchema, { kind }, 'The upload');
 	try {
 		const bytes = new Uint8Array(await file.arrayBuffer());
-		const doc = await uploadDocument(getDb(), user, lot.id, { kind: validKind, fileName: file.name, bytes });
+		const doc = await uploadDocument(getDb(), user, lot.id, { kind: validKind, fileName: file.name, declaredType: file.type, bytes });
 		return json(documentJson(doc), { status: 201, headers: { Location: `/api/v1/lots/${lot.id}/documents/${doc.id}` } });
 	} catch (error) {
-		if (!(error instanceof DocumentRejected)) throw error;
-		const body = { error: { code: error.code, message: error.message, ...(error.existing ? { existing_document_id: error.existing.id, existing_file_name: error.existing.fileName } : {}) } };
+		if (!(error instanceof DuplicateDocument)) throw error; // other refusals answer through api()
+		const body = { error: { code: error.code, message: error.message, issues: error.issues, existing_document_id: error.existing.id, existing_file_name: error.existing.fileName } };
 		return json(body, { status: error.status });
 	}
 });

@@ -1,9 +1,10 @@
 import { json } from '@sveltejs/kit';
 import { importMappingSchema, MAX_IMPORT_BYTES } from '$lib/schemas/readings';
 import { getDb } from '$lib/server/db';
-import { api, ApiError, authorize, badRequest, notFound, parseWith, unprocessable } from '$lib/server/http';
+import { api, authorize, badRequest, notFound, parseWith, unprocessable } from '$lib/server/http';
 import { commitImport, previewImport, type MeterFile } from '$lib/server/services/imports';
 import { getLotForUser } from '$lib/server/services/lots';
+import { acceptUpload, incomingFile, UploadRefused } from '$lib/server/services/uploads';
 import type { RequestHandler } from './$types';
 
 async function readForm(request: Request): Promise<FormData> {
@@ -14,10 +15,14 @@ async function readForm(request: Request): Promise<FormData> {
 	}
 }
 
+/** The `file` field through the one upload path (CSV or XLSX by content, size limit, cleaned name). */
 async function fileOf(form: FormData): Promise<MeterFile> {
-	const file = form.get('file');
-	if (!(file instanceof File)) throw unprocessable('The `file` field is missing', [{ path: 'file', message: 'choose a CSV or XLSX file' }]);
-	return { name: file.name || 'meter-file', bytes: new Uint8Array(await file.arrayBuffer()) };
+	const value = form.get('file');
+	if (!(value instanceof File)) throw unprocessable('The `file` field is missing', [{ path: 'file', message: 'choose a CSV or XLSX file' }]);
+	const incoming = await incomingFile(value);
+	if (!incoming) throw new UploadRefused(400, 'empty_file', `“${value.name || 'the file'}” is empty.`);
+	const accepted = acceptUpload('meter_file', incoming);
+	return { name: accepted.fileName, bytes: accepted.bytes, format: accepted.type === 'xlsx' ? 'xlsx' : 'csv' };
 }
 
 function mappingOf(form: FormData) {
@@ -45,7 +50,7 @@ export const POST: RequestHandler = api(async (event) => {
 	if (!lot) throw notFound('lot');
 	// Refuse an oversized upload before reading it (multipart framing adds a little).
 	if (Number(event.request.headers.get('content-length') ?? 0) > MAX_IMPORT_BYTES + 64 * 1024) {
-		throw new ApiError(413, 'file_too_large', `Meter files are limited to ${MAX_IMPORT_BYTES / 1024 / 1024} MB`);
+		throw new UploadRefused(413, 'file_too_large', `Meter files are limited to ${MAX_IMPORT_BYTES / 1024 / 1024} MB`);
 	}
 	const form = await readForm(event.request);
 	const file = await fileOf(form);
