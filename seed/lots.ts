@@ -12,6 +12,7 @@ import { uploadDocument } from '../src/lib/server/services/uploads';
 import { addReadings } from '../src/lib/server/services/readings';
 import { evaluateLotNow } from '../src/lib/server/services/evaluation';
 import { decideOverride, submitLot } from '../src/lib/server/services/decisions';
+import { issueChallenge } from '../src/lib/server/services/signature-challenges';
 import { isLithium, isLithiumIon } from '../src/lib/schemas/lot';
 import { demoDocument, type DemoDocumentKind } from './documents';
 import { LOTS, type LotSeed } from './lot-plan';
@@ -125,7 +126,9 @@ async function seedOne(db: Database, people: SeededPeople, part: SeededPart, spe
 	if (spec.stage === 'decided') {
 		const outcome = await submitLot(staffUser(people, 'inspector'), lot.id);
 		if (spec.override && outcome.status === 'on_hold') {
-			await decideOverride(staffUser(people, 'quality'), lot.id, { ...spec.override, password: DEMO_PASSWORD });
+			const quality = staffUser(people, 'quality');
+			const { challengeId } = await issueChallenge(db, quality, lot.id, spec.override.decision);
+			await decideOverride(quality, lot.id, { ...spec.override, password: DEMO_PASSWORD, challengeId });
 		}
 	}
 	await backdate(db, lot.id, when);

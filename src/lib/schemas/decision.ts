@@ -8,6 +8,14 @@ export const overrideSchema = z.object({
 });
 export type OverrideForm = z.infer<typeof overrideSchema>;
 
+/** POST …/decision/challenge: which decision the quality manager is about to sign. */
+export const challengeRequestSchema = z.object({ decision: z.enum(['accept', 'reject']) });
+
+/** POST …/decision: the signed override names the single-use challenge it was issued (…/decision/challenge). */
+export const overrideRequestSchema = overrideSchema.extend({
+	challenge_id: z.uuid('Ask for a signing challenge first (POST /api/v1/lots/{id}/decision/challenge) and send its challenge_id')
+});
+
 /** Supplier reply to a notice (the document travels as a multipart file beside it). */
 export const replySchema = z.object({
 	comment: z.string().trim().min(2, 'Write a comment').max(5000)

@@ -13,6 +13,8 @@ import { recordAudit } from './audit';
 import { evaluateLotNow, type LotEvaluation } from './evaluation';
 import { queueNotice } from './notices';
 import { lockSamplingOfLot, refreshSamplingState } from './sampling-state';
+import { checkChallenge, consumeChallenge, lotChanged } from './signature-challenges';
+import { signatureManifest } from '../signature-manifest';
 import { accountLimit, clearFailures, releaseAttempt, reserveAttempt } from './throttle';
 import type { FinalStatus } from '../mail/templates';
 import type { SessionUser } from '../../roles';
@@ -154,6 +156,8 @@ export interface OverrideInput {
 	decision: 'accept' | 'reject';
 	reason: string;
 	password: string;
+	/** The server-issued signing challenge for this lot, revision and decision (signature-challenges.ts). */
+	challengeId: string;
 }
 
 export const SAFETY_RELEASE_REFUSED =
@@ -196,8 +200,11 @@ async function alreadyDecided(tx: Tx, lotId: string, status: LotStatus): Promise
 }
 
 /**
- * Quality releases or rejects a held lot, e-signed by re-entering the password. The conditional
- * UPDATE … WHERE status = 'on_hold' makes exactly one of two simultaneous overrides win.
+ * Quality releases or rejects a held lot, e-signed by re-entering the password against a
+ * single-use challenge bound to the lot, its revision and the decision. The conditional
+ * UPDATE … WHERE status = 'on_hold' AND revision = (the challenge's) makes exactly one of two
+ * simultaneous overrides win, and none win on a lot that changed since the challenge was issued.
+ * The stored manifest follows 21 CFR Part 11, §11.50 and §11.70 (see signature-manifest.ts).
  */
 export async function decideOverride(user: SessionUser, lotId: string, input: OverrideInput, ip: string | null = null): Promise<DecisionOutcome> {
 	const reason = input.reason.trim();
@@ -205,33 +212,27 @@ export async function decideOverride(user: SessionUser, lotId: string, input: Ov
 	const [visible] = await getDb().select({ supplierId: lots.supplierId }).from(lots).where(eq(lots.id, lotId));
 	if (!visible || !can(user, 'lot:read', { supplierId: visible.supplierId })) throw notFound('lot');
 	if (!can(user, 'lot:decide', { supplierId: visible.supplierId })) throw new ApiError(403, 'forbidden', 'Only quality managers decide held lots');
+	await checkChallenge(getDb(), user, lotId, input.decision, input.challengeId);
 	await verifySignature(user, input.password, ip);
 	return getDb().transaction(async (tx) => {
 		await lockSamplingOfLot(tx, lotId);
+		const challenge = await consumeChallenge(tx, user, lotId, input.decision, input.challengeId);
 		const latest = await latestEvaluation(tx, lotId);
 		if (input.decision === 'accept' && latest?.safety) throw conflict(`Rejected for safety: ${SAFETY_RELEASE_REFUSED}`);
 		const status: FinalStatus = input.decision === 'accept' ? 'accepted' : 'rejected';
 		const [won] = await tx
 			.update(lots)
 			.set({ status, decidedAt: new Date(), updatedAt: new Date() })
-			.where(and(eq(lots.id, lotId), eq(lots.status, 'on_hold')))
-			.returning({ id: lots.id, partId: lots.partId });
+			.where(and(eq(lots.id, lotId), eq(lots.status, 'on_hold'), eq(lots.revision, challenge.revision)))
+			.returning({ id: lots.id, partId: lots.partId, lotCode: lots.lotCode });
 		if (!won) {
-			const [now] = await tx.select({ status: lots.status }).from(lots).where(eq(lots.id, lotId));
-			throw await alreadyDecided(tx, lotId, now.status);
+			const [now] = await tx.select({ status: lots.status, revision: lots.revision }).from(lots).where(eq(lots.id, lotId));
+			if (now.status !== 'on_hold') throw await alreadyDecided(tx, lotId, now.status);
+			throw lotChanged(challenge.revision, now.revision);
 		}
 		const signedAt = new Date();
-		const signature = {
-			signer_id: user.id,
-			signer_email: user.email,
-			signer_name: user.name,
-			meaning: input.decision === 'accept' ? 'release of a held lot' : 'rejection of a held lot',
-			decision: input.decision,
-			reason,
-			signed_at: signedAt.toISOString(),
-			method: 'password re-entered',
-			evaluation_id: latest?.id ?? null
-		};
+		const signed = { lot_id: lotId, lot_code: won.lotCode, revision: challenge.revision, decision: input.decision, reason, evaluation_id: latest?.id ?? null };
+		const signature = signatureManifest(user, signed, challenge.id, signedAt);
 		const [decision] = await tx
 			.insert(decisions)
 			.values({ lotId, evaluationId: latest?.id ?? null, kind: 'override', fromStatus: 'on_hold', toStatus: status, reason, signature, decidedBy: user.id, decidedAt: signedAt })

@@ -9,6 +9,7 @@ import { listDecisions } from '$lib/server/services/decision-history';
 import { decideOverride, reevaluateLot, SAFETY_RELEASE_REFUSED } from '$lib/server/services/decisions';
 import { getLotForUser } from '$lib/server/services/lots';
 import { buildReportData } from '$lib/server/services/report-data';
+import { issueChallenge } from '$lib/server/services/signature-challenges';
 import type { Actions, PageServerLoad } from './$types';
 
 const FORM_ID = 'override';
@@ -16,6 +17,19 @@ const FORM_ID = 'override';
 function quality(locals: App.Locals) {
 	if (!locals.user || !can(locals.user, 'review:read')) error(403, 'The hold review is for quality managers');
 	return locals.user;
+}
+
+/**
+ * Single-use signing challenges for the held lot as shown (one per decision, bound to its
+ * revision): the form sends both, the action signs with the one for the chosen decision. Each
+ * page load issues fresh ones, so after a refusal the reloaded page signs the lot as it is now.
+ */
+async function signingChallenges(locals: App.Locals, lot: { id: string; status: string }, safety: boolean) {
+	const user = locals.user!;
+	if (lot.status !== 'on_hold' || locals.authMethod !== 'session' || !can(user, 'lot:decide')) return null;
+	const reject = await issueChallenge(getDb(), user, lot.id, 'reject');
+	const accept = safety ? null : await issueChallenge(getDb(), user, lot.id, 'accept');
+	return { accept: accept?.challengeId ?? '', reject: reject.challengeId, revision: reject.revision, expiresAt: reject.expiresAt };
 }
 
 export const load: PageServerLoad = async ({ locals, params }) => {
@@ -28,6 +42,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		report,
 		decisions,
 		safetyText: SAFETY_RELEASE_REFUSED,
+		challenges: await signingChallenges(locals, lot, report.disposition.safety),
 		form: await superValidate(zod4(overrideSchema), { id: FORM_ID })
 	};
 };
@@ -35,14 +50,16 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	decide: async (event) => {
 		const user = quality(event.locals);
-		const form = await superValidate(event, zod4(overrideSchema), { id: FORM_ID });
+		const data = await event.request.formData();
+		const form = await superValidate(data, zod4(overrideSchema), { id: FORM_ID });
 		// The password is the signature: used once, never sent back to the browser.
 		const password = form.data.password;
 		form.data.password = '';
 		if (!form.valid) return fail(400, { form });
 		if (event.locals.authMethod !== 'session') return message(form, 'Sign in interactively to sign a decision.', { status: 403 });
 		try {
-			const outcome = await decideOverride(user, event.params.id, { ...form.data, password }, event.getClientAddress());
+			const challengeId = String(data.get(form.data.decision === 'accept' ? 'challenge_accept' : 'challenge_reject') ?? '');
+			const outcome = await decideOverride(user, event.params.id, { ...form.data, password, challengeId }, event.getClientAddress());
 			return message(form, `Recorded: the lot is now ${outcome.status === 'accepted' ? 'released (accepted)' : 'rejected'}. The supplier notice is queued.`);
 		} catch (e) {
 			if (!(e instanceof ApiError)) throw e;
