@@ -7,7 +7,8 @@ import { chmodSync, existsSync, mkdtempSync, readdirSync, rmSync, statSync } fro
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { ensureDatabase, ensurePostgres } from './lib/pg.mjs';
+import { ensurePostgres } from './lib/pg.mjs';
+import { ownedDatabase } from './lib/roles.mjs';
 import { migrateDatabase } from './lib/migrate.mjs';
 import { freePort, runInherit } from './lib/proc.mjs';
 import { cpuPlan, pinPostgres } from './lib/cpus.mjs';
@@ -47,7 +48,8 @@ try {
 	pg = await ensurePostgres({ dataDir: join(scratch, 'pg'), preferredPort: await freePort(), throwaway: true, log: quiet });
 	const cpus = cpuPlan();
 	if (cpus) pinPostgres(pg.dataDir, cpus.rest);
-	const databaseUrl = await ensureDatabase(pg.url, 'restvolt_bench');
+	// Owner role for migrations, the seed and the bench's own setup; the app connects as the app role (tests/bench/lib/app.ts).
+	const { ownerUrl: databaseUrl } = await ownedDatabase(pg.url, 'restvolt_bench');
 	await migrateDatabase(databaseUrl, root);
 	const { NODE_ENV: _production, ...seedEnv } = process.env; // the demo seed refuses NODE_ENV=production
 	const seeded = await runInherit('npx', ['tsx', 'seed/index.ts'], {

@@ -7,7 +7,8 @@ import { chmodSync, mkdirSync, mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { ensureDatabase, ensurePostgres } from './lib/pg.mjs';
+import { ensurePostgres } from './lib/pg.mjs';
+import { ownedDatabase } from './lib/roles.mjs';
 import { startMailPeer } from './lib/mail-peer.mjs';
 import { migrateDatabase } from './lib/migrate.mjs';
 import { freePort, runInherit } from './lib/proc.mjs';
@@ -23,12 +24,13 @@ const smtpPort = await freePort();
 const httpPort = await freePort();
 const peer = await startMailPeer({ smtpPort, httpPort, dir: join(scratch, 'mail') });
 for (const [name, seedLots] of [['restvolt_template', 'on'], ['restvolt_base', 'off']]) {
-	const url = await ensureDatabase(pg.url, name);
-	await migrateDatabase(url, root);
-	const code = await runInherit('npx', ['tsx', 'seed/index.ts'], { cwd: root, env: { ...process.env, DATABASE_URL: url, SEED_LOTS: seedLots } });
+	// Migrated and seeded as the owner role; the app connects as the app role (scripts/lib/roles.mjs).
+	const { ownerUrl } = await ownedDatabase(pg.url, name);
+	await migrateDatabase(ownerUrl, root);
+	const code = await runInherit('npx', ['tsx', 'seed/index.ts'], { cwd: root, env: { ...process.env, DATABASE_URL: ownerUrl, SEED_LOTS: seedLots } });
 	if (code !== 0) console.error(`[dev-services] seeding ${name} failed`);
 }
-const dbUrl = await ensureDatabase(pg.url, 'restvolt_test', 'restvolt_template');
+const dbUrl = (await ownedDatabase(pg.url, 'restvolt_test', 'restvolt_template')).superUrl;
 const vars = {
 	TEST_PG_URL: pg.url, TEST_PG_BIN: pg.bin, TEST_PG_DATA: pg.dataDir, TEST_TEMPLATE_DB: 'restvolt_template', TEST_BASE_DB: 'restvolt_base',
 	TEST_SMTP_PORT: smtpPort, TEST_MAIL_HTTP_URL: `http://127.0.0.1:${httpPort}`, TEST_SCRATCH: scratch, DATABASE_URL: dbUrl

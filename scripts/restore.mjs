@@ -5,6 +5,7 @@ import { resolve } from 'node:path';
 import { projectDatabaseUrl } from './lib/database-url.mjs';
 import { findPgBin } from './lib/pg.mjs';
 import { run } from './lib/proc.mjs';
+import { grantAppRole, OWNER_ROLE, roleExists } from './lib/roles.mjs';
 
 const root = resolve(import.meta.dirname, '..');
 const file = process.argv[2];
@@ -14,6 +15,11 @@ if (!file || !existsSync(file)) {
 }
 const bin = findPgBin();
 if (!bin) throw new Error('pg_restore not found: install the Debian package postgresql-client');
+const url = projectDatabaseUrl(root);
+// The restored tables belong to the owner role (scripts/lib/roles.mjs), as migrations made them.
+const asOwner = (await roleExists(url, OWNER_ROLE)) ? [`--role=${OWNER_ROLE}`] : [];
 // --clean --if-exists drops what the dump contains before recreating it, in one transaction.
-run(`${bin}/pg_restore`, ['--clean', '--if-exists', '--no-owner', '--single-transaction', '--exit-on-error', '--dbname', projectDatabaseUrl(root), resolve(file)]);
+run(`${bin}/pg_restore`, ['--clean', '--if-exists', '--no-owner', ...asOwner, '--single-transaction', '--exit-on-error', '--dbname', url, resolve(file)]);
+// A backup from before the app role existed carries no grants for it.
+await grantAppRole(url);
 console.log(`restored ${resolve(file)}`);

@@ -13,18 +13,23 @@ process.chdir(root);
 await ensureNodeModules(root);
 await ensureKitSync(root);
 
-const { ensureDatabase, ensurePostgres } = await import('./lib/pg.mjs');
+const { ensurePostgres } = await import('./lib/pg.mjs');
+const { ownedDatabase } = await import('./lib/roles.mjs');
 const { startMailPeer } = await import('./lib/mail-peer.mjs');
 const { migrateDatabase } = await import('./lib/migrate.mjs');
 const { ensureBuild } = await import('./lib/build.mjs');
 const { appEnv, authSecret, SERVER_NODE_FLAGS } = await import('./lib/env.mjs');
 
 const cleanups = [];
+// Least privilege (scripts/lib/roles.mjs): migrations and the seed run as the owner role, the app
+// as a role that cannot change tables or the audit trail. With your own DATABASE_URL, that role
+// migrates, and APP_DATABASE_URL (when set) is what the app connects with.
 let databaseUrl = process.env.DATABASE_URL;
+let appDatabaseUrl = process.env.APP_DATABASE_URL ?? databaseUrl;
 if (!databaseUrl) {
 	const pg = await ensurePostgres({ dataDir: join(dataRoot, 'pg'), preferredPort: Number(process.env.PGPORT ?? 5432) });
 	if (!pg.reused) cleanups.push(pg.stop);
-	databaseUrl = await ensureDatabase(pg.url, 'restvolt');
+	({ ownerUrl: databaseUrl, appUrl: appDatabaseUrl } = await ownedDatabase(pg.url, 'restvolt'));
 }
 
 let smtpPort = null;
@@ -37,7 +42,7 @@ if (!process.env.SMTP_URL) {
 }
 
 const port = await firstFreePort(Number(process.env.PORT ?? 3000));
-const env = appEnv({ port, databaseUrl, smtpPort, mailHttpPort, secret: authSecret(dataRoot) });
+const env = appEnv({ port, databaseUrl: appDatabaseUrl, smtpPort, mailHttpPort, secret: authSecret(dataRoot) });
 
 await migrateDatabase(databaseUrl, root);
 // The seed decides demo lots, which writes supplier notices with portal links: give it the app's origin.

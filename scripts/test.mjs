@@ -18,7 +18,8 @@ await ensureNodeModules(root);
 await ensureKitSync(root);
 ensureDebianPackages(['chromium', 'poppler-utils'], ['chromium', 'pdftotext', 'pdfinfo', 'pdftoppm']);
 
-const { ensureDatabase, ensurePostgres } = await import('./lib/pg.mjs');
+const { ensurePostgres } = await import('./lib/pg.mjs');
+const { ownedDatabase } = await import('./lib/roles.mjs');
 const { startMailPeer } = await import('./lib/mail-peer.mjs');
 const { migrateDatabase } = await import('./lib/migrate.mjs');
 const { ensureBuild } = await import('./lib/build.mjs');
@@ -30,12 +31,15 @@ const smtpPort = await freePort();
 const mailHttpPort = await freePort();
 const peer = await startMailPeer({ smtpPort, httpPort: mailHttpPort, dir: join(scratch, 'mail') });
 
-/** Two templates: the full demo scenario, and its people, models and parts without any lots. */
+/**
+ * Two templates: the full demo scenario, and its people, models and parts without any lots.
+ * Migrated and seeded as the owner role (scripts/lib/roles.mjs); copies keep owner and grants.
+ */
 async function prepareTemplates(serverUrl) {
 	for (const [name, seedLots] of [['restvolt_template', 'on'], ['restvolt_base', 'off']]) {
-		const url = await ensureDatabase(serverUrl, name);
-		await migrateDatabase(url, root);
-		const code = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...process.env, DATABASE_URL: url, SEED_LOTS: seedLots } });
+		const { ownerUrl } = await ownedDatabase(serverUrl, name);
+		await migrateDatabase(ownerUrl, root);
+		const code = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...process.env, DATABASE_URL: ownerUrl, SEED_LOTS: seedLots } });
 		if (code !== 0) throw new Error(`seeding the ${name} database failed`);
 	}
 }
@@ -55,7 +59,7 @@ try {
 		TEST_SMTP_PORT: String(smtpPort),
 		TEST_MAIL_HTTP_URL: `http://127.0.0.1:${mailHttpPort}`,
 		TEST_SCRATCH: scratch,
-		DATABASE_URL: await ensureDatabase(pg.url, 'restvolt_test', 'restvolt_template')
+		DATABASE_URL: (await ownedDatabase(pg.url, 'restvolt_test', 'restvolt_template')).superUrl
 	};
 	const stages = [
 		['check', 'npx', ['svelte-kit', 'sync']],

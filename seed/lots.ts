@@ -76,17 +76,20 @@ async function backdate(db: Database, lotId: string, when: Date) {
 /**
  * The lot's audit events follow its invented past, in their own order, so its history reads
  * registration → bench → decision. The trail refuses UPDATE (a trigger): only this seed step,
- * in its own transaction, writes it with triggers off (a superuser setting; without it the
- * events keep the seeding time and a note says so).
+ * in its own transaction, writes it with that trigger off (only the tables' owner role, which
+ * seeds, may switch it; the app's role may not. Without it the events keep the seeding time and
+ * a note says so).
  */
 async function backdateTrail(db: Database, lotId: string, at: (days: number, step?: number) => Date) {
 	try {
 		await db.transaction(async (tx) => {
-			await tx.execute(sql`set local session_replication_role = replica`);
+			// DDL is transactional: if anything below fails, the rollback switches the trigger back on too.
+			await tx.execute(sql`alter table audit_events disable trigger audit_events_no_update_delete`);
 			const events = await tx.select({ id: auditEvents.id, action: auditEvents.action }).from(auditEvents).where(eq(auditEvents.lotId, lotId)).orderBy(asc(auditEvents.id));
 			for (const [i, event] of events.entries()) {
 				await tx.update(auditEvents).set({ at: at(historyDay(event.action), i + 1) }).where(eq(auditEvents.id, event.id));
 			}
+			await tx.execute(sql`alter table audit_events enable trigger audit_events_no_update_delete`);
 		});
 	} catch (error) {
 		console.warn(`[seed] lot history keeps today's dates (${error instanceof Error ? error.message : String(error)})`);

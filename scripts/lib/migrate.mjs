@@ -1,5 +1,7 @@
-// Applies the committed SQL migrations in drizzle/ (a second run does nothing).
+// Applies the committed SQL migrations in drizzle/ (a second run does nothing), then the app role's
+// grants (scripts/lib/roles.mjs). Run it as the owner role, so the tables it creates are the owner's.
 import { join } from 'node:path';
+import { grantAppRole } from './roles.mjs';
 
 export async function migrateDatabase(databaseUrl, root) {
 	const { default: pg } = await import('pg');
@@ -12,4 +14,5 @@ export async function migrateDatabase(databaseUrl, root) {
 	} finally {
 		await pool.end();
 	}
+	await grantAppRole(databaseUrl);
 }

@@ -110,8 +110,11 @@ function chownPostgres(path) {
 	chownSync(path, uid, gid);
 }
 
-/** Create a database if it does not exist yet (optionally from a template). */
-export async function ensureDatabase(serverUrl, name, template) {
+/**
+ * Create a database if it does not exist yet (optionally from a template, optionally owned by a
+ * role: scripts/lib/roles.mjs's OWNER_ROLE). Returns its superuser URL.
+ */
+export async function ensureDatabase(serverUrl, name, template, { owner } = {}) {
 	const { default: pg } = await import('pg');
 	const client = new pg.Client({ connectionString: `${serverUrl}/postgres` });
 	await client.connect();
@@ -119,7 +122,7 @@ export async function ensureDatabase(serverUrl, name, template) {
 		const { rowCount } = await client.query('select 1 from pg_database where datname = $1', [name]);
 		if (rowCount === 0) {
 			const ident = (s) => `"${s.replaceAll('"', '""')}"`;
-			await client.query(`create database ${ident(name)}${template ? ` template ${ident(template)}` : ''}`);
+			await client.query(`create database ${ident(name)}${template ? ` template ${ident(template)}` : ''}${owner ? ` owner ${ident(owner)}` : ''}`);
 		}
 	} finally {
 		await client.end();

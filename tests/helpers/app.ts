@@ -1,10 +1,13 @@
 /**
  * Starts the built app (`node build`, the same artefact `npm start` serves) against a given
- * database and SMTP port, on a free port, and waits for its health endpoint.
+ * database and SMTP port, on a free port, and waits for its health endpoint. The app connects as
+ * the least-privileged app role (scripts/lib/roles.mjs), as `npm start` runs it, whatever role the
+ * given URL names.
  */
 import { spawn, type ChildProcess } from 'node:child_process';
 import { resolve } from 'node:path';
 import { freePort, waitForHttp } from '../../scripts/lib/proc.mjs';
+import { APP_ROLE, urlAs } from '../../scripts/lib/roles.mjs';
 import { testEnv } from './env';
 
 export interface RunningApp {
@@ -30,7 +33,7 @@ export async function startApp(opts: { databaseUrl: string; smtpPort?: number; e
 			HOST: '127.0.0.1',
 			PORT: String(port),
 			ORIGIN: `http://127.0.0.1:${port}`,
-			DATABASE_URL: opts.databaseUrl,
+			DATABASE_URL: urlAs(opts.databaseUrl, APP_ROLE),
 			SMTP_URL: `smtp://127.0.0.1:${opts.smtpPort ?? testEnv().smtpPort}`,
 			MAIL_FROM: 'Restvolt <no-reply@restvolt.test>',
 			AUTH_SECRET: TEST_AUTH_SECRET,

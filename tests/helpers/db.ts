@@ -6,18 +6,31 @@
  */
 import pg from 'pg';
 import { randomBytes } from 'node:crypto';
+import { APP_ROLE, OWNER_ROLE, urlAs } from '../../scripts/lib/roles.mjs';
 import { testEnv } from './env';
 
-export async function freshDatabase(
-	label = 'db',
-	{ demo = true }: { demo?: boolean } = {}
-): Promise<{ url: string; name: string; drop: () => Promise<void> }> {
+export interface FreshDatabase {
+	/** Superuser URL: for the tests' own setup and assertions. */
+	url: string;
+	/** As the owner role (migrations, seed). */
+	ownerUrl: string;
+	/** As the app's role (startApp connects with it whatever URL it is given). */
+	appUrl: string;
+	name: string;
+	drop: () => Promise<void>;
+}
+
+export async function freshDatabase(label = 'db', { demo = true }: { demo?: boolean } = {}): Promise<FreshDatabase> {
 	const { pgUrl, templateDb: demoDb, baseDb } = testEnv();
 	const templateDb = demo ? demoDb : baseDb;
 	const name = `t_${label.replace(/\W/g, '_').slice(0, 30)}_${randomBytes(4).toString('hex')}`;
-	await admin(`create database "${name}" template "${templateDb}"`);
+	// The copy keeps the template's table owners and grants; the database itself is the owner role's too.
+	await admin(`create database "${name}" template "${templateDb}" owner "${OWNER_ROLE}"`);
+	const url = `${pgUrl}/${name}`;
 	return {
-		url: `${pgUrl}/${name}`,
+		url,
+		ownerUrl: urlAs(url, OWNER_ROLE),
+		appUrl: urlAs(url, APP_ROLE),
 		name,
 		drop: () => admin(`drop database if exists "${name}" with (force)`)
 	};

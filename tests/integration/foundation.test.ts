@@ -41,7 +41,7 @@ describe('audit trail', () => {
 describe('migrations and seed', () => {
 	it('a second migration run changes nothing', async () => {
 		const before = await countRows('drizzle.__drizzle_migrations');
-		await migrateDatabase(db.url, root);
+		await migrateDatabase(db.ownerUrl, root);
 		expect(await countRows('drizzle.__drizzle_migrations')).toBe(before);
 		expect(before).toBeGreaterThanOrEqual(2);
 	});

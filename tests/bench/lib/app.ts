@@ -4,6 +4,7 @@ import { randomBytes } from 'node:crypto';
 import { resolve } from 'node:path';
 import { appEnv, SERVER_NODE_FLAGS } from '../../../scripts/lib/env.mjs';
 import { freePort, waitForHttp } from '../../../scripts/lib/proc.mjs';
+import { APP_ROLE, urlAs } from '../../../scripts/lib/roles.mjs';
 import { placed } from './cpus';
 
 export interface BenchApp {
@@ -21,7 +22,8 @@ export async function startBenchApp(databaseUrl: string, buildDir: string): Prom
 	const smtpPort: number = await freePort(); // nobody listens: background mail is off anyway
 	const env = appEnv({
 		port,
-		databaseUrl,
+		// As `npm start` runs it: the least-privileged app role.
+		databaseUrl: urlAs(databaseUrl, APP_ROLE),
 		smtpPort,
 		mailHttpPort: undefined,
 		secret: randomBytes(32).toString('base64url'),
