@@ -4,7 +4,10 @@
  * the audit trail's triggers off and cannot change or remove audit rows; it can do its job.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { APP_ROLE, OWNER_ROLE } from '../../scripts/lib/roles.mjs';
+import { resolve } from 'node:path';
+import { APP_ROLE, OWNER_ROLE, ownedDatabase } from '../../scripts/lib/roles.mjs';
+import { migrateDatabase } from '../../scripts/lib/migrate.mjs';
+import { testEnv } from '../helpers/env';
 import { startApp, type RunningApp } from '../helpers/app';
 import { tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient, type FreshDatabase } from '../helpers/db';
@@ -105,3 +108,31 @@ async function newLotBody() {
 		return { po_number: 'PO-LEAST-PRIV', supplier_id: rows[0].supplier_id, part_id: rows[0].part_id, quantity: 100, declared_soc: 0.3, transport: 'road', un_number: 'UN3480' };
 	});
 }
+
+describe('a database made before the roles existed (an older npm start cluster)', () => {
+	it('is handed over to the owner role, migrates as it, and grants the app role its rights', async () => {
+		const { pgUrl } = testEnv();
+		const name = `t_handover_${Date.now()}`;
+		await withClient(`${pgUrl}/postgres`, (c) => c.query(`create database "${name}"`));
+		try {
+			// As it was: migrated by the superuser, who owns every table.
+			await migrateDatabase(`${pgUrl}/${name}`, resolve(import.meta.dirname, '../..'));
+			const urls = await ownedDatabase(pgUrl, name);
+			await migrateDatabase(urls.ownerUrl, resolve(import.meta.dirname, '../..'));
+			const owners = await withClient(urls.superUrl, async (c) => {
+				const { rows } = await c.query(`
+					select distinct pg_get_userbyid(relowner) as owner from pg_class c join pg_namespace n on n.oid = c.relnamespace
+					where n.nspname in ('public', 'drizzle') and relkind in ('r', 'S', 'v')
+					union select distinct pg_get_userbyid(proowner) from pg_proc p join pg_namespace n on n.oid = p.pronamespace where n.nspname = 'public'
+					union select pg_get_userbyid(datdba) from pg_database where datname = current_database()`);
+				return rows.map((r) => r.owner as string);
+			});
+			expect(owners).toEqual([OWNER_ROLE]);
+			expect(await outcome(urls.appUrl, `insert into audit_events (action, details) values ('test.handover', '{}')`)).toBe('ok');
+			expect(await outcome(urls.appUrl, 'delete from audit_events')).toBe(INSUFFICIENT_PRIVILEGE);
+			expect(await outcome(urls.appUrl, 'drop table lots')).toBe(INSUFFICIENT_PRIVILEGE);
+		} finally {
+			await withClient(`${pgUrl}/postgres`, (c) => c.query(`drop database if exists "${name}" with (force)`));
+		}
+	}, 60_000);
+});
