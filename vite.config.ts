@@ -17,6 +17,18 @@ export default defineConfig({
 				}
 			},
 			{
+				// Service functions against a real PostgreSQL, without a build or HTTP (tests/helpers/service-db.ts).
+				extends: true,
+				test: {
+					name: 'services',
+					environment: 'node',
+					include: ['tests/services/**/*.test.ts'],
+					testTimeout: 60_000,
+					hookTimeout: 120_000,
+					pool: 'forks'
+				}
+			},
+			{
 				extends: true,
 				test: {
 					name: 'integration',

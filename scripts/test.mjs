@@ -1,7 +1,8 @@
 #!/usr/bin/env node
 // `npm test`: install what is missing, start a throw-away PostgreSQL cluster and mail peer on free
-// ports, build the app, then run svelte-check, the unit and integration tests (vitest) and the
-// browser tests (Playwright + Debian's Chromium). Stops everything; non-zero exit on any failure.
+// ports, run svelte-check, the unit and services tests (vitest; no build needed), build the app,
+// then the integration tests (vitest) and the browser tests (Playwright + Debian's Chromium).
+// Stops everything; non-zero exit on any failure.
 import { chmodSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
@@ -47,7 +48,6 @@ async function prepareTemplates(serverUrl) {
 const failures = [];
 try {
 	await prepareTemplates(pg.url);
-	if (wants('e2e') || wants('integration')) await ensureBuild(root);
 
 	const env = {
 		...process.env,
@@ -67,10 +67,17 @@ try {
 		// The benchmark runs under tsx, which does not type-check; keep it compiling against the services.
 		['check', 'npx', ['tsc', '-p', 'tests/bench/tsconfig.json']],
 		['unit', 'npx', ['vitest', 'run', '--project', 'unit']],
+		// Service functions on the real PostgreSQL need no build: they run before it, and fail fast.
+		['services', 'npx', ['vitest', 'run', '--project', 'services']],
+		['build'],
 		['integration', 'npx', ['vitest', 'run', '--project', 'integration']],
 		['e2e', 'npx', ['playwright', 'test']]
 	];
 	for (const [stage, cmd, args] of stages) {
+		if (stage === 'build') {
+			if (wants('e2e') || wants('integration')) await ensureBuild(root);
+			continue;
+		}
 		if (!wants(stage)) continue;
 		console.log(`\n[restvolt] ── ${stage}: ${cmd} ${args.join(' ')}`);
 		const code = await runInherit(cmd, args, { env });
