@@ -7,6 +7,7 @@ import { CONTENT_WIDTH, Cursor, MARGIN, drawFooters, sectionTitle } from './layo
 import { palette } from './palette';
 import { drawOcvPlot } from './plot';
 import { drawReadingsTable } from './readings-table';
+import { drawSignature } from './signature';
 import { drawLotSection, drawModelSection, drawPlanSection, drawStatsSection } from './sections';
 import { drawText, fitText } from './text';
 import type { ReportData } from './types';
@@ -23,6 +24,7 @@ export async function renderInspectionReport(data: ReportData): Promise<Uint8Arr
 
 	drawTitle(cursor, data);
 	drawDisposition(cursor, data);
+	drawSignature(cursor, data);
 	drawLotSection(cursor, data);
 	drawPlanSection(cursor, data);
 	drawStatsSection(cursor, data);

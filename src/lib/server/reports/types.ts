@@ -15,6 +15,8 @@ export interface ReportData {
   limits: { ocv_min_v: number; ocv_max_v: number; expected_ocv_v: number|null };
   units: ReportUnit[];
   model: { version: string; chemistry: string; source: string };
-  decision: { by: string; at: string; kind: 'automatic'|'override'; reason: string|null } | null;
+  decision: { by: string; at: string; kind: 'automatic'|'override'; reason: string|null; signature?: ReportSignature | null } | null;
 }
+/** The e-signature manifest of a quality override as printed (21 CFR Part 11, §11.50); hash and challenge are null on older records. */
+export interface ReportSignature { signer: string; meaning: string; signed_at: string; revision: number|null; content_sha256: string|null; challenge_id: string|null }
 export interface TagData { lot_code: string; po_number: string; status: 'on_hold'|'rejected'; supplier: string; part_number: string; chemistry: string; quantity: number; reason: string; safety: boolean; date: string; url: string /* encoded in the QR */ }

@@ -6,7 +6,8 @@ import { and, desc, eq, lte } from 'drizzle-orm';
 import type { Database, Tx } from '../db';
 import { decisions, evaluations, lots, organisations, parts, readings, users } from '../db/schema';
 import { notFound } from '../http';
-import type { LotListRow, ReportData, ReportReason, ReportUnit, TagData } from '../reports';
+import type { LotListRow, ReportData, ReportReason, ReportSignature, ReportUnit, TagData } from '../reports';
+import type { SignatureManifest } from '../signature-manifest';
 import { evaluateLotNow, type EvaluationInputs, type LotEvaluation } from './evaluation';
 import { appOrigin } from '../origin';
 
@@ -86,6 +87,20 @@ function variablesOf(v: StoredResult['variables']): ReportData['variables'] {
 	return { method: 's-method (variables, advisory)', result: v.status, detail };
 }
 
+/** The stored e-signature manifest as the report prints it (older manifests have no hash or challenge). */
+function signatureOf(stored: unknown): ReportSignature | null {
+	const m = stored as Partial<SignatureManifest> | null;
+	if (!m?.signer_email || !m.signed_at) return null;
+	return {
+		signer: m.signer_name ? `${m.signer_name} <${m.signer_email}>` : m.signer_email,
+		meaning: m.meaning ?? 'quality decision',
+		signed_at: m.signed_at,
+		revision: m.signed?.revision ?? null,
+		content_sha256: m.content_sha256 ?? null,
+		challenge_id: m.challenge_id ?? null
+	};
+}
+
 /** The given decision, or the lot's latest one. */
 async function decisionFor(db: Db, lotId: string, decisionId: string | null) {
 	const [d] = await db
@@ -97,7 +112,8 @@ async function decisionFor(db: Db, lotId: string, decisionId: string | null) {
 		.limit(1);
 	if (!d) return null;
 	const by = d.d.kind === 'automatic' ? `Disposition engine (submitted by ${d.name ?? d.email ?? 'unknown'})` : (d.name ?? d.email ?? 'unknown');
-	return { view: { by, at: d.d.decidedAt.toISOString(), kind: d.d.kind, reason: d.d.reason }, toStatus: d.d.toStatus, evaluationId: d.d.evaluationId };
+	const signature = d.d.kind === 'override' ? signatureOf(d.d.signature) : null;
+	return { view: { by, at: d.d.decidedAt.toISOString(), kind: d.d.kind, reason: d.d.reason, signature }, toStatus: d.d.toStatus, evaluationId: d.d.evaluationId };
 }
 
 /**
