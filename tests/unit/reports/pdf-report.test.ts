@@ -80,4 +80,20 @@ describe('renderInspectionReport', () => {
 		expect(text).toContain('No readings recorded yet');
 		expect(text).toContain('No sampling plan recorded');
 	});
+	it('prints the e-signature manifest of a quality override, and none for the engine’s own decision', async () => {
+		const hash = 'a3f1c09e5b7d2468' + '0'.repeat(48);
+		const signature = { signer: 'Ines Varga <quality@kestrel-mobility.example>', meaning: 'release of a held lot', signed_at: '2031-05-15T10:05:00.000Z', revision: 9, content_sha256: hash, challenge_id: '5e0c2b7a-1f4d-4c3e-9b8a-7d6e5f4c3b2a' };
+		const data = makeReport({ decision: { by: 'Ines Varga', at: signature.signed_at, kind: 'override', reason: 'Summary received and checked', signature } });
+		const text = pdfText(writeTemp('signed.pdf', await renderInspectionReport(data)));
+		expect(text).toContain('Electronic signature of the quality decision');
+		expect(text).toContain('Ines Varga');
+		expect(text).toContain('<quality@kestrel-mobility.example>'); // the value column wraps after the name
+		expect(text).toContain('release of a held lot');
+		expect(text).toContain('2031-05-15 10:05 UTC');
+		expect(text).toContain('a3f1c09e5b7d2468…');
+		expect(text).not.toContain(hash); // a prefix, not the whole hash
+		expect(text).toContain('5e0c2b7a…');
+		const automatic = pdfText(writeTemp('automatic.pdf', await renderInspectionReport(makeReport())));
+		expect(automatic).not.toContain('Electronic signature');
+	});
 });
