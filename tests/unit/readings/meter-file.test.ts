@@ -1,7 +1,7 @@
-// CSV parsing (RFC 4180, https://www.rfc-editor.org/rfc/rfc4180), header guessing and column mapping
-// of meter files. Expected values are worked out by hand from the inputs written here.
+// CSV parsing through papaparse (RFC 4180, https://www.rfc-editor.org/rfc/rfc4180), header guessing and
+// column mapping of meter files. Expected values are worked out by hand from the inputs written here.
 import { describe, expect, it } from 'vitest';
-import { detectDelimiter, guessMapping, mapTable, parseCsv, parseNumber, parseTime } from '../../../src/lib/server/services/meter-file';
+import { CsvSyntaxError, detectDelimiter, guessMapping, mapTable, parseCsv, parseNumber, parseTime } from '../../../src/lib/server/services/meter-file';
 import { importMappingSchema } from '../../../src/lib/schemas/readings';
 
 describe('parseCsv', () => {
@@ -25,6 +25,29 @@ describe('parseCsv', () => {
 		expect(detectDelimiter('Serial;OCV;T\nA;3,6;25\nB;3,7;25')).toBe(';');
 		expect(detectDelimiter('Serial\tOCV\nA\t3.6')).toBe('\t');
 		expect(detectDelimiter('Serial,OCV\nA,3.6')).toBe(',');
+	});
+
+	it('finds the semicolon of a decimal-comma file that ends in a line break or has empty lines', () => {
+		expect(detectDelimiter('Serial;OCV\r\nA;3,6\r\nB;3,7\r\n')).toBe(';');
+		expect(parseCsv('Serial;OCV\n\nA;3,6\n  \nB;3,7\n')).toEqual([['Serial', 'OCV'], [''], ['A', '3,6'], ['  '], ['B', '3,7']]);
+	});
+
+	it('reads a one-column file with the default delimiter and adds no row for the final line break', () => {
+		expect(parseCsv('serial\nA1\nA2\n')).toEqual([['serial'], ['A1'], ['A2']]);
+		expect(parseCsv('serial\nA1\n\n')).toEqual([['serial'], ['A1'], ['']]);
+	});
+
+	it('refuses broken quoting, naming the row where it starts', () => {
+		const refusal = (text: string) => {
+			try {
+				parseCsv(text);
+			} catch (error) {
+				return error instanceof CsvSyntaxError ? { row: error.row, message: error.message } : error;
+			}
+			return null;
+		};
+		expect(refusal('serial,ocv\nA1,3.6\n"A2,3.7\nA3,3.8')).toEqual({ row: 3, message: 'Quoted field unterminated' });
+		expect(refusal('serial,ocv\nA1,3.6\n"A"2,3.7')).toMatchObject({ row: 3 });
 	});
 });
 

@@ -9,10 +9,9 @@ import { MAX_READINGS_PER_CALL, type ImportMapping } from '$lib/schemas/readings
 import type { Database } from '../db';
 import { lots, readingImports } from '../db/schema';
 import { ApiError, unprocessable } from '../http';
-import { guessMapping, mapTable, parseCsv, type RowError, type Table } from './meter-file';
+import { CsvSyntaxError, guessMapping, mapTable, parseCsv, readXlsxTable, type RowError, type Table } from './meter-file';
 import { addReadingsTx, type AddReadingsResult } from './readings';
 import { sha256Hex } from './uploads';
-import { readXlsxTable } from './xlsx-reader';
 
 /** A meter file that passed the upload rules (services/uploads.ts, use `meter_file`). */
 export interface MeterFile {
@@ -47,10 +46,10 @@ export interface ImportResult extends AddReadingsResult {
 const PREVIEW_ROWS = 50;
 const ERROR_LIMIT = 200;
 
-/** The first sheet as text (direct zip + XML reader: no workbook object model for a 10,000-row file). */
-function readXlsx(bytes: Uint8Array): Table {
+/** The first sheet as text (xlsx-populate). */
+async function readXlsx(bytes: Uint8Array): Promise<Table> {
 	try {
-		return readXlsxTable(bytes);
+		return await readXlsxTable(bytes);
 	} catch {
 		throw unprocessable('The file looks like a spreadsheet but could not be read as XLSX', [{ path: 'file', message: 'not a readable XLSX workbook' }]);
 	}
@@ -59,12 +58,17 @@ function readXlsx(bytes: Uint8Array): Table {
 function readCsv(bytes: Uint8Array): Table {
 	const text = new TextDecoder('utf-8', { fatal: false }).decode(bytes);
 	if (text.includes('\u0000')) throw unprocessable('The file is neither CSV text nor an XLSX workbook');
-	return parseCsv(text);
+	try {
+		return parseCsv(text);
+	} catch (error) {
+		if (!(error instanceof CsvSyntaxError)) throw error;
+		throw unprocessable(`The CSV file could not be read: broken quoting in row ${error.row}`, [{ path: `row ${error.row}`, message: error.message }]);
+	}
 }
 
 /** The file as a table of strings, by the format its content was sniffed as (never its name). */
 export async function readTable(file: MeterFile): Promise<{ table: Table; format: 'csv' | 'xlsx' }> {
-	return file.format === 'xlsx' ? { table: readXlsx(file.bytes), format: 'xlsx' } : { table: readCsv(file.bytes), format: 'csv' };
+	return file.format === 'xlsx' ? { table: await readXlsx(file.bytes), format: 'xlsx' } : { table: readCsv(file.bytes), format: 'csv' };
 }
 
 async function previousImport(db: Database, lotId: string, sha: string): Promise<string | null> {

@@ -1,8 +1,10 @@
 /**
- * Meter files → reading rows, without I/O: a small CSV parser (RFC 4180 quoting, `,` `;` or tab,
- * BOM, CRLF), a guess of the column mapping from the header, and the mapping itself with
- * row-level errors. The import service reads XLSX into the same string table.
+ * Meter files → reading rows: CSV through papaparse (RFC 4180 quoting, `,` `;` or tab found by its
+ * delimiter detection, BOM, CRLF), the first sheet of an XLSX workbook through xlsx-populate, a guess
+ * of the column mapping from the header, and the mapping itself with row-level errors. No I/O.
  */
+import Papa from 'papaparse';
+import XlsxPopulate from 'xlsx-populate';
 import type { ImportMapping, ReadingInputRow } from '$lib/schemas/readings';
 import { readingSchema } from '$lib/schemas/readings';
 
@@ -23,41 +25,57 @@ export interface MappedRows {
 	skippedEmpty: number;
 }
 
-/** The delimiter that splits the first lines most consistently (quotes ignored). */
+const DELIMITERS = [',', ';', '\t'];
+
+/**
+ * The delimiter papaparse finds in the first lines; ',' when none splits them consistently (a file of
+ * one column). Empty lines are left out of the guess: a trailing newline would otherwise defeat it.
+ */
 export function detectDelimiter(text: string): string {
-	const lines = text.split(/\r?\n/).filter((l) => l.trim() !== '').slice(0, 10);
-	let best = ',';
-	let bestScore = 0;
-	for (const d of [',', ';', '\t']) {
-		const counts = lines.map((l) => l.split(d).length - 1);
-		const score = counts.length > 0 && counts.every((c) => c === counts[0]) ? counts[0] : Math.min(...counts, 0);
-		if (score > bestScore) [best, bestScore] = [d, score];
-	}
-	return best;
+	return Papa.parse<string[]>(text, { preview: 10, skipEmptyLines: 'greedy', delimitersToGuess: DELIMITERS }).meta.delimiter;
 }
 
-/** RFC 4180 CSV: quoted fields may hold delimiters, doubled quotes and line breaks. */
-export function parseCsv(input: string, delimiter = detectDelimiter(input)): Table {
-	const text = input.charCodeAt(0) === 0xfeff ? input.slice(1) : input;
-	const table: Table = [];
-	let row: string[] = [];
-	let field = '';
-	let quoted = false;
-	for (let i = 0; i < text.length; i++) {
-		const c = text[i];
-		if (quoted) {
-			if (c !== '"') field += c;
-			else if (text[i + 1] === '"') (field += '"'), i++;
-			else quoted = false;
-		} else if (c === '"' && field === '') quoted = true;
-		else if (c === delimiter) row.push(field), (field = '');
-		else if (c === '\n' || c === '\r') {
-			if (c === '\r' && text[i + 1] === '\n') i++;
-			row.push(field), table.push(row), (row = []), (field = '');
-		} else field += c;
+/** A CSV file whose quoting is broken; `row` is the 1-based record where papaparse found it. */
+export class CsvSyntaxError extends Error {
+	constructor(
+		readonly row: number,
+		message: string
+	) {
+		super(message);
 	}
-	if (field !== '' || row.length > 0) row.push(field), table.push(row);
+}
+
+/**
+ * RFC 4180 CSV: quoted fields may hold delimiters, doubled quotes and line breaks. Empty lines stay
+ * in the table (as `['']`) so that row numbers match the file; a final line break adds no row.
+ */
+export function parseCsv(text: string, delimiter = detectDelimiter(text)): Table {
+	const parsed = Papa.parse<string[]>(text, { delimiter, skipEmptyLines: false });
+	const broken = parsed.errors.find((e) => e.type === 'Quotes');
+	if (broken) throw new CsvSyntaxError((broken.row ?? 0) + 1, broken.message);
+	const table = parsed.data;
+	const last = table.at(-1);
+	if (/[\r\n]$/.test(text) && last?.length === 1 && last[0] === '') table.pop();
 	return table;
+}
+
+/** A cell value of xlsx-populate as the import reads it: numbers in JavaScript's notation, rich text joined. */
+export function xlsxCellText(value: unknown): string {
+	if (value === null || value === undefined) return '';
+	if (value instanceof Date) return value.toISOString();
+	if (typeof value === 'object' && 'text' in value && typeof value.text === 'function') return String(value.text()); // RichText
+	if (typeof value === 'object' && 'error' in value && typeof value.error === 'function') return String(value.error()); // FormulaError, e.g. "#N/A"
+	return String(value);
+}
+
+/**
+ * The used range of the first sheet of an .xlsx workbook as text. Dates stay spreadsheet serial
+ * numbers (the mapping's time column converts them). Throws when the bytes are not a workbook.
+ */
+export async function readXlsxTable(bytes: Uint8Array): Promise<Table> {
+	const workbook = await XlsxPopulate.fromDataAsync(Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength));
+	const values = workbook.sheet(0)?.usedRange()?.value() ?? [];
+	return values.map((row) => row.map(xlsxCellText));
 }
 
 const HEADER_PATTERNS: Array<[keyof Pick<ImportMapping, 'serial' | 'ocv' | 'temperature' | 'ac_resistance' | 'time'>, RegExp]> = [
