@@ -15,7 +15,6 @@ export {
 export {
 	lotStatistics,
 	median,
-	medianAbsoluteDeviation,
 	robustOutliers,
 	spreadCheck,
 	selfDischargeMvPerDay,

@@ -1,5 +1,7 @@
 // Lot statistics over per-cell, temperature-corrected OCV values (volts), plus robust outliers and
-// self-discharge. All single-pass or sort-based: O(n log n) for 10,000 units.
+// self-discharge. Mean, σ, median and MAD come from simple-statistics (pure, no I/O); its median
+// selects instead of sorting, so each is O(n) for 10,000 units.
+import { extent, mean, median as medianOf, medianAbsoluteDeviation, sampleStandardDeviation } from 'simple-statistics';
 
 export interface LotStatistics {
 	count: number;
@@ -14,54 +16,32 @@ export interface LotStatistics {
 	range: number | null;
 }
 
-function medianOfSorted(sorted: Float64Array | number[]): number {
-	const n = sorted.length;
-	const mid = n >> 1;
-	return n % 2 === 1 ? sorted[mid] : (sorted[mid - 1] + sorted[mid]) / 2;
-}
-
-/** Median of any array (copies, does not reorder the input). */
+/** Median of any array (the input is not reordered). */
 export function median(values: readonly number[]): number {
 	if (values.length === 0) throw new RangeError('median of an empty list');
-	return medianOfSorted(Float64Array.from(values).sort());
+	return medianOf(values);
 }
 
-/** Raw MAD: median of |x − median(x)|. */
-export function medianAbsoluteDeviation(values: readonly number[], center = median(values)): number {
-	return medianOfSorted(Float64Array.from(values, (v) => Math.abs(v - center)).sort());
-}
-
-/** Median and raw MAD of a list, computed once so callers can share them (two sorts in all). */
+/** Median and raw MAD (median of |x − median|, no 1.4826 factor) of a list, computed once so callers can share them. */
 export interface RobustCentre {
 	median: number;
 	mad: number;
 }
 
 export function robustCentre(values: readonly number[]): RobustCentre {
-	const med = median(values);
-	return { median: med, mad: medianAbsoluteDeviation(values, med) };
+	return { median: median(values), mad: medianAbsoluteDeviation(values) };
 }
 
-/** `centre` (from robustCentre of the same values) saves re-sorting when the caller already has it. */
+/** `centre` (from robustCentre of the same values) saves computing it again when the caller already has it. */
 export function lotStatistics(values: readonly number[], centre?: RobustCentre): LotStatistics {
 	const n = values.length;
 	if (n === 0) return { count: 0, mean: null, sd: null, median: null, mad: null, min: null, max: null, range: null };
-	let sum = 0;
-	let min = Infinity;
-	let max = -Infinity;
-	for (const v of values) {
-		sum += v;
-		if (v < min) min = v;
-		if (v > max) max = v;
-	}
-	const mean = sum / n;
-	let squares = 0;
-	for (const v of values) squares += (v - mean) * (v - mean); // two-pass: stable for OCV-sized numbers
+	const [min, max] = extent(values);
 	const { median: med, mad } = centre ?? robustCentre(values);
 	return {
 		count: n,
-		mean,
-		sd: n >= 2 ? Math.sqrt(squares / (n - 1)) : null,
+		mean: mean(values),
+		sd: n >= 2 ? sampleStandardDeviation(values) : null,
 		median: med,
 		mad,
 		min,
@@ -94,12 +74,7 @@ export function robustOutliers(values: readonly number[], k = 4, minScale = 0, c
 /** Spread (max − min) in millivolts versus a limit; null when there is nothing to compare. */
 export function spreadCheck(values: readonly number[], limitMv: number) {
 	if (values.length < 2) return null;
-	let min = Infinity;
-	let max = -Infinity;
-	for (const v of values) {
-		if (v < min) min = v;
-		if (v > max) max = v;
-	}
+	const [min, max] = extent(values);
 	const spreadMv = (max - min) * 1000;
 	return { spread_mv: spreadMv, limit_mv: limitMv, over: spreadMv > limitMv };
 }
