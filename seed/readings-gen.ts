@@ -5,19 +5,12 @@
 import { getLibraryModel, ocvAt } from '../src/lib/electrochem';
 import type { Finding } from './lot-plan';
 import type { SeededPart } from './parts';
+import { mulberry32, standardNormal } from './random';
 
-/** mulberry32: a small deterministic PRNG so every seed run produces the same readings. */
-export function prng(seed: number) {
-	let a = seed >>> 0;
-	const next = () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-	const normal = () => Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next());
-	return { next, normal };
+/** Seeded uniform and normal draws, so every seed run produces the same readings. */
+function prng(seed: number) {
+	const next = mulberry32(seed);
+	return { next, normal: () => standardNormal(next) };
 }
 
 export interface DemoReading {

@@ -6,6 +6,7 @@
 import { randomBytes } from 'node:crypto';
 import pg from 'pg';
 import { getLibraryModel, ocvAt } from '$lib/electrochem';
+import { mulberry32 } from '../../../seed/random';
 
 export const SCALE_LOTS = 50_000;
 export const READINGS_PER_SCALE_LOT = 20; // 50,000 × 20 = 1,000,000 readings
@@ -47,18 +48,6 @@ export async function createBenchLot(client: pg.Client, part: BenchPart, quantit
 	return rows[0].id;
 }
 
-/** Deterministic pseudo-random numbers (mulberry32), so every run measures the same data. */
-export function seededRandom(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-}
-
 export interface SyntheticReading {
 	serial: string;
 	ocv_v: number;
@@ -68,7 +57,7 @@ export interface SyntheticReading {
 /** Readings of an in-spec NMC delivery near the declared SOC: ±2 % SOC spread, 20–26 °C. */
 export function syntheticReadings(count: number, seed = 1): SyntheticReading[] {
 	const model = getLibraryModel('NMC');
-	const random = seededRandom(seed);
+	const random = mulberry32(seed); // seeded: every run measures the same data
 	const out: SyntheticReading[] = [];
 	for (let i = 0; i < count; i++) {
 		const soc = BENCH_DECLARED_SOC + (random() - 0.5) * 0.04;

@@ -1,21 +1,10 @@
 import type { ReportData, ReportUnit, TagData } from '../../../src/lib/server/reports/types';
+import { mulberry32 } from '../../../seed/random';
 
 /** Invented demo data only: the companies, parts and serials below do not exist. */
 
-/** Small deterministic generator (mulberry32) so fixtures are the same on every run. */
-function seeded(seed: number): () => number {
-	let a = seed >>> 0;
-	return () => {
-		a = (a + 0x6d2b79f5) >>> 0;
-		let t = a;
-		t = Math.imul(t ^ (t >>> 15), t | 1);
-		t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-		return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-	};
-}
-
 export function makeUnits(count: number, deepDischargedAt: number[] = []): ReportUnit[] {
-	const random = seeded(count * 7919);
+	const random = mulberry32(count * 7919); // seeded: the fixtures are the same on every run
 	return Array.from({ length: count }, (_, i) => {
 		const deep = deepDischargedAt.includes(i);
 		const cell = deep ? 1.92 + random() * 0.1 : 3.615 + (random() - 0.5) * 0.03;
