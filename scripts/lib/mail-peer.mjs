@@ -6,6 +6,7 @@ import { createServer } from 'node:http';
 import { mkdirSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { randomUUID } from 'node:crypto';
+import escapeHtml from 'escape-html';
 
 export async function startMailPeer({ smtpPort, httpPort, dir, log = console.log }) {
 	const { SMTPServer } = await import('smtp-server');
@@ -95,10 +96,6 @@ async function handleHttp(dir, req, res) {
 	}
 	res.writeHead(200, { 'content-type': 'text/html; charset=utf-8' });
 	res.end(renderInbox(messages));
-}
-
-function escapeHtml(s) {
-	return String(s).replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 }
 
 function renderInbox(messages) {

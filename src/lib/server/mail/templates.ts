@@ -2,6 +2,7 @@
  * Supplier notice bodies (plain text and HTML) for accept, hold, reject and quality overrides.
  * Rendered when the decision is written, so the outbox row holds exactly what will be sent.
  */
+import escapeHtml from 'escape-html';
 
 export type NoticeKind = 'accept' | 'hold' | 'reject' | 'override';
 export type FinalStatus = 'accepted' | 'on_hold' | 'rejected';
@@ -67,9 +68,6 @@ export function noticeCautions(n: Pick<NoticeInput, 'status' | 'lithium' | 'safe
 	cautions.push('Follow your site procedure, local codes and the current dangerous-goods regulations before handling or shipping these units.');
 	return cautions;
 }
-
-const escapeHtml = (s: string) =>
-	s.replaceAll('&', '&amp;').replaceAll('<', '&lt;').replaceAll('>', '&gt;').replaceAll('"', '&quot;');
 
 export function noticeSubject(n: NoticeInput): string {
 	const prefix = n.kind === 'override' ? 'Quality decision' : 'Inspection result';

@@ -4,13 +4,12 @@
  * the transaction of the event that raised them and are never lost or sent twice.
  */
 import { and, eq, inArray } from 'drizzle-orm';
+import escapeHtml from 'escape-html';
 import type { Tx } from '../db';
 import { lots, notices, organisations, parts, users } from '../db/schema';
 import type { SeverityView } from './switching';
 import { recordAudit } from './audit';
 import { appOrigin } from '../origin';
-
-const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
 
 async function staffRecipients(tx: Tx): Promise<string[]> {
 	const rows = await tx
