@@ -1,25 +1,5 @@
-// Structural copies of the electrochem contract (src/lib/electrochem). Kept identical in shape so the
-// inspection core compiles on its own; the glue code passes electrochem's results straight in.
-export type FlagCode =
-	| 'deep_discharge'
-	| 'over_voltage'
-	| 'soc_indeterminate'
-	| 'temperature_out_of_range'
-	| 'below_window'
-	| 'above_window';
-
-export interface UnitResult {
-	soc: number;
-	soc_sigma: number;
-	soc_low: number;
-	soc_high: number;
-	determinate: boolean;
-	ocv_cell_v: number;
-	ocv_at_25c_v: number;
-	expected_ocv_v: number | null;
-	residual_v: number | null;
-	flags: FlagCode[];
-}
+// The per-unit result comes from the electrochem core as it is (one contract, defined there).
+export type { FlagCode, UnitResult } from '../electrochem/types';
 
 export type InspectionLevel = 'I' | 'II' | 'III' | 'S-1' | 'S-2' | 'S-3' | 'S-4';
 export type Severity = 'normal' | 'tightened' | 'reduced';

@@ -21,15 +21,7 @@ export interface BenchPart {
 	chemistry: string;
 }
 
-export async function withClient<T>(url: string, fn: (client: pg.Client) => Promise<T>): Promise<T> {
-	const client = new pg.Client({ connectionString: url });
-	await client.connect();
-	try {
-		return await fn(client);
-	} finally {
-		await client.end();
-	}
-}
+export { withClient } from '../../helpers/db';
 
 export async function benchPart(client: pg.Client): Promise<BenchPart> {
 	const { rows } = await client.query('select id, supplier_id, chemistry from parts where part_number = $1', [BENCH_PART_NUMBER]);
