@@ -1,4 +1,4 @@
-import { chain } from '$lib/server/handle-chain';
+import { sequence } from '@sveltejs/kit/hooks';
 import type { Handle } from '@sveltejs/kit';
 import { authHandle, resolveUser } from '$lib/server/auth';
 import { guard } from '$lib/server/guard';
@@ -25,4 +25,4 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle: Handle = chain(securityHeaders, csrfGuard, authHandle, resolveUser, guard);
+export const handle: Handle = sequence(securityHeaders, csrfGuard, authHandle, resolveUser, guard);
