@@ -36,12 +36,26 @@ afterAll(async () => {
 	await db?.drop();
 });
 
-/** POST the e-signed decision as a signed-in quality manager (interactive session cookie). */
-function decide(lotId: string, body: Record<string, string>, cookie = qualityCookie) {
+/** Ask for a signing challenge for `decision` on the lot (POST …/decision/challenge, session cookie). */
+function challengeFor(lotId: string, decision: string, cookie = qualityCookie) {
+	return fetch(`${app.url}/api/v1/lots/${lotId}/decision/challenge`, {
+		method: 'POST',
+		headers: { cookie, origin: app.url, 'content-type': 'application/json' },
+		body: JSON.stringify({ decision })
+	}).then(async (r) => ({ status: r.status, json: await r.json() }));
+}
+
+/**
+ * POST the e-signed decision as a signed-in quality manager (interactive session cookie), with a
+ * fresh signing challenge for that lot and decision unless the body brings its own.
+ */
+async function decide(lotId: string, body: Record<string, string>, cookie = qualityCookie) {
+	const challenge = body.challenge_id ? null : await challengeFor(lotId, body.decision, cookie);
+	const challengeId = body.challenge_id ?? (challenge?.status === 201 ? challenge.json.challenge_id : undefined);
 	return fetch(`${app.url}/api/v1/lots/${lotId}/decision`, {
 		method: 'POST',
-		headers: { cookie, 'content-type': 'application/json' },
-		body: JSON.stringify(body)
+		headers: { cookie, origin: app.url, 'content-type': 'application/json' },
+		body: JSON.stringify({ ...body, challenge_id: challengeId })
 	}).then(async (r) => ({ status: r.status, json: await r.json() }));
 }
 
@@ -122,8 +136,12 @@ describe('submit → automatic disposition with a notice', () => {
 		expect(parsed.text).toMatch(/must not be recharged/);
 		expect(parsed.text).toMatch(/dangerous-goods regulations/);
 		expect(text).toMatch(/REJECT/);
+		// No signing challenge is issued for a lot that is not on hold, so nothing can be signed.
+		const challenge = await challengeFor(lot.id, 'accept');
+		expect(challenge.status).toBe(409);
 		const override = await decide(lot.id, { decision: 'accept', reason: 'Trying to release', password: DEMO_PASSWORD });
-		expect(override.status).toBe(409);
+		expect(override.status).toBe(422);
+		expect(override.json.error.issues.map((i: { path: string }) => i.path)).toContain('challenge_id');
 		expect((await lotRow(lot.id)).status).toBe('rejected');
 	});
 });
