@@ -43,6 +43,8 @@ export const readings = pgTable(
 	},
 	(t) => [
 		index('readings_lot_serial_idx').on(t.lotId, t.serial, t.measuredAt),
+		// A serial trace (lot list `serial` filter): every lot that holds a reading of this unit.
+		index('readings_serial_idx').on(t.serial, t.lotId),
 		unique('readings_lot_client_key_uq').on(t.lotId, t.clientKey),
 		check('readings_ocv_range', sql`${t.ocvV} >= 0 and ${t.ocvV} < 1000`),
 		check('readings_temperature_range', sql`${t.temperatureC} > -60 and ${t.temperatureC} < 120`),

@@ -1,0 +1,1 @@
+CREATE INDEX "readings_serial_idx" ON "readings" USING btree ("serial","lot_id");
