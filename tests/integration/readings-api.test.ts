@@ -314,6 +314,17 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 		expect(skipped.json).toMatchObject({ inserted: 3, skipped_invalid: 1 });
 	});
 
+	it('refuses a CSV whose quoting is broken, naming the row, and stores nothing', async () => {
+		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
+		const csv = csvOf(modelReadings('NMC', 3, 0.3)) + '\r\n"SN-OPEN;3,61;25,0;18,0;2026-03-02 10:00:00\r\nSN-NEXT;3,62;25,0;18,0;2026-03-02 10:01:00\r\n';
+		const mapping = { serial: 0, ocv: 1, ocv_unit: 'V', temperature: 2, ac_resistance: 3, time: 4, first_row: 1, skip_invalid: true };
+		const refused = await upload(lot.id, 'broken.csv', csv, mapping);
+		expect(refused.status).toBe(422);
+		expect(refused.json.error.message).toContain('row 5');
+		expect(refused.json.error.issues).toEqual([{ path: 'row 5', message: 'Quoted field unterminated' }]);
+		expect(await readingCount(lot.id)).toBe(0);
+	});
+
 	it('previews and imports an XLSX workbook (numbers as numbers, a header row)', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
 		const rows = modelReadings('NMC', 12, 0.3);
