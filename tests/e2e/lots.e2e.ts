@@ -80,7 +80,7 @@ test('a buyer registers a lot with documents and releases it', async ({ page }) 
 	await expect(page.getByTestId('upload-message')).toContainText('This file is already attached as “coc-po-0417.pdf”');
 
 	await attach(page, 'Safety data sheet', 'sds.pdf', Buffer.from('Safety data sheet, plain text'));
-	await expect(page.getByTestId('upload-message')).toContainText('is named .pdf but its content is not a PDF file');
+	await expect(page.getByTestId('upload-message')).toContainText('“sds.pdf” is named .pdf but is a text file');
 	await shot(page, 'lot-documents-refused');
 
 	const download = page.waitForEvent('download');

@@ -22,12 +22,13 @@ const artefacts = resolve(import.meta.dirname, '../artifacts/screens/review');
 let held: { id: string; lot_code: string };
 let other: { id: string; lot_code: string };
 let ferrolithLot: { id: string; lot_code: string };
+let buyer: Caller;
 
 test.beforeAll(async () => {
 	db = await freshDatabase('e2e_review', { demo: false });
 	app = await startApp({ databaseUrl: db.url });
 	const as = async (email: string): Promise<Caller> => ({ base: app.url, token: await tokenFor(db.url, email) });
-	const buyer = await as('buyer@kestrel-mobility.example');
+	buyer = await as('buyer@kestrel-mobility.example');
 	const inspector = await as('inspector@kestrel-mobility.example');
 	held = await measuredLot(buyer, inspector, 'hold');
 	other = await measuredLot(buyer, inspector, 'safety');
@@ -69,6 +70,24 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	await expect(page.getByText('The password is not correct; nothing was decided.')).toBeVisible();
 	await shot(page, 'review-wrong-password');
 
+	// The signature is bound to the lot as shown: a document arriving meanwhile moves the lot on,
+	// the signature is refused, and the reloaded page signs the lot as it now stands.
+	await expect(page.getByText(`bound to lot ${held.lot_code} as shown here`)).toBeVisible();
+	const form = new FormData();
+	form.set('kind', 'other');
+	form.set('file', new Blob([Buffer.from(`%PDF-1.4\n% supplier letter ${held.id}\n%%EOF\n`)], { type: 'application/pdf' }), 'letter.pdf');
+	expect((await call(buyer, `/api/v1/lots/${held.id}/documents`, { form })).status).toBe(201);
+	await page.getByLabel('Your password (signature)').fill('restvolt-demo-2026');
+	await page.getByRole('button', { name: 'Sign and record decision' }).click();
+	await expect(page.getByTestId('decision-message')).toContainText('The lot changed since the signing challenge was issued');
+	// The page reloads with fresh challenges for the lot's new revision before it signs again.
+	const revision = await withClient(db.url, async (c) => (await c.query('select revision from lots where id = $1', [held.id])).rows[0].revision);
+	await expect(page.getByText(`revision ${revision}; sign before`)).toBeVisible();
+	await shot(page, 'review-lot-changed');
+
+	// The reloaded form starts over: the manager reviews the lot again and signs anew.
+	await page.getByLabel('Release (accept)').check();
+	await page.getByLabel(/^Reason/).fill('UN 38.3 summary received by mail and checked; supplier letter read');
 	await page.getByLabel('Your password (signature)').fill('restvolt-demo-2026');
 	await page.getByRole('button', { name: 'Sign and record decision' }).click();
 	await expect(page.getByTestId('decision-message')).toContainText('released (accepted)');
@@ -76,6 +95,14 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	await shot(page, 'review-released');
 	const status = await withClient(db.url, async (c) => (await c.query('select status from lots where id = $1', [held.id])).rows[0].status);
 	expect(status).toBe('accepted');
+	// The manifest names the page's challenge, which is now used, and a content hash.
+	const { signature, used } = await withClient(db.url, async (c) => {
+		const row = (await c.query(`select signature from decisions where lot_id = $1 and kind = 'override'`, [held.id])).rows[0];
+		const challenge = (await c.query('select used_at from signature_challenges where id = $1', [row.signature.challenge_id])).rows[0];
+		return { signature: row.signature, used: challenge?.used_at };
+	});
+	expect(signature.content_sha256).toMatch(/^[0-9a-f]{64}$/);
+	expect(used).toBeTruthy();
 
 	// The safety-rejected lot is not in the queue; its review page offers no release.
 	await page.goto(`${app.url}/review`);

@@ -9,6 +9,7 @@
  *                                    /portal, staff on the portal → 303 /
  * Every lot-scoped resource below belongs to supplier A, so supplier B must get 404.
  */
+import { randomUUID } from 'node:crypto';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startApp, type RunningApp } from '../helpers/app';
 import { CookieJar, DEMO_PASSWORD, postForm, signInApi, signInLinkFor, tokenFor } from '../helpers/auth';
@@ -47,7 +48,7 @@ interface ApiCase {
 	path: () => string;
 	method?: 'GET' | 'POST' | 'PATCH';
 	/** Body for the call; a fresh one per role (distinct serials, file bytes…). */
-	body?: (role: RoleKey) => unknown;
+	body?: (role: RoleKey) => unknown | Promise<unknown>;
 	form?: (role: RoleKey) => FormData;
 	/** Use the session cookie instead of the token (quality decisions are e-signed in a session). */
 	session?: boolean;
@@ -122,8 +123,14 @@ function apiCases(): ApiCase[] {
 		},
 		{ name: 'POST lots/[id=uuid]/submit', path: () => `/api/v1/lots/${L.submitByInspector}/submit`, expect: row(403, ok, ok, 403, 403, 403, 401) },
 		{
+			name: 'POST lots/[id=uuid]/decision/challenge', path: () => `/api/v1/lots/${L.decide}/decision/challenge`, session: true,
+			body: () => ({ decision: 'reject' }),
+			expect: row(403, 403, ok, 403, 403, 403, 401)
+		},
+		{
 			name: 'POST lots/[id=uuid]/decision', path: () => `/api/v1/lots/${L.decide}/decision`, session: true,
-			body: () => ({ decision: 'reject', reason: 'matrix: confirmed the hold', password: DEMO_PASSWORD }),
+			// Quality signs with a challenge of its own; the others are refused before the body is read.
+			body: async (r) => ({ decision: 'reject', reason: 'matrix: confirmed the hold', password: DEMO_PASSWORD, challenge_id: r === 'quality' ? await signingChallenge(L.decide, 'reject') : randomUUID() }),
 			expect: row(403, 403, ok, 403, 403, 403, 401)
 		},
 		{ name: 'GET notices', path: () => '/api/v1/notices', expect: row(ok, ok, ok, ok, ok, 403, 401) },
@@ -149,7 +156,7 @@ async function callApi(c: ApiCase, role: RoleKey) {
 	// Anonymous uploads come from the same site (a browser without a session): else the cross-site check answers 403 first.
 	if (c.form && role === 'anonymous') headers.origin = app.url;
 	if (c.form) body = c.form(role);
-	else if (c.body) (body = JSON.stringify(c.body(role))), (headers['content-type'] = 'application/json');
+	else if (c.body) (body = JSON.stringify(await c.body(role))), (headers['content-type'] = 'application/json');
 	// Quality's submit goes to its own ready lot (the inspector's lot is submitted by then).
 	const path = c.name === 'POST lots/[id=uuid]/submit' && role === 'quality' ? `/api/v1/lots/${L.submitByQuality}/submit` : c.path();
 	const res = await fetch(`${app.url}${path}`, { method: c.method ?? (body ? 'POST' : c.name.startsWith('POST') ? 'POST' : 'GET'), headers, body, redirect: 'manual' });
@@ -200,6 +207,17 @@ afterAll(async () => {
 	await app?.stop();
 	await db?.drop();
 });
+
+/** A signing challenge for quality's session (POST …/decision/challenge). */
+async function signingChallenge(lotId: string, decision: 'accept' | 'reject'): Promise<string> {
+	const res = await fetch(`${app.url}/api/v1/lots/${lotId}/decision/challenge`, {
+		method: 'POST',
+		headers: { cookie: cookies.quality, origin: app.url, 'content-type': 'application/json' },
+		body: JSON.stringify({ decision })
+	});
+	if (res.status !== 201) throw new Error(`no signing challenge for ${lotId}: ${res.status} ${await res.text()}`);
+	return (await res.json()).challenge_id;
+}
 
 /** A supplier signs in by the e-mailed link (read from the SMTP peer) and keeps the session cookie. */
 async function supplierSession(email: string): Promise<string> {

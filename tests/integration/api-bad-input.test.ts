@@ -184,6 +184,11 @@ function table(): Entry[] {
 			// The password is wrong in every body (junk never is the demo password), so nothing can be decided.
 			body: jsonBodies({ decision: 'accept', reason: 'Released after review', password: 'not-the-password' }, (o) => fc.oneof(fc.constant(o), spoilWith('decision', fc.oneof(junk, fc.constantFrom('release', 'ACCEPT', '')))(o)))
 		},
+		{
+			route: 'lots/[id=uuid]/decision/challenge', method: 'POST', who: 'qualitySession', input: 'json', path: lotPath('/decision/challenge', idFrom(A.on_hold, ids.lotB.on_hold)),
+			// The decision is always spoiled, so no challenge row is ever issued (the snapshot stays as it was).
+			body: jsonBodies({ decision: 'reject' }, spoilWith('decision', fc.oneof(junk, fc.constantFrom('release', 'ACCEPT', ''))))
+		},
 		get('lots/[id=uuid]/decisions', 'quality', lotPath('/decisions')),
 		get('lots/[id=uuid]/documents', 'buyer', lotPath('/documents')),
 		{

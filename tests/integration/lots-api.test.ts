@@ -378,7 +378,7 @@ describe('lot documents', () => {
 			expect(await snapshot(), name).toEqual(before);
 		}
 		const text = await upload('buyer', lot.id, 'coc', textAsPdf, 'coc.pdf');
-		expect(text.json.error.message).toContain('is not a PDF');
+		expect(text.json.error.message).toContain('“coc.pdf” is named .pdf but is a text file');
 	});
 
 	it('404s an unknown document and another supplier’s document', async () => {

@@ -110,13 +110,18 @@ describe('outbox faults', () => {
 			signInApi(app!.url, 'quality@kestrel-mobility.example'),
 			signInApi(app!.url, 'quality2@kestrel-mobility.example')
 		]);
-		const override = (cookie: string, decision: 'accept' | 'reject') =>
-			fetch(`${app!.url}/api/v1/lots/${lot.id}/decision`, {
+		const post = (cookie: string, path: string, body: unknown) =>
+			fetch(`${app!.url}/api/v1/lots/${lot.id}${path}`, {
 				method: 'POST',
-				headers: { cookie, 'content-type': 'application/json' },
-				body: JSON.stringify({ decision, reason: `Decided ${decision} in the concurrency test`, password: DEMO_PASSWORD })
+				headers: { cookie, origin: app!.url, 'content-type': 'application/json' },
+				body: JSON.stringify(body)
 			}).then(async (r) => ({ status: r.status, json: await r.json() }));
-		const results = await Promise.all([override(first, 'accept'), override(second, 'reject')]);
+		// Each signer holds a signing challenge for the lot as it stands, then both sign at once.
+		const challenge = async (cookie: string, decision: 'accept' | 'reject') => (await post(cookie, '/decision/challenge', { decision })).json.challenge_id as string;
+		const [firstChallenge, secondChallenge] = [await challenge(first, 'accept'), await challenge(second, 'reject')];
+		const override = (cookie: string, decision: 'accept' | 'reject', challengeId: string) =>
+			post(cookie, '/decision', { decision, reason: `Decided ${decision} in the concurrency test`, password: DEMO_PASSWORD, challenge_id: challengeId });
+		const results = await Promise.all([override(first, 'accept', firstChallenge), override(second, 'reject', secondChallenge)]);
 		const statuses = results.map((r) => r.status).sort();
 		expect(statuses).toEqual([200, 409]);
 		const loser = results.find((r) => r.status === 409)!;

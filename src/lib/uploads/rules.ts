@@ -89,12 +89,13 @@ export function checkUpload(use: UploadUse, file: IncomingFile): UploadVerdict {
 	const ext = extensionOf(file.name);
 	const type = typeOfContent(sniffed, ext, rule.types);
 	const wanted = `Upload a ${typeList(rule.types)} file.`;
-	if (!type) {
-		return refuse(415, 'unsupported_type', `“${name}” is ${SNIFFED_WORDS[sniffed]}, which is not accepted here. ${wanted}`);
-	}
-	const label = FILE_TYPES[type].label;
 	const nameType = typeOfExtension(ext, Object.keys(FILE_TYPES) as FileType[]);
 	const textBoth = sniffed === 'text' && (nameType === 'csv' || nameType === 'txt');
+	if (!type) {
+		const claim = nameType && nameType !== sniffed && !textBoth ? `is named .${ext} but ` : '';
+		return refuse(415, 'unsupported_type', `“${name}” ${claim}is ${SNIFFED_WORDS[sniffed]}, which is not accepted here. ${wanted}`);
+	}
+	const label = FILE_TYPES[type].label;
 	if ((nameType && nameType !== type && !textBoth) || FOREIGN_EXTENSIONS.includes(ext)) {
 		return refuse(415, 'type_mismatch', `“${name}” is named .${ext} but its content is ${label}. Rename it or upload the right file.`);
 	}

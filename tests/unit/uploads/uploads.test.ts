@@ -119,6 +119,7 @@ describe('checkUpload', () => {
 		expect(pdfAsHtml).toMatchObject({ status: 415, code: 'type_mismatch' });
 		const htmlAsPdf = refusal(checkUpload('lot_document', { name: 'coc.pdf', declaredType: 'application/pdf', bytes: HTML }));
 		expect(htmlAsPdf).toMatchObject({ status: 415, code: 'unsupported_type' });
+		expect(htmlAsPdf?.message).toContain('“coc.pdf” is named .pdf but is an HTML page');
 		const declaredHtml = refusal(checkUpload('lot_document', { name: 'coc.pdf', declaredType: 'text/html', bytes: PDF }));
 		expect(declaredHtml).toMatchObject({ status: 415, code: 'type_mismatch' });
 		expect(declaredHtml?.message).toContain('text/html');
