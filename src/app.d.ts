@@ -11,6 +11,8 @@ declare global {
 			bearerToken: string | null;
 			/** The server-side session row of a cookie session (services/sessions.ts), or null. */
 			sessionId: string | null;
+			/** Set by handleError when PostgreSQL was unreachable: the answer becomes a 503 (unavailable.ts). */
+			databaseUnavailable?: boolean;
 		}
 		interface Error {
 			message: string;

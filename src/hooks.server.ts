@@ -5,6 +5,7 @@ import { guard } from '$lib/server/guard';
 import { csrfGuard } from '$lib/server/csrf';
 import { building } from '$app/environment';
 import { startBackgroundWork } from '$lib/server/background';
+import { databaseUnavailable } from '$lib/server/unavailable';
 
 if (!building) startBackgroundWork();
 
@@ -25,4 +26,5 @@ const securityHeaders: Handle = async ({ event, resolve }) => {
 	return response;
 };
 
-export const handle: Handle = sequence(securityHeaders, csrfGuard, authHandle, resolveUser, guard);
+export const handle: Handle = sequence(securityHeaders, databaseUnavailable, csrfGuard, authHandle, resolveUser, guard);
+export { handleError } from '$lib/server/unavailable';

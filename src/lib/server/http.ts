@@ -5,6 +5,9 @@
 import { json, type RequestEvent } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { can, type Action, type Resource, type SessionUser } from './policy';
+import { isDatabaseUnavailable } from './db/unavailable';
+
+export { isDatabaseUnavailable };
 
 export interface ApiIssue {
 	path: string;
@@ -24,8 +27,13 @@ export class ApiError extends Error {
 
 export function errorResponse(error: ApiError): Response {
 	const body = { error: { code: error.code, message: error.message, ...(error.issues ? { issues: error.issues } : {}) } };
-	return json(body, { status: error.status });
+	// A 503 is temporary (the database restarting): tell clients when to try again.
+	return json(body, { status: error.status, headers: error.status === 503 ? { 'retry-after': '2' } : undefined });
 }
+
+export const DATABASE_UNAVAILABLE_MESSAGE = 'The database is not reachable right now; nothing was saved. Try again in a moment.';
+/** The answer while PostgreSQL is down or restarting (also given by the hooks, unavailable.ts). */
+export const databaseUnavailable = () => new ApiError(503, 'database_unavailable', DATABASE_UNAVAILABLE_MESSAGE);
 
 export const badRequest = (message: string, issues?: ApiIssue[]) => new ApiError(400, 'bad_request', message, issues);
 export const notFound = (what = 'resource') => new ApiError(404, 'not_found', `${what} not found`);
@@ -69,36 +77,40 @@ export function authorize(event: Pick<RequestEvent, 'locals'>, action: Action, r
 	return user;
 }
 
+/** Wait before the one retry of a read that met an unreachable database (a restart takes about a second). */
+const READ_RETRY_MS = 1000;
+
 /**
  * Wrap a handler so ApiErrors become the error shape and nothing unexpected leaks as a 5xx body
- * with internals (it is logged; the client sees a plain 500).
+ * with internals (it is logged; the client sees a plain 500). An unreachable database answers 503
+ * `database_unavailable`; a GET or HEAD (a read, safe to repeat) is tried once more first.
  */
 export function api<E extends RequestEvent>(handler: (event: E) => Promise<Response> | Response) {
 	return async (event: E): Promise<Response> => {
+		const isRead = event.request.method === 'GET' || event.request.method === 'HEAD';
 		try {
 			return await handler(event);
 		} catch (error) {
-			if (error instanceof ApiError) return errorResponse(error);
-			if (isKitResponse(error)) throw error;
-			console.error(`[api] ${event.request.method} ${event.url.pathname}`, error);
-			if (isDatabaseUnavailable(error)) {
-				return errorResponse(new ApiError(503, 'database_unavailable', 'The database is not reachable right now; nothing was saved. Try again in a moment.'));
-			}
-			return errorResponse(new ApiError(500, 'internal', 'Something went wrong on the server'));
+			if (!(isRead && isDatabaseUnavailable(error))) return failure(event, error);
+			console.error(`[api] ${event.request.method} ${event.url.pathname}: database unreachable, trying once more`);
+		}
+		await new Promise((resolve) => setTimeout(resolve, READ_RETRY_MS));
+		try {
+			return await handler(event);
+		} catch (error) {
+			return failure(event, error);
 		}
 	};
 }
 
-/** PostgreSQL went away (restart, shutdown, network): a retryable 503, not a server bug. */
-const UNAVAILABLE_CODES = new Set(['57P01', '57P02', '57P03', '08000', '08001', '08003', '08006', 'ECONNREFUSED', 'ECONNRESET', 'EPIPE']);
-export function isDatabaseUnavailable(error: unknown): boolean {
-	for (let e: unknown = error, depth = 0; e && typeof e === 'object' && depth < 5; e = (e as { cause?: unknown }).cause, depth++) {
-		const { code, message } = e as { code?: unknown; message?: unknown };
-		if (typeof code === 'string' && UNAVAILABLE_CODES.has(code)) return true;
-		if (typeof message === 'string' && /Connection terminated|terminating connection due to administrator command/.test(message)) return true;
-	}
-	return false;
+function failure(event: RequestEvent, error: unknown): Response {
+	if (error instanceof ApiError) return errorResponse(error);
+	if (isKitResponse(error)) throw error;
+	console.error(`[api] ${event.request.method} ${event.url.pathname}`, error);
+	if (isDatabaseUnavailable(error)) return errorResponse(databaseUnavailable());
+	return errorResponse(new ApiError(500, 'internal', 'Something went wrong on the server'));
 }
+
 
 function isKitResponse(error: unknown): boolean {
 	return typeof error === 'object' && error !== null && 'status' in error && ('location' in error || 'body' in error);
