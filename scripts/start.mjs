@@ -18,7 +18,7 @@ const { ownedDatabase } = await import('./lib/roles.mjs');
 const { startMailPeer } = await import('./lib/mail-peer.mjs');
 const { migrateDatabase } = await import('./lib/migrate.mjs');
 const { ensureBuild } = await import('./lib/build.mjs');
-const { appEnv, authSecret, SERVER_NODE_FLAGS } = await import('./lib/env.mjs');
+const { appEnv, authSecret } = await import('./lib/env.mjs');
 
 const cleanups = [];
 // Least privilege (scripts/lib/roles.mjs): migrations and the seed run as the owner role, the app
@@ -49,7 +49,7 @@ await migrateDatabase(databaseUrl, root);
 const seedCode = await runInherit('npx', ['tsx', 'seed/index.ts'], { env: { ...process.env, DATABASE_URL: databaseUrl, ORIGIN: env.ORIGIN } });
 if (seedCode !== 0) throw new Error('seeding the demo scenario failed');
 await ensureBuild(root);
-const app = spawn(process.execPath, [...SERVER_NODE_FLAGS, 'build'], { env, stdio: 'inherit' });
+const app = spawn(process.execPath, ['build'], { env, stdio: 'inherit' });
 cleanups.unshift(() => new Promise((r) => (app.exitCode !== null ? r() : (app.once('exit', r), app.kill('SIGTERM')))));
 await waitForHttp(`http://127.0.0.1:${port}/api/v1/health`, { timeoutMs: 60_000 });
 

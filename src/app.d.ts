@@ -7,8 +7,6 @@ declare global {
 			user: SessionUser | null;
 			/** How the user authenticated: an interactive session or an API token. */
 			authMethod: 'session' | 'token' | null;
-			/** An API token not yet checked: set instead of `user` only for routes that check it in their own statement (auth.ts). */
-			bearerToken: string | null;
 			/** The server-side session row of a cookie session (services/sessions.ts), or null. */
 			sessionId: string | null;
 			/** Set by handleError when PostgreSQL was unreachable: the answer becomes a 503 (unavailable.ts). */

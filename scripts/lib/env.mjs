@@ -32,12 +32,3 @@ export function appEnv({ port, databaseUrl, smtpPort, mailHttpPort, secret, extr
 		...extra
 	};
 }
-
-/**
- * V8 flags of the server process (`npm start` and the benchmark start it the same way). A larger
- * young generation: every API answer makes short-lived strings and buffers of tens of KB (an
- * evaluation body is ~60 KB), and with the default 16 MB semi-space the scavenger ran often enough
- * to take a sixth of the process's time under load; 64 MB gave ~20 % more requests/s on the
- * evaluation endpoint (tests/bench/LAST-RUN.md) for at most ~190 MB more memory.
- */
-export const SERVER_NODE_FLAGS = ['--max-semi-space-size=64'];

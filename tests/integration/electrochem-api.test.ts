@@ -249,7 +249,7 @@ describe('POST /api/v1/ocv/evaluate', () => {
 		expect(Math.max(...socs)).toBeLessThanOrEqual(1);
 		// same reading, same answer, wherever it sits in the array
 		expect(last!.body.results[9_000]).toEqual(last!.body.results[0]);
-		// Its speed is measured by npm run bench (ratio against a static file), not asserted here.
+		// Its speed is measured by npm run bench (ratio against the computation alone), not asserted here.
 	});
 
 	it('answers 413 for more than 10,000 readings, naming the limit', async () => {

@@ -135,12 +135,6 @@ export const authHandle: Handle = async (input) => {
 	if (request.method === 'POST' && url.pathname.startsWith('/auth/')) {
 		return new Response('Sign in at /signin', { status: 404 });
 	}
-	// An API call with an Authorization header is decided by that header alone (resolveUser), so
-	// skip Auth.js there: its handle builds the whole config (adapter included) on every request.
-	if (url.pathname.startsWith('/api/') && bearerToken(request) !== undefined) {
-		input.event.locals.auth = async () => null;
-		return input.resolve(input.event);
-	}
 	const response = await auth.handle(input);
 	if (!url.pathname.startsWith('/auth/')) return response;
 	// Auth.js answers some errors with Response.redirect(), whose headers are immutable; the
@@ -218,28 +212,15 @@ function bearerToken(request: Request): string | null | undefined {
 }
 
 /**
- * Hot read-only endpoints that verify a bearer token themselves, in ONE statement with their own
- * read (same checks as `userForToken`), saving a round trip. Fails closed: a route listed here that
- * did not check `locals.bearerToken` would see no user and answer 401.
- */
-const ROUTES_CHECKING_TOKEN_THEMSELVES: ReadonlySet<string> = new Set(['/api/v1/lots/[id=uuid]/evaluation']);
-
-/**
- * Sets `locals.user` and `locals.authMethod` (or, for the routes above, `locals.bearerToken`). An Authorization header on an API call decides
- * alone (no falling back to the cookie); otherwise the Auth.js session, re-checked in the DB.
+ * Sets `locals.user` and `locals.authMethod`. An Authorization header on an API call decides alone
+ * (no falling back to the cookie); otherwise the Auth.js session, re-checked in the DB.
  */
 export const resolveUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	event.locals.authMethod = null;
-	event.locals.bearerToken = null;
 	event.locals.sessionId = null;
 	const token = bearerToken(event.request);
 	if (token !== undefined && event.url.pathname.startsWith('/api/')) {
-		if (token && ROUTES_CHECKING_TOKEN_THEMSELVES.has(event.route.id ?? '')) {
-			// Checked by the route in the same statement as its own read; `user` stays null until then.
-			event.locals.bearerToken = token;
-			return resolve(event);
-		}
 		const user = token ? await userForToken(token) : null;
 		if (user) {
 			event.locals.user = user;

@@ -115,17 +115,3 @@ function failure(event: RequestEvent, error: unknown): Response {
 function isKitResponse(error: unknown): boolean {
 	return typeof error === 'object' && error !== null && 'status' in error && ('location' in error || 'body' in error);
 }
-
-/**
- * A JSON body already in bytes, with its length: one write, no chunked encoding. Passed as a
- * one-chunk stream because a Response copies a byte-array body once more (a 2 MB evaluate answer).
- */
-export function jsonBytes(bytes: Uint8Array, headers: Record<string, string> = {}): Response {
-	const body = new ReadableStream<Uint8Array>({
-		start(controller) {
-			controller.enqueue(bytes);
-			controller.close();
-		}
-	});
-	return new Response(body, { headers: { ...headers, 'content-type': 'application/json', 'content-length': String(bytes.length) } });
-}

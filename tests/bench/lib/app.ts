@@ -2,7 +2,7 @@
 import { spawn } from 'node:child_process';
 import { randomBytes } from 'node:crypto';
 import { resolve } from 'node:path';
-import { appEnv, SERVER_NODE_FLAGS } from '../../../scripts/lib/env.mjs';
+import { appEnv } from '../../../scripts/lib/env.mjs';
 import { freePort, waitForHttp } from '../../../scripts/lib/proc.mjs';
 import { APP_ROLE, urlAs } from '../../../scripts/lib/roles.mjs';
 import { placed } from './cpus';
@@ -27,12 +27,13 @@ export async function startBenchApp(databaseUrl: string, buildDir: string): Prom
 		smtpPort,
 		mailHttpPort: undefined,
 		secret: randomBytes(32).toString('base64url'),
-		extra: { WORKERS: 'off', NODE_ENV: 'production' }
+		// LOG_EVALUATIONS: one log line per evaluation computed, counted by ops/evaluations-per-save.ts.
+		extra: { WORKERS: 'off', NODE_ENV: 'production', LOG_EVALUATIONS: 'on' }
 	});
 	let output = '';
-	// Started as `npm start` starts it (same V8 flags). BENCH_PROFILE_DIR=/some/dir writes a V8 CPU profile of the app there when it stops (node --cpu-prof).
+	// Started as `npm start` starts it. BENCH_PROFILE_DIR=/some/dir writes a V8 CPU profile of the app there when it stops (node --cpu-prof).
 	const profile = process.env.BENCH_PROFILE_DIR ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_PROFILE_DIR}`] : [];
-	const [command, args] = placed('app', process.execPath, [...SERVER_NODE_FLAGS, ...profile, buildDir]);
+	const [command, args] = placed('app', process.execPath, [...profile, buildDir]);
 	const child = spawn(command, args, { cwd: ROOT, env, stdio: ['ignore', 'pipe', 'pipe'] });
 	child.stdout.on('data', (d) => (output += d));
 	child.stderr.on('data', (d) => (output += d));

@@ -4,22 +4,17 @@
  * row of a decision keeps the full snapshot) and with per-unit numbers rounded to 1e-6 — 1 µV,
  * 0.0001 % SOC, far below any meter's resolution, as POST /api/v1/ocv/evaluate does. About 30 %
  * fewer bytes than the full form, and the body is most of what each request moves.
- *
- * Stored and served as ASCII-only JSON (`servedJson`): one reason message with an en dash or a ±
- * would otherwise make the whole body a two-byte string in V8 (twice the memory per request) and
- * force a UTF-8 transcoding on every read and write; escaped, the bytes are the characters.
  */
+import type { UnitResult } from '$lib/electrochem';
 import type { LotEvaluation } from './evaluation';
 
 function round6<T extends number | null>(x: T): T {
 	return (x === null || !Number.isFinite(x) ? x : Math.round(x * 1e6) / 1e6) as T;
 }
 
-export type ServedEvaluation = Omit<LotEvaluation, 'inputs'> & { inputs: Omit<LotEvaluation['inputs'], 'readings'> };
-
-export function servedEvaluation(evaluation: LotEvaluation): ServedEvaluation {
-	const { readings: _readings, ...inputs } = evaluation.inputs;
-	const units = evaluation.units.map((u) => ({
+/** A unit's numbers rounded to 1e-6 (1 µV, 0.0001 % SOC); the rest as it is. */
+export function roundedResult<T extends UnitResult>(u: T): T {
+	return {
 		...u,
 		soc: round6(u.soc),
 		soc_sigma: round6(u.soc_sigma),
@@ -28,22 +23,14 @@ export function servedEvaluation(evaluation: LotEvaluation): ServedEvaluation {
 		ocv_cell_v: round6(u.ocv_cell_v),
 		ocv_at_25c_v: round6(u.ocv_at_25c_v),
 		expected_ocv_v: round6(u.expected_ocv_v),
-		residual_v: round6(u.residual_v),
-		self_discharge_mv_per_day: round6(u.self_discharge_mv_per_day)
-	}));
-	return { ...evaluation, units, inputs };
+		residual_v: round6(u.residual_v)
+	};
 }
 
-/** Any character outside ASCII (JSON.stringify emits them only inside strings). */
-const NON_ASCII = /[\u0080-\uffff]/g;
+export type ServedEvaluation = Omit<LotEvaluation, 'inputs'> & { inputs: Omit<LotEvaluation['inputs'], 'readings'> };
 
-const escapeUnit = (c: string) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`;
-
-/**
- * JSON text of a value with every non-ASCII UTF-16 unit written as a `\uXXXX` escape: the same
- * value when parsed (RFC 8259 section 7; a surrogate pair becomes two escapes), and each character is
- * one byte, so the text's Latin-1 and UTF-8 encodings are the same bytes.
- */
-export function servedJson(value: unknown): string {
-	return JSON.stringify(value).replace(NON_ASCII, escapeUnit);
+export function servedEvaluation(evaluation: LotEvaluation): ServedEvaluation {
+	const { readings: _readings, ...inputs } = evaluation.inputs;
+	const units = evaluation.units.map((u) => ({ ...roundedResult(u), self_discharge_mv_per_day: round6(u.self_discharge_mv_per_day) }));
+	return { ...evaluation, units, inputs };
 }

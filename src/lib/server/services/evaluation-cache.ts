@@ -7,67 +7,42 @@
  * Race-free by ordering: the revision is read BEFORE the evaluation's inputs, so a body computed
  * from newer data than its revision is at worst labelled older (and then never matches again).
  */
-import { sql } from 'drizzle-orm';
-import { getPool, type Database } from '../db';
+import { and, eq, lt, sql } from 'drizzle-orm';
+import type { Database } from '../db';
+import { lotEvaluationsCache, lots } from '../db/schema';
 import { evaluateLotNow } from './evaluation';
-import { servedEvaluation, servedJson } from './evaluation-body';
-import { hashToken, LIVE_TOKEN, tokenUserOf, TOKEN_USER_COLUMNS, TOKEN_USER_FROM, type TokenUserRow } from './tokens';
-import type { SessionUser } from '../../roles';
+import { servedEvaluation } from './evaluation-body';
 
 export interface LotRevision {
 	lotId: string;
 	supplierId: string;
 	revision: number;
-	/** The cached full body at this revision (ASCII-only JSON, see evaluation-body.ts), or null. */
+	/** The cached JSON body at this revision (evaluation-body.ts), or null. */
 	body: string | null;
 }
 
-/**
- * Lot visibility data, revision and cached body in one round trip; null when there is no such lot.
- * A named statement on the pool: parsed and planned once per connection.
- */
-export async function lotRevision(lotId: string): Promise<LotRevision | null> {
-	const result = await getPool().query<{ supplier_id: string; revision: number; body: string | null }>({
-		name: 'restvolt_lot_evaluation_cache_v1',
-		text: `select l.supplier_id, l.revision, c.body
-			from lots l left join lot_evaluations_cache c on c.lot_id = l.id and c.revision = l.revision
-			where l.id = $1`,
-		values: [lotId]
-	});
-	const row = result.rows[0];
-	return row ? { lotId, supplierId: row.supplier_id, revision: Number(row.revision), body: row.body } : null;
+/** Lot visibility data, revision and cached body in one query; null when there is no such lot. */
+export async function lotRevision(db: Database, lotId: string): Promise<LotRevision | null> {
+	const [row] = await db
+		.select({ supplierId: lots.supplierId, revision: lots.revision, body: lotEvaluationsCache.body })
+		.from(lots)
+		.leftJoin(lotEvaluationsCache, and(eq(lotEvaluationsCache.lotId, lots.id), eq(lotEvaluationsCache.revision, lots.revision)))
+		.where(eq(lots.id, lotId));
+	return row ? { lotId, ...row } : null;
 }
 
-/**
- * A bearer token's user and the lot's revision + cached body in ONE round trip (the endpoint's hot
- * path: half its database work). The token is checked exactly as `userForToken` does (hash, not
- * revoked, user active; same last-use note); null when the token is not live. `lot` is null when
- * there is no such lot. The caller still authorises and checks supplier isolation.
- */
-export async function tokenUserAndLotRevision(token: string, lotId: string): Promise<{ user: SessionUser; lot: LotRevision | null } | null> {
-	const result = await getPool().query<TokenUserRow & { supplier_id: string | null; revision: number | null; body: string | null }>({
-		name: 'restvolt_token_lot_evaluation_cache_v1',
-		text: `select ${TOKEN_USER_COLUMNS}, l.supplier_id, l.revision, c.body
-			from ${TOKEN_USER_FROM}
-				left join lots l on l.id = $2
-				left join lot_evaluations_cache c on c.lot_id = l.id and c.revision = l.revision
-			where ${LIVE_TOKEN}`,
-		values: [hashToken(token), lotId]
-	});
-	const row = result.rows[0];
-	if (!row) return null;
-	const lot = row.supplier_id === null ? null : { lotId, supplierId: row.supplier_id, revision: Number(row.revision), body: row.body };
-	return { user: await tokenUserOf(row), lot };
-}
-
-/** Compute the evaluation now and store its served form (evaluation-body.ts: ASCII-only JSON) under the revision read before. */
+/** Compute the evaluation now and store its served form (evaluation-body.ts) under the revision read before. */
 export async function computeAndCache(db: Database, lot: LotRevision): Promise<string> {
-	const body = servedJson(servedEvaluation(await evaluateLotNow(db, lot.lotId)));
-	await db.execute(sql`
-		insert into lot_evaluations_cache (lot_id, revision, body, computed_at)
-		values (${lot.lotId}, ${lot.revision}, ${body}, now())
-		on conflict (lot_id) do update set revision = excluded.revision, body = excluded.body, computed_at = excluded.computed_at
-		where lot_evaluations_cache.revision < excluded.revision`);
+	const body = JSON.stringify(servedEvaluation(await evaluateLotNow(db, lot.lotId)));
+	await db
+		.insert(lotEvaluationsCache)
+		.values({ lotId: lot.lotId, revision: lot.revision, body })
+		.onConflictDoUpdate({
+			target: lotEvaluationsCache.lotId,
+			set: { revision: sql`excluded.revision`, body: sql`excluded.body`, computedAt: sql`excluded.computed_at` },
+			// A slower request that read an older revision must not overwrite a newer body.
+			setWhere: lt(lotEvaluationsCache.revision, sql`excluded.revision`)
+		});
 	return body;
 }
 

@@ -2,10 +2,9 @@
  * Lots: registration, listing (keyset pages), supplier-isolated reads, status transitions and the
  * lot history. All SQL for lots lives here; other services reuse `transitionLot`.
  */
-import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
-import type { Pool } from 'pg';
+import { and, asc, desc, eq, getTableColumns, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import type { Database, Tx } from '../db';
-import { auditEvents, decisions, lots, organisations, parts, users } from '../db/schema';
+import { auditEvents, decisions, lots, organisations, parts, readings, users } from '../db/schema';
 import type { SessionUser } from '$lib/roles';
 import { LOT_FIELD, unNumberProblem, type LotInput, type LotStatus } from '$lib/schemas/lot';
 import { recordAudit } from './audit';
@@ -46,7 +45,7 @@ export interface LotView extends LotRow {
 }
 
 const viewColumns = {
-	lot: lots,
+	...getTableColumns(lots),
 	supplierName: organisations.name,
 	partNumber: parts.partNumber,
 	partDescription: parts.description,
@@ -55,8 +54,6 @@ const viewColumns = {
 	cellsInParallel: parts.cellsInParallel,
 	nominalCapacityAh: parts.nominalCapacityAh
 };
-type ViewRow = { lot: LotRow } & Omit<LotView, keyof LotRow>;
-const flatten = ({ lot, ...rest }: ViewRow): LotView => ({ ...lot, ...rest });
 
 function selectViews(db: Database | Tx) {
 	return db
@@ -146,6 +143,8 @@ export interface LotListFilter {
 	supplierId?: string;
 	partId?: string;
 	search?: string;
+	/** Only lots holding a reading of this unit serial (exact). */
+	serial?: string;
 	limit: number;
 	cursor?: string;
 }
@@ -166,92 +165,55 @@ function decodeCursor(cursor: string): { at: string; id: string } {
 	return { at, id };
 }
 
-/** Columns of a list row, in the order LIST_COLUMNS selects them (LotView, flat). */
-const LIST_COLUMNS = `l.id, l.lot_code, l.po_number, l.supplier_id, l.part_id, l.quantity, l.declared_soc, l.transport::text,
-	l.un_number, l.expected_arrival::text, l.received_at, l.status::text, l.severity::text, l.created_by, l.created_at,
-	l.updated_at, l.decided_at, l.revision, o.name, p.part_number, p.description, p.chemistry, p.cells_in_series,
-	p.cells_in_parallel, p.nominal_capacity_ah, l.created_at::text`;
+/** No organisation matches this id: a supplier user without one sees no lots. */
+const NO_ORGANISATION = '00000000-0000-0000-0000-000000000000';
 
-type ListRow = [
-	string, string, string, string, string, number, number | null, LotRow['transport'], string | null, string | null, Date | null,
-	LotStatus, LotRow['severity'], string | null, Date, Date, Date | null, number, string, string, string, string, number, number, number, string
-];
-
-type DrizzleInternals = { $client: Pool; session?: { logger?: { logQuery(query: string, params: unknown[]): void } } };
-
-/**
- * Plain SQL as a named statement (rows as arrays) on the pool behind a drizzle handle, logged
- * through the handle's logger like its own queries (drizzle() sets $client and session; the
- * Database type leaves them out).
- */
-async function namedArrayQuery<R extends unknown[]>(db: Database, name: string, text: string, values: unknown[]): Promise<R[]> {
-	const handle = db as Database & DrizzleInternals;
-	handle.session?.logger?.logQuery(text, values);
-	return (await handle.$client.query<R>({ name, text, values, rowMode: 'array' })).rows;
+function listConditions(db: Database, user: SessionUser, filter: LotListFilter): SQL[] {
+	const conditions: SQL[] = [];
+	if (user.role === 'supplier') conditions.push(eq(lots.supplierId, user.organisationId ?? NO_ORGANISATION));
+	if (filter.status) conditions.push(eq(lots.status, filter.status));
+	if (filter.supplierId) conditions.push(eq(lots.supplierId, filter.supplierId));
+	if (filter.partId) conditions.push(eq(lots.partId, filter.partId));
+	if (filter.search) {
+		const like = `%${filter.search.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
+		conditions.push(or(ilike(lots.poNumber, like), ilike(lots.lotCode, like))!);
+	}
+	// A serial trace: the lots holding a reading of this unit (index readings_serial_idx).
+	if (filter.serial) conditions.push(inArray(lots.id, db.select({ lotId: readings.lotId }).from(readings).where(eq(readings.serial, filter.serial))));
+	if (filter.cursor) {
+		const { at, id } = decodeCursor(filter.cursor);
+		conditions.push(sql`(${lots.createdAt}, ${lots.id}) < (${at}::timestamptz, ${id}::uuid)`);
+	}
+	return conditions;
 }
 
-function listItem(r: ListRow): LotView {
-	return {
-		id: r[0], lotCode: r[1], poNumber: r[2], supplierId: r[3], partId: r[4], quantity: r[5], declaredSoc: r[6], transport: r[7],
-		unNumber: r[8], expectedArrival: r[9], receivedAt: r[10], status: r[11], severity: r[12], createdBy: r[13], createdAt: r[14],
-		updatedAt: r[15], decidedAt: r[16], revision: r[17], supplierName: r[18], partNumber: r[19], partDescription: r[20],
-		chemistry: r[21], cellsInSeries: r[22], cellsInParallel: r[23], nominalCapacityAh: r[24]
-	};
-}
-
-/**
- * Lots visible to this user, newest first, one keyset page at a time. Plain SQL on the pool as a
- * named statement per filter shape: PostgreSQL parses and plans each shape once per connection, and
- * rows come back as arrays mapped straight to LotView (the query builder's own work per page was
- * larger than the index scan of the page itself).
- */
+/** Lots visible to this user, newest first, one keyset page at a time. */
 export async function listLots(
 	db: Database,
 	user: SessionUser,
 	filter: LotListFilter
 ): Promise<{ lots: LotView[]; nextCursor: string | null }> {
-	const where: string[] = [];
-	const values: unknown[] = [];
-	let shape = '';
-	const add = (key: string, condition: (...params: string[]) => string, ...params: unknown[]) => {
-		const refs = params.map((p) => `$${values.push(p)}`);
-		where.push(condition(...refs));
-		shape += key;
-	};
-	if (user.role === 'supplier') add('o', (p) => `l.supplier_id = ${p}`, user.organisationId ?? '00000000-0000-0000-0000-000000000000');
-	if (filter.status) add('s', (p) => `l.status = ${p}`, filter.status);
-	if (filter.supplierId) add('u', (p) => `l.supplier_id = ${p}`, filter.supplierId);
-	if (filter.partId) add('p', (p) => `l.part_id = ${p}`, filter.partId);
-	if (filter.search) {
-		const like = `%${filter.search.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
-		add('q', (p) => `(l.po_number ilike ${p} or l.lot_code ilike ${p})`, like);
-	}
-	if (filter.cursor) {
-		const { at, id } = decodeCursor(filter.cursor);
-		add('c', (a, b) => `(l.created_at, l.id) < (${a}::timestamptz, ${b}::uuid)`, at, id);
-	}
-	const limit = `$${values.push(filter.limit + 1)}`;
-	const rows = await namedArrayQuery<ListRow>(
-		db,
-		`restvolt_lot_list_v1_${shape || 'all'}`,
-		`select ${LIST_COLUMNS}
-			from lots l join organisations o on o.id = l.supplier_id join parts p on p.id = l.part_id
-			${where.length > 0 ? `where ${where.join(' and ')}` : ''}
-			order by l.created_at desc, l.id desc
-			limit ${limit}`,
-		values
-	);
+	const rows = await db
+		// created_at as PG text for the cursor: a JS Date would drop its microseconds.
+		.select({ ...viewColumns, cursorAt: sql<string>`${lots.createdAt}::text` })
+		.from(lots)
+		.innerJoin(organisations, eq(organisations.id, lots.supplierId))
+		.innerJoin(parts, eq(parts.id, lots.partId))
+		.where(and(...listConditions(db, user, filter)))
+		.orderBy(desc(lots.createdAt), desc(lots.id))
+		.limit(filter.limit + 1);
 	const page = rows.slice(0, filter.limit);
-	const nextCursor = rows.length > filter.limit && page.length > 0 ? encodeCursor(page[page.length - 1][25], page[page.length - 1][0]) : null;
-	return { lots: page.map(listItem), nextCursor };
+	const last = page.at(-1);
+	const nextCursor = rows.length > filter.limit && last ? encodeCursor(last.cursorAt, last.id) : null;
+	return { lots: page.map(({ cursorAt: _cursorAt, ...lot }) => lot), nextCursor };
 }
 
 /** A lot as this user may see it: another supplier's lot is simply not there (null → 404). */
 export async function getLotForUser(db: Database | Tx, user: SessionUser, id: string): Promise<LotView | null> {
 	const [row] = await selectViews(db).where(eq(lots.id, id));
 	if (!row) return null;
-	if (user.role === 'supplier' && row.lot.supplierId !== user.organisationId) return null;
-	return flatten(row);
+	if (user.role === 'supplier' && row.supplierId !== user.organisationId) return null;
+	return row;
 }
 
 // ---------------------------------------------------------------- change

@@ -8,7 +8,7 @@ import { and, eq, sql } from 'drizzle-orm';
 import type { Database } from '../db';
 import { organisations, parts } from '../db/schema';
 import { notFound } from '../http';
-import { currentSeverity } from './switching';
+import { nextLotSeverity } from './sampling-state';
 
 interface LotFact extends Record<string, unknown> {
 	id: string;
@@ -119,7 +119,8 @@ export async function supplierScorecard(db: Database, supplierId: string, partId
 	const perPart = await Promise.all(
 		(part ? [part] : partRows).map(async (p) => ({
 			...p,
-			severity: (await currentSeverity(db, supplierId, p.id)).severity as string,
+			// The stored switching state (sampling_states), not a replay of the part's whole history.
+			severity: (await nextLotSeverity(db, supplierId, p.id)) as string,
 			totals: totalsOf(facts.filter((f) => f.part_id === p.id))
 		}))
 	);

@@ -5,7 +5,7 @@
  */
 import { createHash, randomBytes } from 'node:crypto';
 import { and, desc, eq, isNull, sql } from 'drizzle-orm';
-import { getDb, getPool } from '../db';
+import { getDb } from '../db';
 import { apiTokens, users } from '../db/schema';
 import { recordAudit } from './audit';
 import { findUserByEmail, toSessionUser, type Actor } from './users';
@@ -92,43 +92,21 @@ export async function listTokens() {
 		.orderBy(sql`${apiTokens.revokedAt} is not null`, desc(apiTokens.createdAt));
 }
 
-/** Columns and joins of a live token's user; `$1` is the token's sha256. Shared by the statements below and in evaluation-cache.ts. */
-export const TOKEN_USER_COLUMNS = `t.id as token_id, (t.last_used_at is null or t.last_used_at < now() - interval '1 minute') as stale,
-	u.id, u.email, u.name, u.role::text as role, u.organisation_id`;
-export const TOKEN_USER_FROM = `api_tokens t join "user" u on u.id = t.user_id and u.active`;
-export const LIVE_TOKEN = `t.token_hash = $1 and t.revoked_at is null`;
-
-export interface TokenUserRow {
-	token_id: string;
-	stale: boolean;
-	id: string;
-	email: string;
-	name: string | null;
-	role: SessionUser['role'];
-	organisation_id: string | null;
-}
-
-/** The user of a row found by LIVE_TOKEN; notes the token's last use at most once a minute. */
-export async function tokenUserOf(row: TokenUserRow): Promise<SessionUser> {
-	if (row.stale) {
-		await getDb()
-			.update(apiTokens)
-			.set({ lastUsedAt: new Date() })
-			.where(and(eq(apiTokens.id, row.token_id), sql`(${apiTokens.lastUsedAt} is null or ${apiTokens.lastUsedAt} < now() - interval '1 minute')`));
-	}
-	return toSessionUser({ id: row.id, email: row.email, name: row.name, role: row.role, organisationId: row.organisation_id });
-}
+/** A note of the token's last use is written at most once a minute (not on every API call). */
+const lastUseIsStale = sql<boolean>`(${apiTokens.lastUsedAt} is null or ${apiTokens.lastUsedAt} < now() - interval '1 minute')`;
 
 /**
- * The user a bearer token acts as, or null. One named statement (parsed and planned once per
- * connection) on every API call; the last-use note is a second statement at most once a minute.
+ * The user a bearer token acts as, or null: the token's hash is stored, not revoked, and its user
+ * is active. Notes the token's last use (at most once a minute).
  */
 export async function userForToken(token: string): Promise<SessionUser | null> {
-	const result = await getPool().query<TokenUserRow>({
-		name: 'restvolt_user_for_token_v2',
-		text: `select ${TOKEN_USER_COLUMNS} from ${TOKEN_USER_FROM} where ${LIVE_TOKEN}`,
-		values: [hashToken(token)]
-	});
-	const row = result.rows[0];
-	return row ? tokenUserOf(row) : null;
+	const db = getDb();
+	const [row] = await db
+		.select({ tokenId: apiTokens.id, stale: lastUseIsStale, id: users.id, email: users.email, name: users.name, role: users.role, organisationId: users.organisationId })
+		.from(apiTokens)
+		.innerJoin(users, and(eq(users.id, apiTokens.userId), eq(users.active, true)))
+		.where(and(eq(apiTokens.tokenHash, hashToken(token)), isNull(apiTokens.revokedAt)));
+	if (!row) return null;
+	if (row.stale) await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(and(eq(apiTokens.id, row.tokenId), lastUseIsStale));
+	return toSessionUser(row);
 }

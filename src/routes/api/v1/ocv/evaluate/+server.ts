@@ -1,10 +1,10 @@
 // Many readings of one chemistry → SOC with interval, expected OCV, residual and flags per reading.
 // Validation is split: zod for the small header, a plain loop for the (up to 10,000) readings.
+import { json } from '@sveltejs/kit';
 import { ElectrochemError, evaluateReadings, getLibraryModel, type ReadingInput } from '$lib/electrochem';
-import { api, ApiError, authorize, badRequest, jsonBytes, parseWith, unprocessable } from '$lib/server/http';
+import { api, ApiError, authorize, badRequest, parseWith, unprocessable } from '$lib/server/http';
+import { roundedResult } from '$lib/server/services/evaluation-body';
 import { evaluateHeader, MAX_READINGS, readingsIssues } from '$lib/schemas/electrochem';
-import { distinctReadings } from './distinct';
-import { serialiseResults } from './serialise';
 import type { RequestHandler } from './$types';
 
 async function readBody(request: Request): Promise<unknown> {
@@ -35,13 +35,13 @@ export const POST: RequestHandler = api(async (event) => {
 	const issues = readingsIssues(header.readings);
 	if (issues.length > 0) throw unprocessable('Some readings are not valid', issues);
 	try {
-		const { unique, order } = distinctReadings(header.readings as ReadingInput[]);
-		const results = evaluateReadings(getLibraryModel(header.chemistry), unique, {
+		const results = evaluateReadings(getLibraryModel(header.chemistry), header.readings as ReadingInput[], {
 			cells_in_series: header.cells_in_series,
 			declared_soc: header.declared_soc,
 			meter_accuracy_v: header.meter_accuracy_v
 		});
-		return jsonBytes(serialiseResults(results, order));
+		// Numbers to 1e-6 (1 µV, 0.0001 % SOC), far below any meter's resolution: a third fewer bytes.
+		return json({ results: results.map(roundedResult) });
 	} catch (e) {
 		if (e instanceof ElectrochemError) throw unprocessable(e.message, [{ path: e.field, message: e.message }]);
 		throw e;

@@ -1,17 +1,8 @@
 import { json } from '@sveltejs/kit';
 import { getDb } from '$lib/server/db';
-import { api, authorize, jsonBytes, notFound } from '$lib/server/http';
-import { computeAndCache, etagMatches, evaluationEtag, lotRevision, tokenUserAndLotRevision, type LotRevision } from '$lib/server/services/evaluation-cache';
-import type { RequestEvent, RequestHandler } from './$types';
-
-/** Sets `locals.user` when the bearer token is live; the lot (or null) read in the same statement. */
-async function withTokenUser(event: RequestEvent): Promise<LotRevision | null> {
-	const found = await tokenUserAndLotRevision(event.locals.bearerToken!, event.params.id);
-	if (!found) return null;
-	event.locals.user = found.user;
-	event.locals.authMethod = 'token';
-	return found.lot;
-}
+import { api, authorize, notFound } from '$lib/server/http';
+import { computeAndCache, etagMatches, evaluationEtag, lotRevision } from '$lib/server/services/evaluation-cache';
+import type { RequestHandler } from './$types';
 
 /**
  * GET /api/v1/lots/{id}/evaluation — the disposition computed from the stored readings, served
@@ -20,11 +11,9 @@ async function withTokenUser(event: RequestEvent): Promise<LotRevision | null> {
  * unit numbers to 1e-6); `?detail=summary` also leaves out the per-unit results and the inputs.
  */
 export const GET: RequestHandler = api(async (event) => {
-	// A bearer token is checked here, in the same statement as the lot read (auth.ts lists this route).
-	const readWithToken = event.locals.bearerToken ? await withTokenUser(event) : undefined;
 	const user = authorize(event, 'lot:read', event.locals.user?.role === 'supplier' ? { supplierId: event.locals.user.organisationId } : undefined);
 	const db = getDb();
-	const found = readWithToken === undefined ? await lotRevision(event.params.id) : readWithToken;
+	const found = await lotRevision(db, event.params.id);
 	// Another supplier's lot is simply not there (404, not 403).
 	if (!found || (user.role === 'supplier' && found.supplierId !== user.organisationId)) throw notFound('lot');
 	authorize(event, 'lot:read', { supplierId: found.supplierId });
@@ -39,6 +28,6 @@ export const GET: RequestHandler = api(async (event) => {
 		const { units, inputs: _inputs, ...rest } = JSON.parse(body) as { units: unknown[]; inputs: unknown };
 		return json({ ...rest, unit_count: units.length }, { headers });
 	}
-	// The body is ASCII-only (servedJson), so Latin-1 gives its UTF-8 bytes with a plain copy.
-	return jsonBytes(Buffer.from(body, 'latin1'), headers);
+	// The cached text is already the JSON answer.
+	return new Response(body, { headers: { ...headers, 'content-type': 'application/json' } });
 });
