@@ -264,6 +264,27 @@ describe('GET /api/v1/lots (keyset pages) and /api/v1/lots/{id}', () => {
 		}
 	});
 
+	it('traces a unit by its serial: every lot holding a reading of it, and only the caller’s own for a supplier', async () => {
+		const serial = `TRACE-${randomUUID().slice(0, 8)}`;
+		const mine = await createLot();
+		const theirs = await createLot({ supplier_id: ids.ferrolith, part_id: ids.fl100 });
+		const other = await createLot();
+		for (const [lot, unit] of [[mine, serial], [theirs, serial], [other, `${serial}-2`]]) {
+			const stored = await call('inspector', `/api/v1/lots/${lot.id}/readings`, { body: { readings: [{ serial: unit, ocv_v: 3.6, temperature_c: 22 }] } });
+			expect(stored.status, stored.text).toBe(201);
+		}
+		const lotIds = (res: { json: { lots: Array<{ id: string }> } }) => res.json.lots.map((l) => l.id);
+		const traced = await call('buyer', `/api/v1/lots?serial=${serial}`);
+		expect(traced.status).toBe(200);
+		expect(lotIds(traced)).toEqual([theirs.id, mine.id]); // exact serial, newest first
+		expect(lotIds(await call('voltaria', `/api/v1/lots?serial=${serial}`))).toEqual([mine.id]);
+		expect(lotIds(await call('buyer', `/api/v1/lots?serial=${serial}&supplier_id=${ids.ferrolith}`))).toEqual([theirs.id]);
+		expect(lotIds(await call('buyer', '/api/v1/lots?serial=NO-SUCH-UNIT'))).toEqual([]);
+		const long = await call('buyer', `/api/v1/lots?serial=${'x'.repeat(65)}`);
+		expect(long.status).toBe(400);
+		expect(long.json.error.issues[0].path).toBe('serial');
+	});
+
 	it('returns one lot with its documents; unknown → 404, malformed id → 404', async () => {
 		const lot = await createLot();
 		const res = await call('inspector', `/api/v1/lots/${lot.id}`);

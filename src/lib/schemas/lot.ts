@@ -168,6 +168,8 @@ export const lotListQuerySchema = z.object({
 	supplier_id: blankAsMissing(z.uuid({ error: 'supplier_id must be a UUID' })),
 	part_id: blankAsMissing(z.uuid({ error: 'part_id must be a UUID' })),
 	search: blankAsMissing(z.string().trim().max(60)),
+	/** A serial trace: only lots holding a reading of this unit (exact serial). */
+	serial: blankAsMissing(z.string().trim().max(64, 'serial is at most 64 characters')),
 	limit: z.preprocess(
 		(v) => (v === '' || v === undefined ? 25 : v),
 		z.coerce

@@ -6,7 +6,7 @@ import { lotApiSchema, lotInputFromApi, lotListQuerySchema } from '$lib/schemas/
 import { clientAddress } from '$lib/server/auth';
 import type { RequestHandler } from './$types';
 
-/** GET /api/v1/lots?status=&supplier_id=&part_id=&search=&limit=&cursor= — newest first, keyset pages. */
+/** GET /api/v1/lots?status=&supplier_id=&part_id=&search=&serial=&limit=&cursor= — newest first, keyset pages. */
 export const GET: RequestHandler = api(async (event) => {
 	const user = event.locals.user;
 	// Suppliers read only their own organisation's lots; the service filters them too.
@@ -18,6 +18,7 @@ export const GET: RequestHandler = api(async (event) => {
 			supplierId: query.supplier_id,
 			partId: query.part_id,
 			search: query.search,
+			serial: query.serial,
 			limit: query.limit,
 			cursor: query.cursor
 		});
