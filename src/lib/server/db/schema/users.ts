@@ -1,4 +1,4 @@
-import { boolean, index, integer, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { bigint, boolean, index, integer, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { roleEnum } from './enums';
 import { organisations } from './organisations';
 
@@ -103,4 +103,42 @@ export const userSessions = pgTable(
 		endedReason: text('ended_reason')
 	},
 	(t) => [index('user_sessions_user_idx').on(t.userId)]
+);
+
+/**
+ * A staff member's TOTP second factor (RFC 6238). The shared secret is stored sealed with
+ * AES-256-GCM under a key derived from AUTH_SECRET (services/second-factor-seal.ts), bound to the
+ * user id. `enabledAt` is null while enrolment is pending (a secret was shown but no code has
+ * confirmed it yet): such a row does not count as a second factor. `lastStep` is the newest time
+ * step whose code was accepted; a code of that step or an earlier one is refused (no replay).
+ */
+export const secondFactors = pgTable('second_factors', {
+	userId: text('user_id')
+		.primaryKey()
+		.references(() => users.id, { onDelete: 'cascade' }),
+	sealedSecret: text('sealed_secret').notNull(),
+	createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+	enabledAt: timestamp('enabled_at', { withTimezone: true }),
+	lastStep: bigint('last_step', { mode: 'number' })
+});
+
+/**
+ * "Password verified, code still to come": made when a person with a second factor typed the right
+ * password, and used once by the code step. The browser holds the token in an HttpOnly cookie;
+ * only its sha256 is stored. `passwordDigest` (sha256 of the password hash at that moment) voids
+ * the step when the password changes before the code is entered.
+ */
+export const signInCodeSteps = pgTable(
+	'sign_in_code_steps',
+	{
+		tokenHash: text('token_hash').primaryKey(),
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		passwordDigest: text('password_digest').notNull(),
+		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+		expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+		usedAt: timestamp('used_at', { withTimezone: true })
+	},
+	(t) => [index('sign_in_code_steps_user_idx').on(t.userId)]
 );
