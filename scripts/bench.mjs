@@ -49,7 +49,7 @@ try {
 	const cpus = cpuPlan();
 	if (cpus) pinPostgres(pg.dataDir, cpus.rest);
 	// Owner role for migrations, the seed and the bench's own setup; the app connects as the app role (tests/bench/lib/app.ts).
-	const { ownerUrl: databaseUrl } = await ownedDatabase(pg.url, 'restvolt_bench');
+	const { ownerUrl: databaseUrl, superUrl } = await ownedDatabase(pg.url, 'restvolt_bench');
 	await migrateDatabase(databaseUrl, root);
 	const { NODE_ENV: _production, ...seedEnv } = process.env; // the demo seed refuses NODE_ENV=production
 	const seeded = await runInherit('npx', ['tsx', 'seed/index.ts'], {
@@ -64,6 +64,8 @@ try {
 			...process.env,
 			DATABASE_URL: databaseUrl,
 			BENCH_PG_URL: pg.url,
+			// VACUUM of every table and CHECKPOINT before each operation need the superuser.
+			BENCH_SUPER_DATABASE_URL: superUrl,
 			BENCH_PG_BIN: pg.bin,
 			BENCH_BUILD_DIR: buildDir,
 			BENCH_SCRATCH: scratch,

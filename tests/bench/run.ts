@@ -4,7 +4,6 @@
  * An operation whose endpoint or service is missing prints an honest "missed (not available: …)".
  */
 import { cpus, totalmem } from 'node:os';
-import { rmSync } from 'node:fs';
 import { closeDb } from '$lib/server/db';
 import { startBenchApp, type BenchApp } from './lib/app';
 import { bearerFor } from './lib/auth';
@@ -15,9 +14,10 @@ import { benchEvaluateLot } from './ops/evaluate-lot';
 import { benchOcvEvaluate } from './ops/ocv-evaluate';
 import { benchImportXlsx } from './ops/import-xlsx';
 import { benchEvaluationLoad } from './ops/evaluation-load';
-import { benchLotList } from './ops/lot-list';
+import { benchLotList, benchSerialTrace, type ListResult } from './ops/lot-list';
+import { benchScorecard } from './ops/scorecard';
+import { benchEvaluationsPerSave } from './ops/evaluations-per-save';
 import { benchClientWeight } from './ops/client-weight';
-import { EVALUATE_TWIN, EVALUATION_TWIN, writeStaticTwins } from './lib/static-twins';
 import { placement, placeSelf } from './lib/cpus';
 
 const need = (name: string) => {
@@ -54,7 +54,7 @@ const only = (process.env.BENCH_ONLY ?? '').split(',').filter(Boolean);
  */
 async function attempt(names: string[], role: 'app' | 'load', fn: () => Promise<void>) {
 	if (only.length > 0 && !names.some((n) => only.some((o) => n.startsWith(o)))) return;
-	await withClient(need('DATABASE_URL'), settleDatabase);
+	await settleDatabase(need('BENCH_SUPER_DATABASE_URL'));
 	placeSelf(role);
 	const started = performance.now();
 	try {
@@ -70,20 +70,23 @@ async function attempt(names: string[], role: 'app' | 'load', fn: () => Promise<
 }
 
 async function prepare(databaseUrl: string) {
-	return withClient(databaseUrl, async (client) => {
+	const prepared = await withClient(databaseUrl, async (client) => {
 		const part = await benchPart(client);
 		let t = performance.now();
-		const scale = await loadScaleData(client);
+		const scale = await loadScaleData(client, (text) => log(`data set: ${text} (${seconds(t)})`));
 		log(`data set: ${scale.lots.toLocaleString('en')} lots, ${scale.readings.toLocaleString('en')} readings (${seconds(t)}${scale.reused ? ', already loaded' : ''})`);
 		t = performance.now();
 		const bigLotId = await createBenchLot(client, part, 1_000_000, 'EVAL2000');
 		await insertReadings(client, bigLotId, syntheticReadings(2000, 1));
 		const sampleLotId = await createBenchLot(client, part, 5000, 'SAMPLE200');
 		await insertReadings(client, sampleLotId, syntheticReadings(200, 4));
-		await settleDatabase(client);
 		log(`bench lots ready (${seconds(t)})`);
 		return { part, bigLotId, sampleLotId };
 	});
+	const t = performance.now();
+	await settleDatabase(need('BENCH_SUPER_DATABASE_URL'));
+	log(`database settled: VACUUM (ANALYZE), CHECKPOINT (${seconds(t)})`);
+	return prepared;
 }
 
 async function main() {
@@ -95,10 +98,6 @@ async function main() {
 	const buildDir = need('BENCH_BUILD_DIR');
 	let app: BenchApp | undefined;
 	try {
-		// First process: record the API answers as static files; sirv only sees files present at start.
-		app = await startBenchApp(databaseUrl, buildDir);
-		await writeStaticTwins(app.url, app.buildDir, token, sampleLotId);
-		await app.stop();
 		app = await startBenchApp(databaseUrl, buildDir);
 		const ctx: BenchContext = { app, databaseUrl, pgBin: need('BENCH_PG_BIN'), scratch: need('BENCH_SCRATCH'), part, token, bigLotId, sampleLotId };
 
@@ -110,11 +109,15 @@ async function main() {
 			result.lines.forEach(report);
 			result.notes.forEach((note) => console.log(note));
 		});
-		await attempt(['lot-list-50k'], 'app', async () => {
-			const result = await benchLotList(ctx);
+		await attempt(['evaluations-per-save'], 'load', async () => report(await benchEvaluationsPerSave(ctx)));
+		const withPlan = async (run: () => Promise<ListResult>) => {
+			const result = await run();
 			report(result.line);
-			console.log(`explain lot-list (index used: ${result.usesIndex ? 'yes' : 'NO'}):\n${result.explain.replace(/^/gm, '  ')}`);
-		});
+			console.log(`explain ${result.line.name} (index used: ${result.usesIndex ? 'yes' : 'NO'}):\n${result.explain.replace(/^/gm, '  ')}`);
+		};
+		await attempt(['lot-list'], 'app', () => withPlan(benchLotList));
+		await attempt(['serial-trace'], 'app', () => withPlan(benchSerialTrace));
+		await attempt(['scorecard'], 'app', async () => report(await benchScorecard(ctx)));
 		await attempt(['inspect-page-js'], 'load', async () => {
 			const result = await benchClientWeight(ctx);
 			report(result.line);
@@ -123,7 +126,6 @@ async function main() {
 		});
 	} finally {
 		await app?.stop();
-		if (app) for (const name of [EVALUATE_TWIN, EVALUATION_TWIN]) rmSync(`${app.buildDir}/client/${name}`, { force: true });
 		await closeDb();
 	}
 	const met = outcomes.filter(Boolean).length;

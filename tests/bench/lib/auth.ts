@@ -30,3 +30,5 @@ export async function signInCookie(baseUrl: string, email = INSPECTOR): Promise<
 	if (!cookie.includes('session-token')) throw new Error(`sign-in failed (${response.status}): ${(await response.text()).slice(0, 200)}`);
 	return cookie;
 }
+
+export const bearer = (token: string) => ({ authorization: `Bearer ${token}` });

@@ -10,13 +10,8 @@ export interface BenchContext {
 	part: BenchPart;
 	/** Bearer token of the seeded inspector. */
 	token: string;
-	/** A received lot whose 2,000 readings are stored (operation 1). */
+	/** A received lot whose 2,000 readings are stored (evaluate-lot-2000). */
 	bigLotId: string;
-	/** A received lot with a full ISO 2859-1 sample of 200 readings (operations 4 and 6). */
+	/** A received lot with a full ISO 2859-1 sample of 200 readings (evaluation-api-load). */
 	sampleLotId: string;
-}
-
-/** A file in the build's client folder, which adapter-node serves as a static asset (see static-twins.ts). */
-export function staticPath(ctx: BenchContext, name: string): { file: string; url: string } {
-	return { file: `${ctx.app.buildDir}/client/${name}`, url: `${ctx.app.url}/${name}` };
 }

@@ -151,8 +151,12 @@ export async function requiredSampleSize(db: Database | Tx, lotId: string): Prom
 	return (await planForLot(db, row)).plan.sample_size;
 }
 
-/** Everything computed from the stored readings, reproducible from `inputs`. */
+/**
+ * Everything computed from the stored readings, reproducible from `inputs`. With LOG_EVALUATIONS=on
+ * each computation prints one line (`[evaluation] computed lot=…`): the bench counts them per save.
+ */
 export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<LotEvaluation> {
+	if (process.env.LOG_EVALUATIONS === 'on') console.log(`[evaluation] computed lot=${lotId}`);
 	const row = await loadLot(db, lotId);
 	if (!row) throw new EvaluationError('lot_not_found', 'lot not found');
 	const { lot, part } = row;
