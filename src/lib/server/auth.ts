@@ -1,8 +1,10 @@
 /**
  * Auth.js for Restvolt: staff sign in with e-mail + password (argon2id), supplier users with an
- * e-mailed one-time link. Sessions are JWT cookies; who the person is *now* (role, organisation,
- * still active?) is read from the database on every request in `resolveUser`, so a role change
- * or deactivation takes effect at once. The API also accepts `Authorization: Bearer <token>`.
+ * e-mailed one-time link; staff with a TOTP second factor on sign in in two steps (password, then a
+ * current code: see the Credentials provider below and services/second-factor.ts). Sessions are
+ * JWT cookies; who the person is *now* (role, organisation, still active?) is read from the
+ * database on every request in `resolveUser`, so a role change or deactivation takes effect at
+ * once. The API also accepts `Authorization: Bearer <token>`.
  *
  * Auth.js's own POST endpoints are closed: sign-in goes through /signin's form actions, which
  * throttle and audit, and call `signInWith` below.
@@ -20,6 +22,7 @@ import { checkStaffPassword, recordSignIn, sendMailLater, supplierMayUseLink } f
 import { endSession, sessionUser, startSession, SESSION_LIFETIME_HOURS } from './services/sessions';
 import { appOrigin, onAppOrigin } from './origin';
 import { userForToken } from './services/tokens';
+import { checkSignInCode, startCodeStep } from './services/second-factor';
 import type { Role } from '$lib/roles';
 
 export const LINK_MINUTES = 30;
@@ -27,6 +30,19 @@ export const LINK_MINUTES = 30;
 /** A refused sign-in because of too many failures; the page shows the throttle message. */
 class TooManyAttempts extends CredentialsSignin {
 	code = 'throttled';
+}
+
+/** The password was right, but the account has a second factor: the code step comes next. */
+class CodeNeeded extends CredentialsSignin {
+	code = 'code_needed';
+	constructor(readonly stepToken: string) {
+		super();
+	}
+}
+
+/** The code step's token is unknown, used or expired: the person starts again with the password. */
+class CodeStepExpired extends CredentialsSignin {
+	code = 'code_step_expired';
 }
 
 export function clientAddress(event: RequestEvent): string {
@@ -63,13 +79,17 @@ function config(event: RequestEvent): SvelteKitAuthConfig {
 		providers: [
 			Credentials({
 				id: 'credentials',
-				credentials: { email: {}, password: {} },
+				// Either e-mail + password, or (second half, see services/second-factor.ts) the code step's
+				// token + a current TOTP code.
+				credentials: { email: {}, password: {}, step: {}, code: {} },
 				authorize: async (credentials) => {
+					if (credentials.step) return authorizeCode(String(credentials.step), String(credentials.code ?? ''), address);
 					const email = String(credentials.email ?? '');
 					const password = String(credentials.password ?? '');
 					if (!email || !password) return null;
 					const result = await checkStaffPassword({ email, password, address });
 					if (!result.ok && result.reason === 'throttled') throw new TooManyAttempts();
+					if (result.ok && result.secondFactor) throw new CodeNeeded(await startCodeStep(result.user.id));
 					return result.ok ? { id: result.user.id, email: result.user.email, name: result.user.name } : null;
 				}
 			}),
@@ -127,6 +147,15 @@ function config(event: RequestEvent): SvelteKitAuthConfig {
 	};
 }
 
+/** The code step of a sign-in with a second factor: the step token proves the password was right. */
+async function authorizeCode(step: string, code: string, address: string) {
+	const result = await checkSignInCode({ token: step, code, address });
+	if (result.ok) return { id: result.user.id, email: result.user.email, name: result.user.name };
+	if (result.reason === 'throttled') throw new TooManyAttempts();
+	if (result.reason === 'expired') throw new CodeStepExpired();
+	return null;
+}
+
 const auth = SvelteKitAuth(async (event) => config(event));
 
 /** Auth.js's routes under /auth (the e-mail link callback, session), minus its POST endpoints. */
@@ -171,7 +200,8 @@ function withForm(event: RequestEvent, fields: Record<string, string>): RequestE
 
 export type SignInOutcome =
 	| { ok: true; location: string }
-	| { ok: false; reason: 'invalid' | 'throttled' | 'refused' };
+	| { ok: false; reason: 'code_needed'; stepToken: string }
+	| { ok: false; reason: 'invalid' | 'throttled' | 'refused' | 'code_step_expired' };
 
 /**
  * Sign in through Auth.js from a form action (superforms has read the body, so the fields are
@@ -186,7 +216,10 @@ export async function signInWith(
 		await auth.signIn(withForm(event, { providerId: provider, ...fields }));
 	} catch (error) {
 		if (isRedirect(error)) return { ok: true, location: error.location };
-		if (error instanceof CredentialsSignin) return { ok: false, reason: error.code === 'throttled' ? 'throttled' : 'invalid' };
+		if (error instanceof CodeNeeded) return { ok: false, reason: 'code_needed', stepToken: error.stepToken };
+		if (error instanceof TooManyAttempts) return { ok: false, reason: 'throttled' };
+		if (error instanceof CodeStepExpired) return { ok: false, reason: 'code_step_expired' };
+		if (error instanceof CredentialsSignin) return { ok: false, reason: 'invalid' };
 		if (error instanceof AuthError && error.type === 'AccessDenied') return { ok: false, reason: 'refused' };
 		throw error;
 	}

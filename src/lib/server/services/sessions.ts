@@ -4,7 +4,7 @@
  * deactivation end all of the person's rows (and a deactivation revokes their API tokens), so
  * reactivating someone never brings an old cookie or token back to life.
  */
-import { and, eq, isNull, sql } from 'drizzle-orm';
+import { and, eq, isNull, ne, sql } from 'drizzle-orm';
 import { getDb, type Database, type Tx } from '../db';
 import { apiTokens, passwordResets, userSessions, users, verificationTokens } from '../db/schema';
 import { toSessionUser } from './users';
@@ -13,7 +13,7 @@ import type { SessionUser } from '../../roles';
 export const SESSION_LIFETIME_HOURS = 12;
 export const SESSION_IDLE_MINUTES = 120;
 
-export type SessionEnd = 'signed_out' | 'password_changed' | 'deactivated';
+export type SessionEnd = 'signed_out' | 'password_changed' | 'deactivated' | 'second_factor_changed';
 
 /** A new session row for a person who has just signed in; its id goes into the cookie. */
 export async function startSession(userId: string, method: string, ip: string | null): Promise<string> {
@@ -55,6 +55,14 @@ export async function endAllSessions(db: Database | Tx, userId: string, reason: 
 		.update(userSessions)
 		.set({ endedAt: new Date(), endedReason: reason })
 		.where(and(eq(userSessions.userId, userId), isNull(userSessions.endedAt)));
+}
+
+/** End every live session of a person but the one they act from (inside the caller's transaction). */
+export async function endOtherSessions(db: Database | Tx, userId: string, keepSessionId: string | null, reason: SessionEnd): Promise<void> {
+	await db
+		.update(userSessions)
+		.set({ endedAt: new Date(), endedReason: reason })
+		.where(and(eq(userSessions.userId, userId), isNull(userSessions.endedAt), keepSessionId ? ne(userSessions.id, keepSessionId) : undefined));
 }
 
 /** Everything that lets a deactivated person back in: sessions, API tokens, unused links. */

@@ -11,6 +11,7 @@ import { createTransport, mailFrom } from '../mail/transport';
 import { recordAudit } from './audit';
 import { accountKey, addressLimit, clearFailures, releaseAttempt, reserveAttempt, signInLimits, type Limit } from './throttle';
 import { endAllSessions } from './sessions';
+import { hasSecondFactor } from './second-factor';
 import { appOrigin } from '../origin';
 import { findUserByEmail, normaliseEmail, toSessionUser } from './users';
 import type { SessionUser } from '../../roles';
@@ -21,7 +22,8 @@ const DECOY_HASH = '$argon2id$v=19$m=19456,t=2,p=1$o1XfHbm+j644r4qCYRa8Kg$hxoRiZ
 export const RESET_MINUTES = 60;
 export const INVITE_MINUTES = 3 * 24 * 60;
 
-export type PasswordCheck = { ok: true; user: SessionUser } | { ok: false; reason: 'throttled' | 'invalid' };
+/** `secondFactor`: the account has a TOTP factor on, so the password alone does not sign in. */
+export type PasswordCheck = { ok: true; user: SessionUser; secondFactor: boolean } | { ok: false; reason: 'throttled' | 'invalid' };
 
 /**
  * The whole staff password check: an attempt is reserved under the throttle first (atomically, so
@@ -43,8 +45,11 @@ export async function checkStaffPassword(input: { email: string; password: strin
 		return { ok: false, reason: 'invalid' };
 	}
 	await releaseAttempt(reservation);
-	await clearFailures(accountKey(email));
-	return { ok: true, user: toSessionUser(user) };
+	// With a second factor the sign-in is complete only after the code; the account's count is
+	// cleared then (second-factor.ts), so a known password cannot reset the count of wrong codes.
+	const secondFactor = await hasSecondFactor(user.id);
+	if (!secondFactor) await clearFailures(accountKey(email));
+	return { ok: true, user: toSessionUser(user), secondFactor };
 }
 
 /**

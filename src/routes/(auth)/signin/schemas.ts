@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { totpCode } from '$lib/schemas/second-factor';
 
 /** Only same-site paths, so a crafted link cannot send people elsewhere after signing in. */
 export const redirectTo = z
@@ -29,3 +30,6 @@ export const newPassword = z
 		confirm: z.string()
 	})
 	.refine((v) => v.password === v.confirm, { message: 'The two passwords differ', path: ['confirm'] });
+
+/** The code step of a sign-in with a second factor (the password was checked in the step before). */
+export const codeSignIn = z.object({ code: totpCode, redirectTo });

@@ -1,0 +1,18 @@
+/** Fields of the second-factor forms: the sign-in code step and the security page. */
+import { z } from 'zod';
+
+/** Six digits as an authenticator app shows them; spaces typed between the groups are dropped. */
+export const totpCode = z
+	.string()
+	.max(32, 'Enter the 6 digits your authenticator app shows')
+	.transform((v) => v.replace(/\s+/g, ''))
+	.pipe(z.string().regex(/^\d{6}$/, 'Enter the 6 digits your authenticator app shows'));
+
+/** Confirming enrolment: the first code from the newly added secret. */
+export const confirmSecondFactor = z.object({ code: totpCode });
+
+/** Turning the factor off: the password and a current code. */
+export const turnOffSecondFactor = z.object({
+	password: z.string().min(1, 'Enter your password').max(1024),
+	code: totpCode
+});
