@@ -30,7 +30,7 @@ describe('OcvStripChart', () => {
 		expect(svg.attrs['aria-label']).toMatch(/OCV/);
 		expect(svg.attrs.viewBox).toBe('0 0 760 380');
 		expect(body).toMatch(/<title>Cell OCV at 25 °C/);
-		expect(body).toMatch(/<desc[^>]*>20 units[^<]*2 nonconforming, 2 outliers/);
+		expect(body).toMatch(/<desc[^>]*>20\sunits[^<]*2 nonconforming, 2\soutliers/);
 	});
 
 	it('labels the voltage axis with V and the window and expected lines in words', () => {

@@ -1,42 +1,13 @@
 import { scaleLinear } from 'd3-scale';
 import { describe, expect, it } from 'vitest';
-import {
-	decimalsForStep,
-	formatFixed,
-	formatMillivolts,
-	formatPercent,
-	formatPpm,
-	formatVolts,
-	paddedDomain,
-	plural,
-	voltTicks
-} from '$lib/components/charts/axis';
+import { decimalsForStep, paddedDomain, voltTicks } from '$lib/components/charts/axis';
 import { dodge, evenSample, labelStride, layoutLegend } from '$lib/components/charts/layout';
 
 // Chart helpers have no published reference values; the checks below are arithmetic
 // identities and the display habits of DESIGN.md (units on every number, fixed decimals).
-const plain = (s: string) => s.replace(/\u00a0/g, ' ');
+// Number formats themselves are tested in tests/unit/format.test.ts.
 
-describe('number formats keep their units', () => {
-	it('prints cell voltages to 1 mV by default and 0.1 mV on request', () => {
-		expect(plain(formatVolts(3.29951))).toBe('3.300 V');
-		expect(plain(formatVolts(3.29951, 4))).toBe('3.2995 V');
-	});
-
-	it('uses a true minus sign and never prints a negative zero', () => {
-		expect(plain(formatMillivolts(-2.4))).toBe('\u22122 mV');
-		expect(formatFixed(-0.0001, 3)).toBe('0.000');
-		expect(plain(formatMillivolts(-0.04, 1))).toBe('0.0 mV');
-	});
-
-	it('shows SOC fractions as percent and counts with thousands separators', () => {
-		expect(plain(formatPercent(0.3))).toBe('30 %');
-		expect(plain(formatPercent(0.305, 1))).toBe('30.5 %');
-		expect(plain(formatPpm(12500))).toBe('12,500 ppm');
-		expect(plural(1, 'outlier')).toBe('1 outlier');
-		expect(plural(1200, 'unit')).toBe('1,200 units');
-	});
-
+describe('volt ticks', () => {
 	it('adds a fourth decimal only when ticks are closer than 1 mV', () => {
 		expect(decimalsForStep(0.01, 3, 4)).toBe(3);
 		expect(decimalsForStep(0.001, 3, 4)).toBe(3);

@@ -76,9 +76,19 @@ describe('renderInspectionReport', () => {
 		const data = makeReport({ plan: null, stats: null, variables: null, disposition: { status: 'pending', safety: false, nonconforming: 0, reasons: [] } }, 0);
 		const file = writeTemp('empty.pdf', await renderInspectionReport(data));
 		const text = pdfText(file);
-		expect(text).toContain('PENDING');
+		expect(text).toContain('SAMPLE INCOMPLETE'); // src/lib/status.ts: the verdict word for an incomplete sample
 		expect(text).toContain('No readings recorded yet');
 		expect(text).toContain('No sampling plan recorded');
+	});
+
+	it('writes states, transport, severity and decision kind as words, not as the API codes', async () => {
+		const data = makeReport({ lot: { ...makeReport().lot, status: 'pending_decision', transport: 'sea' }, severity: 'tightened' }, 8);
+		const text = pdfText(writeTemp('words.pdf', await renderInspectionReport(data)));
+		expect(text).toContain('Awaiting decision'); // src/lib/status.ts
+		expect(text).toContain('Sea');
+		expect(text).toContain('Tightened');
+		expect(text).toContain('By the rules');
+		expect(text).not.toMatch(/pending_decision|\bsea\b|\btightened\b|\bautomatic\b/);
 	});
 	it('prints the e-signature manifest of a quality override, and none for the engine’s own decision', async () => {
 		const hash = 'a3f1c09e5b7d2468' + '0'.repeat(48);

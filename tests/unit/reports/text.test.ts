@@ -2,7 +2,7 @@ import { PDFDocument } from 'pdf-lib';
 import { describe, expect, it } from 'vitest';
 import { embedFonts } from '../../../src/lib/server/reports/fonts';
 import { fitText, runsOf, textWidth, wrapText } from '../../../src/lib/server/reports/text';
-import { fixed, millivolts, percent } from '../../../src/lib/server/reports/format';
+import { millivolts, volts } from '$lib/format';
 
 // Layout helpers checked against their own contract on invented text; no outside source applies.
 async function fonts() {
@@ -35,13 +35,18 @@ describe('text layout', () => {
 	});
 });
 
-describe('number formatting', () => {
-	it('keeps fixed decimals, converts units and marks missing values', () => {
-		expect(fixed(3.6154, 3)).toBe('3.615');
-		expect(fixed(-0.00004, 3)).toBe('0.000'); // no "-0.000"
-		expect(millivolts(-0.0123)).toBe('-12.3'); // 1 V = 1000 mV (SI prefix milli = 10^-3)
-		expect(percent(0.3)).toBe('30 %');
-		expect(fixed(null, 2)).toBe('—');
-		expect(percent(Number.NaN)).toBe('—');
+describe('numbers from $lib/format in documents', () => {
+	it('draws the true minus sign and the no-break space with the Latin face', async () => {
+		const set = await fonts();
+		expect(runsOf(set, millivolts(-0.0123))).toEqual([{ text: '\u221212.3\u00a0mV', face: 'latin' }]);
+	});
+
+	it('never wraps between a number and its unit', async () => {
+		const set = await fonts();
+		const text = `window max ${volts(4.2)} and window min ${volts(2.5)}`;
+		const width = textWidth(set, 'window max 4.200', 9);
+		const lines = wrapText(set, text, 9, width);
+		expect(lines.length).toBeGreaterThan(1);
+		for (const line of lines) expect(line).not.toMatch(/^V\b|\d$/);
 	});
 });

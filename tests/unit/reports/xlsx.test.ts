@@ -1,6 +1,8 @@
 import XlsxPopulate from 'xlsx-populate';
 import { describe, expect, it } from 'vitest';
 import { filterNote, lotListXlsx, lotReadingsXlsx, type LotListRow } from '../../../src/lib/server/reports/xlsx';
+import type { LotStatus } from '$lib/schemas/lot';
+import { LOT_STATUS } from '$lib/status';
 import { makeReport } from './fixtures';
 import { readZipSheets } from './xlsx-zip';
 
@@ -45,12 +47,18 @@ describe('lotReadingsXlsx', () => {
 		expect(readings.get('E18')?.type).toBe('number');
 	});
 
-	it('summarises the lot, the disposition word and every reason', async () => {
+	it('summarises the lot, the disposition word and every reason, in words rather than codes', async () => {
 		const data = makeReport({}, 30);
 		const summary = (await readZipSheets(await lotReadingsXlsx(data))).get('Summary')!;
 		const strings = [...summary.values()].filter((c) => c.type === 'string').map((c) => c.value);
 		expect(strings).toContain(data.lot.lot_code);
-		expect(strings).toContain('REJECT');
+		// the words of src/lib/status.ts, as on the lot page
+		expect(strings).toContain('Reject');
+		expect(strings).toContain(LOT_STATUS[data.lot.status as LotStatus].word);
+		expect(strings).toContain('Air');
+		expect(strings).toContain('Normal');
+		expect(strings).not.toContain(data.lot.status);
+		expect(strings).not.toContain('air');
 		for (const reason of data.disposition.reasons) {
 			expect(strings).toContain(reason.code);
 			expect(strings).toContain(reason.message);
@@ -68,11 +76,15 @@ describe('lotListXlsx', () => {
 		const filters = { status: 'rejected', supplier: '', chemistry: 'NMC' };
 		const workbook = await XlsxPopulate.fromDataAsync(await lotListXlsx(rows, filters));
 		const sheet = workbook.sheet('Lots')!;
-		expect(sheet.cell('A1').value()).toBe('Filters applied: status = rejected; chemistry = NMC');
+		expect(sheet.cell('A1').value()).toBe('Filters applied: status = Rejected; chemistry = NMC');
 		expect(sheet.cell('A2').value()).toBe('lot code');
 		expect(sheet.cell('A3').value()).toBe('LV-2031-0457');
 		expect(sheet.cell('C4').value()).toBe('Brindle & Vask Energy');
 		expect(sheet.cell('F4').value()).toBe(480);
+		expect(sheet.cell('G3').value()).toBe('Rejected'); // the state's word, not its code
+		expect(sheet.cell('G4').value()).toBe('On hold');
+		expect(sheet.cell('I4').value()).toBe('Sea');
+		expect(sheet.cell('J3').value()).toBe('2031-05-02 09:00 UTC');
 		expect(sheet.cell('H3').value()).toBeCloseTo(30, 12);
 		expect(sheet.cell('H4').value()).toBeUndefined();
 	});
@@ -86,6 +98,9 @@ describe('lotListXlsx', () => {
 	});
 
 	it('describes filters without the empty ones', () => {
-		expect(filterNote({ q: '', transport: 'air' })).toBe('Filters applied: transport = air');
+		expect(filterNote({ q: '', transport: 'air' })).toBe('Filters applied: transport = Air');
+		expect(filterNote({ status: 'pending_decision', supplier: 'Ostrand Cellworks Co.' })).toBe(
+			'Filters applied: status = Awaiting decision; supplier = Ostrand Cellworks Co.'
+		);
 	});
 });

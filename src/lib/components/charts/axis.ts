@@ -1,37 +1,6 @@
 import type { ScaleLinear } from 'd3-scale';
+import { count as formatCount, volts } from '$lib/format';
 import type { Tick } from './types';
-
-const MINUS = '\u2212';
-const NBSP = '\u00a0';
-
-/** Fixed decimals with a true minus sign and no "-0.000". */
-export function formatFixed(value: number, decimals: number): string {
-	const text = value.toFixed(decimals);
-	if (Number(text) === 0) return (0).toFixed(decimals);
-	return text.replace('-', MINUS);
-}
-
-/** Cell voltages: 3 decimals (1 mV) by default, 4 when a lot is tighter than that. */
-export function formatVolts(volts: number, decimals = 3): string {
-	return `${formatFixed(volts, decimals)}${NBSP}V`;
-}
-
-export function formatMillivolts(millivolts: number, decimals = 0): string {
-	return `${formatFixed(millivolts, decimals)}${NBSP}mV`;
-}
-
-/** `fraction` is 0–1 (SOC is stored as a fraction everywhere in Restvolt). */
-export function formatPercent(fraction: number, decimals = 0): string {
-	return `${formatFixed(fraction * 100, decimals)}${NBSP}%`;
-}
-
-export function formatCount(count: number): string {
-	return Math.round(count).toLocaleString('en-US');
-}
-
-export function formatPpm(ppm: number): string {
-	return `${formatCount(ppm)}${NBSP}ppm`;
-}
 
 /** Enough decimals that neighbouring ticks never print the same text. */
 export function decimalsForStep(step: number, min: number, max: number): number {
@@ -53,7 +22,7 @@ export function linearTicks(
 
 /** Volt ticks with 3 or 4 decimals depending on tick spacing. */
 export function voltTicks(scale: ScaleLinear<number, number>, count: number): Tick[] {
-	return linearTicks(scale, count, (v, step) => formatVolts(v, decimalsForStep(step, 3, 4)));
+	return linearTicks(scale, count, (v, step) => volts(v, decimalsForStep(step, 3, 4)));
 }
 
 /** Integer-only ticks for counts (no "0.5 units"). */
@@ -92,9 +61,4 @@ export function extent(values: number[]): [number, number] | null {
 		if (v > hi) hi = v;
 	}
 	return lo <= hi ? [lo, hi] : null;
-}
-
-/** "1 outlier", "3 outliers" */
-export function plural(count: number, singular: string, pluralForm = `${singular}s`): string {
-	return `${formatCount(count)} ${count === 1 ? singular : pluralForm}`;
 }

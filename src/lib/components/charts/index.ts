@@ -5,6 +5,5 @@ export { default as OcvStripChart } from './OcvStripChart.svelte';
 export { default as SocIntervalChart } from './SocIntervalChart.svelte';
 export { default as ModelCurveChart } from './ModelCurveChart.svelte';
 export { default as TrendChart } from './TrendChart.svelte';
-export { formatCount, formatMillivolts, formatPercent, formatPpm, formatVolts } from './axis';
 export type { OcvUnit } from './ocv-strip';
 export type { SocUnit } from './soc-rows';

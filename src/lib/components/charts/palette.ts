@@ -1,14 +1,16 @@
-// Colours resolve from the app's CSS custom properties, with fallbacks so a chart
-// rendered on its own (server HTML, printout, PDF) keeps the same look.
+// Chart colours are the app's design tokens: the CSS variables that Tailwind's @theme defines in
+// src/app.css (emitted always, as `@theme static`), so a chart and the page around it never disagree.
 export const colors = {
-	accent: 'var(--rv-accent, #0f766e)',
-	danger: 'var(--rv-danger, #b42318)',
-	warn: 'var(--rv-warn, #b54708)',
-	ok: 'var(--rv-ok, #2e7d32)',
+	accent: 'var(--color-volt-600)',
+	danger: 'var(--color-status-reject)',
+	warn: 'var(--color-status-hold)',
+	ok: 'var(--color-status-accept)',
 	ink: 'currentColor',
-	muted: 'var(--rv-muted, #667085)',
-	grid: 'var(--rv-grid, #e4e0d6)',
-	panel: 'var(--rv-panel, #ffffff)'
+	muted: 'var(--color-ink-muted)',
+	grid: 'var(--color-line-faint)',
+	panel: 'var(--color-panel)',
+	/** The acceptance window behind the readings: the accent, faint. */
+	windowFill: 'color-mix(in srgb, var(--color-volt-600) 9%, transparent)'
 } as const;
 
 export const FONT_SIZE = 12;

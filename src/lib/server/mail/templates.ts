@@ -3,6 +3,9 @@
  * Rendered when the decision is written, so the outbox row holds exactly what will be sent.
  */
 import escapeHtml from 'escape-html';
+import { quantity } from '$lib/format';
+import { LOT_STATUS } from '$lib/status';
+import { THEME_HEX } from '../reports/palette';
 
 export type NoticeKind = 'accept' | 'hold' | 'reject' | 'override';
 export type FinalStatus = 'accepted' | 'on_hold' | 'rejected';
@@ -32,7 +35,8 @@ export interface NoticeBody {
 	html: string;
 }
 
-const WORDS: Record<FinalStatus, string> = { accepted: 'ACCEPTED', on_hold: 'ON HOLD', rejected: 'REJECTED' };
+/** The lot's state in capitals, so it stands out in a subject line: the same words as on every page. */
+const shout = (status: FinalStatus) => LOT_STATUS[status].word.toUpperCase();
 
 function dispositionSentence(n: NoticeInput): string {
 	const after = n.kind === 'override' ? ' after review by our quality team' : '';
@@ -71,7 +75,7 @@ export function noticeCautions(n: Pick<NoticeInput, 'status' | 'lithium' | 'safe
 
 export function noticeSubject(n: NoticeInput): string {
 	const prefix = n.kind === 'override' ? 'Quality decision' : 'Inspection result';
-	return `${prefix}: lot ${n.lotCode} ${WORDS[n.status]} (PO ${n.poNumber}, ${n.partNumber})`;
+	return `${prefix}: lot ${n.lotCode} ${shout(n.status)} (PO ${n.poNumber}, ${n.partNumber})`;
 }
 
 function textBody(n: NoticeInput): string {
@@ -83,8 +87,8 @@ function textBody(n: NoticeInput): string {
 		`Lot: ${n.lotCode}`,
 		`Purchase order: ${n.poNumber}`,
 		`Part: ${n.partNumber} (${n.partDescription})`,
-		`Quantity: ${n.quantity}`,
-		`Disposition: ${WORDS[n.status]}`,
+		`Quantity: ${quantity(n.quantity)}`,
+		`Disposition: ${shout(n.status)}`,
 		'',
 		dispositionSentence(n)
 	];
@@ -103,15 +107,15 @@ function htmlBody(n: NoticeInput): string {
 	const row = (k: string, v: string) => `<tr><th align="left" style="padding:2px 12px 2px 0">${e(k)}</th><td>${e(v)}</td></tr>`;
 	const cautions = noticeCautions(n);
 	return [
-		'<!doctype html><html><body style="font-family:system-ui,sans-serif;color:#1c2430">',
+		`<!doctype html><html><body style="font-family:system-ui,sans-serif;color:${THEME_HEX.ink}">`,
 		`<p>Dear ${e(n.supplierName)} team,</p>`,
 		`<p>${e(n.companyName)} has inspected your lot on arrival.</p>`,
 		'<table>',
 		row('Lot', n.lotCode),
 		row('Purchase order', n.poNumber),
 		row('Part', `${n.partNumber} (${n.partDescription})`),
-		row('Quantity', String(n.quantity)),
-		row('Disposition', WORDS[n.status]),
+		row('Quantity', quantity(n.quantity)),
+		row('Disposition', shout(n.status)),
 		'</table>',
 		`<p><strong>${e(dispositionSentence(n))}</strong></p>`,
 		n.decisionReason ? `<p>Reason given by our quality team: ${e(n.decisionReason)}</p>` : '',

@@ -2,7 +2,7 @@ import { MARGIN, CONTENT_WIDTH, type Cursor } from './layout';
 import { palette } from './palette';
 import { statusShape } from './shapes';
 import { drawText, textWidth, wrapText } from './text';
-import { STATUS_WORDS } from './format';
+import { REASON_SEVERITY, VERDICT } from '$lib/status';
 import type { ReportData, ReportReason } from './types';
 
 const TONE = {
@@ -11,8 +11,6 @@ const TONE = {
 	reject: { ink: palette.reject, mist: palette.rejectMist },
 	pending: { ink: palette.pending, mist: palette.tealMist }
 } as const;
-
-const SEVERITY_WORDS: Record<ReportReason['severity'], string> = { reject: 'REJECT', hold: 'HOLD', info: 'NOTE' };
 
 /** What a status word means for the person holding the lot. */
 const STATUS_HINTS = {
@@ -32,9 +30,9 @@ export function drawDisposition(cursor: Cursor, data: ReportData): void {
 	const top = cursor.y;
 	page.drawRectangle({ x: MARGIN, y: top - height, width: CONTENT_WIDTH, height, color: tone.mist });
 	page.drawRectangle({ x: MARGIN, y: top - height, width: 5, height, color: tone.ink });
-	statusShape(page, status, MARGIN + 28, top - 28, 11, tone.ink);
+	statusShape(page, VERDICT[status].shape, MARGIN + 28, top - 28, 11, tone.ink, tone.mist);
 	drawText(page, fonts, 'DISPOSITION', MARGIN + 50, top - 14, { size: 7.5, color: palette.inkSoft });
-	const word = STATUS_WORDS[status];
+	const word = VERDICT[status].word.toUpperCase();
 	const wordWidth = drawText(page, fonts, word, MARGIN + 50, top - 42, { size: 28, color: tone.ink, strong: true });
 	if (safety) drawSafetyBadge(cursor, MARGIN + 50 + wordWidth + 14, top - 40);
 	drawText(page, fonts, STATUS_HINTS[status], MARGIN + 50, top - 55, { size: 8, color: palette.ink });
@@ -68,7 +66,7 @@ function drawReason(cursor: Cursor, reason: ReportReason): void {
 	const codeLine = `code ${reason.code}`;
 	cursor.ensure(lines.length * 12 + 12);
 	const style = { size: 7.5, color: reason.severity === 'info' ? palette.inkSoft : TONE[reason.severity].ink, strong: true };
-	drawText(cursor.page, cursor.fonts, SEVERITY_WORDS[reason.severity], MARGIN, cursor.y - 9, style);
+	drawText(cursor.page, cursor.fonts, REASON_SEVERITY[reason.severity].word.toUpperCase(), MARGIN, cursor.y - 9, style);
 	lines.forEach((line, i) => drawText(cursor.page, cursor.fonts, line, MARGIN + tagWidth, cursor.y - 9 - i * 12, { size: 9, color: palette.ink }));
 	cursor.gap(lines.length * 12);
 	drawText(cursor.page, cursor.fonts, codeLine, MARGIN + tagWidth, cursor.y - 7, { size: 7, color: palette.inkSoft });

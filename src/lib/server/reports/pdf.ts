@@ -2,7 +2,7 @@ import { PDFDocument } from 'pdf-lib';
 import { drawCautions } from './cautions';
 import { drawDisposition } from './disposition';
 import { embedFonts } from './fonts';
-import { dateTime } from './format';
+import { dateTime } from '$lib/format';
 import { CONTENT_WIDTH, Cursor, MARGIN, drawFooters, sectionTitle } from './layout';
 import { palette } from './palette';
 import { drawOcvPlot } from './plot';

@@ -1,6 +1,6 @@
 import type { PDFPage } from 'pdf-lib';
 import type { FontSet } from './fonts';
-import { fixed } from './format';
+import { fixed, volts } from '$lib/format';
 import { linearAxis, indexAxis, type Axis } from './plot-scale';
 import { palette } from './palette';
 import { cross, dot } from './shapes';
@@ -76,8 +76,8 @@ function drawGuides(page: PDFPage, fonts: FontSet, frame: Frame, yAxis: Axis, da
 	const { ocv_min_v, ocv_max_v, expected_ocv_v } = data.limits;
 	// max label above its line and min label below, so a narrow window keeps both readable
 	const window: Array<[string, number, 'above' | 'below']> = [
-		[`window max ${fixed(ocv_max_v, 3)} V`, ocv_max_v, 'above'],
-		[`window min ${fixed(ocv_min_v, 3)} V`, ocv_min_v, 'below']
+		[`window max ${volts(ocv_max_v)}`, ocv_max_v, 'above'],
+		[`window min ${volts(ocv_min_v)}`, ocv_min_v, 'below']
 	];
 	for (const [label, value, side] of window) {
 		const y = yAxis.toPage(value);
@@ -88,7 +88,7 @@ function drawGuides(page: PDFPage, fonts: FontSet, frame: Frame, yAxis: Axis, da
 	if (expected_ocv_v !== null && Number.isFinite(expected_ocv_v)) {
 		const y = yAxis.toPage(expected_ocv_v);
 		page.drawLine({ start: { x: frame.left, y }, end: { x: frame.right, y }, thickness: 1, color: palette.tealDeep });
-		const label = `expected ${fixed(expected_ocv_v, 3)} V`;
+		const label = `expected ${volts(expected_ocv_v)}`;
 		guideLabel(page, fonts, label, frame.right - 4 - textWidth(fonts, label, LABEL.size), y + 2.5);
 	}
 }

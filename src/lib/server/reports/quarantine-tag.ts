@@ -7,6 +7,8 @@ import { drawQr } from './qr';
 import { statusShape, triangle } from './shapes';
 import { drawText, drawTextRight, fitText, wrapText } from './text';
 import type { TagData } from './types';
+import { LOT_STATUS } from '$lib/status';
+import { quantity } from '$lib/format';
 
 /** A6 landscape (148 × 105 mm, ISO 216) in points. */
 export const A6_LANDSCAPE: [number, number] = [419.53, 297.64];
@@ -14,7 +16,10 @@ const EDGE = 18;
 const BAND = 46;
 const QR_SIDE = 104;
 
-export const TAG_TITLES = { on_hold: 'QUARANTINE — ON HOLD', rejected: 'QUARANTINE — REJECTED' } as const;
+const TAG_TITLES = {
+	on_hold: `QUARANTINE — ${LOT_STATUS.on_hold.word.toUpperCase()}`,
+	rejected: `QUARANTINE — ${LOT_STATUS.rejected.word.toUpperCase()}`
+} as const;
 
 export function tagCaution(tag: TagData): string {
 	if (tag.safety) {
@@ -44,7 +49,7 @@ function drawBand(page: PDFPage, fonts: FontSet, tag: TagData): void {
 	const [width, height] = A6_LANDSCAPE;
 	const tone = tag.status === 'rejected' ? palette.reject : palette.hold;
 	page.drawRectangle({ x: 0, y: height - BAND, width, height: BAND, color: tone });
-	statusShape(page, tag.status === 'rejected' ? 'reject' : 'hold', EDGE + 10, height - BAND / 2, 10, palette.white);
+	statusShape(page, LOT_STATUS[tag.status].shape, EDGE + 10, height - BAND / 2, 10, palette.white, tone);
 	const title = fitText(fonts, TAG_TITLES[tag.status], 19, width - 2 * EDGE - 34);
 	drawText(page, fonts, title, EDGE + 30, height - BAND / 2 - 7, { size: 19, color: palette.white, strong: true });
 }
@@ -60,7 +65,7 @@ function drawDetails(page: PDFPage, fonts: FontSet, tag: TagData): void {
 		['PO number', tag.po_number],
 		['Supplier', tag.supplier],
 		['Part', `${tag.part_number} · ${tag.chemistry}`],
-		['Quantity', `${tag.quantity} units`],
+		['Quantity', quantity(tag.quantity)],
 		['Tagged on', tag.date]
 	];
 	top -= drawPairs(page, fonts, pairs, EDGE, top, columnWidth);

@@ -1,6 +1,7 @@
 import type { PDFPage } from 'pdf-lib';
 import { paragraph } from './blocks';
-import { fixed, millivolts, MISSING } from './format';
+import { fixed, MISSING } from '$lib/format';
+import { VERDICT } from '$lib/status';
 import type { Cursor } from './layout';
 import { palette } from './palette';
 import { cross } from './shapes';
@@ -9,7 +10,7 @@ import type { ReportUnit } from './types';
 
 /** SOC with its 1σ spread, or the plausible range when the OCV curve is too flat to decide. */
 export function socCell(unit: ReportUnit): string {
-	if (!unit.determinate) return `indeterminate ${fixed(unit.soc_low * 100, 0)}–${fixed(unit.soc_high * 100, 0)}`;
+	if (!unit.determinate) return `${VERDICT.indeterminate.word.toLowerCase()} ${fixed(unit.soc_low * 100, 0)}–${fixed(unit.soc_high * 100, 0)}`;
 	return `${fixed(unit.soc * 100, 1)} ± ${fixed(unit.soc_sigma * 100, 1)}`;
 }
 
@@ -27,7 +28,7 @@ const COLUMNS: Column<ReportUnit>[] = [
 	{ title: 'cell V @25 °C', weight: 10.5, align: 'right', cell: (u) => fixed(u.ocv_at_25c_v, 4) },
 	{ title: 'SOC % ± σ', weight: 13, align: 'right', cell: socCell },
 	{ title: 'expected V', weight: 8.5, align: 'right', cell: (u) => fixed(u.expected_ocv_v, 4) },
-	{ title: 'residual mV', weight: 9, align: 'right', cell: (u) => millivolts(u.residual_v, 1) },
+	{ title: 'residual mV', weight: 9, align: 'right', cell: (u) => fixed(u.residual_v === null ? null : u.residual_v * 1000, 1) },
 	{ title: 'flags', weight: 22.5, align: 'left', cell: flagsCell }
 ];
 

@@ -1,5 +1,6 @@
 import { pairColumns, paragraph, type Pair } from './blocks';
-import { dateTime, fixed, millivolts, percent, MISSING } from './format';
+import { ampereHours, count, dateTime, millivolts, percent, quantity, volts, MISSING } from '$lib/format';
+import { DECISION_KIND, INSPECTION_SEVERITY, LOT_STATUS, TRANSPORT, wordOf } from '$lib/status';
 import { sectionTitle, type Cursor } from './layout';
 import { palette } from './palette';
 import type { ReportData } from './types';
@@ -10,10 +11,10 @@ export function drawLotSection(cursor: Cursor, data: ReportData): void {
 	const left: Pair[] = [
 		['Lot code', lot.lot_code],
 		['PO number', lot.po_number],
-		['Lot status', lot.status],
-		['Quantity', `${lot.quantity} units`],
+		['Lot status', wordOf(LOT_STATUS, lot.status)],
+		['Quantity', quantity(lot.quantity)],
 		['Declared SOC', percent(lot.declared_soc)],
-		['Transport', lot.transport],
+		['Transport', TRANSPORT[lot.transport]],
 		['UN number', lot.un_number ?? MISSING],
 		['Received', dateTime(lot.received_at)],
 		['Registered', dateTime(lot.created_at)]
@@ -24,7 +25,7 @@ export function drawLotSection(cursor: Cursor, data: ReportData): void {
 		['Description', part.description || MISSING],
 		['Chemistry', part.chemistry],
 		['Configuration', `${part.cells_in_series}S${part.cells_in_parallel}P`],
-		['Nominal capacity', `${fixed(part.nominal_capacity_ah, 2)} Ah`],
+		['Nominal capacity', ampereHours(part.nominal_capacity_ah)],
 		['Buyer', data.company.name]
 	];
 	pairColumns(cursor, left, right);
@@ -34,16 +35,16 @@ export function drawPlanSection(cursor: Cursor, data: ReportData): void {
 	sectionTitle(cursor, 'Sampling plan (ISO 2859-1)');
 	const { plan } = data;
 	if (!plan) {
-		paragraph(cursor, `No sampling plan recorded. Inspection severity: ${data.severity}.`, { size: 9, color: palette.ink });
+		paragraph(cursor, `No sampling plan recorded. Inspection severity: ${wordOf(INSPECTION_SEVERITY, data.severity)}.`, { size: 9, color: palette.ink });
 		cursor.gap(8);
 		return;
 	}
-	const size = plan.hundred_percent ? `${plan.sample_size} (100 % inspection)` : String(plan.sample_size);
+	const size = plan.hundred_percent ? `${count(plan.sample_size)} (100 % inspection)` : count(plan.sample_size);
 	const left: Pair[] = [
 		['Code letter', plan.code_letter],
 		['Plan code letter', plan.plan_code_letter],
 		['Inspection level', plan.level],
-		['Severity', data.severity]
+		['Severity', wordOf(INSPECTION_SEVERITY, data.severity)]
 	];
 	const right: Pair[] = [
 		['Sample size n', size],
@@ -61,16 +62,16 @@ export function drawStatsSection(cursor: Cursor, data: ReportData): void {
 		cursor.gap(8);
 	} else {
 		const left: Pair[] = [
-			['Units measured', String(stats.count)],
-			['Mean', `${fixed(stats.mean, 4)} V`],
-			['Standard deviation', `${millivolts(stats.sd, 1)} mV`],
-			['Median', `${fixed(stats.median, 4)} V`]
+			['Units measured', count(stats.count)],
+			['Mean', volts(stats.mean, 4)],
+			['Standard deviation', millivolts(stats.sd)],
+			['Median', volts(stats.median, 4)]
 		];
 		const right: Pair[] = [
-			['MAD', `${millivolts(stats.mad, 1)} mV`],
-			['Minimum', `${fixed(stats.min, 4)} V`],
-			['Maximum', `${fixed(stats.max, 4)} V`],
-			['Range', `${millivolts(stats.range, 1)} mV`]
+			['MAD', millivolts(stats.mad)],
+			['Minimum', volts(stats.min, 4)],
+			['Maximum', volts(stats.max, 4)],
+			['Range', millivolts(stats.range)]
 		];
 		pairColumns(cursor, left, right);
 	}
@@ -90,9 +91,9 @@ export function drawModelSection(cursor: Cursor, data: ReportData): void {
 	];
 	const right: Pair[] = decision
 		? [
-				['Decided by', decision.kind === 'automatic' ? `automatic (${decision.by})` : decision.by],
+				['Decided by', decision.by],
 				['Decided at', dateTime(decision.at)],
-				['Kind', decision.kind],
+				['Kind', DECISION_KIND[decision.kind]],
 				['Override reason', decision.reason ?? MISSING]
 			]
 		: [['Decided by', 'no decision recorded yet']];

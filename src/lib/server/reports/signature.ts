@@ -1,5 +1,5 @@
 import { pairColumns, type Pair } from './blocks';
-import { dateTime, MISSING } from './format';
+import { dateTime, MISSING } from '$lib/format';
 import { sectionTitle, type Cursor } from './layout';
 import type { ReportData } from './types';
 

@@ -60,11 +60,11 @@ export function drawTextRight(page: PDFPage, fonts: FontSet, text: string, right
 	drawText(page, fonts, text, right - textWidth(fonts, text, style.size), y, style);
 }
 
-/** Greedy word wrap; a word longer than the line is broken between characters. */
+/** Greedy word wrap at spaces (never at the no-break space between a number and its unit); a word longer than the line is broken between characters. */
 export function wrapText(fonts: FontSet, text: string, size: number, maxWidth: number): string[] {
 	const lines: string[] = [];
 	let line = '';
-	for (const word of text.split(/\s+/).filter(Boolean)) {
+	for (const word of text.split(/[^\S\u00a0]+/).filter(Boolean)) {
 		const candidate = line ? `${line} ${word}` : word;
 		if (textWidth(fonts, candidate, size) <= maxWidth) {
 			line = candidate;

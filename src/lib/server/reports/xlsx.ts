@@ -1,6 +1,8 @@
 import XlsxPopulate from 'xlsx-populate';
 import type { Sheet } from 'xlsx-populate';
-import { STATUS_WORDS } from './format';
+import { DECISION_KIND, INSPECTION_SEVERITY, LOT_STATUS, REASON_SEVERITY, TRANSPORT, VERDICT, wordOf } from '$lib/status';
+import { dateTime } from '$lib/format';
+import { xlsxColour } from './palette';
 import type { ReportData, ReportUnit } from './types';
 
 type Cell = string | number | boolean | null;
@@ -18,8 +20,8 @@ export interface LotListRow {
 	created_at: string | Date;
 }
 
-const HEADER_STYLE = { bold: true, fontColor: 'ffffff', fill: '0c5156' };
-const NOTE_STYLE = { italic: true, fontColor: '4d5f66' };
+const HEADER_STYLE = { bold: true, fontColor: 'ffffff', fill: xlsxColour('volt-700') };
+const NOTE_STYLE = { italic: true, fontColor: xlsxColour('ink-soft') };
 
 /** SOC travels as a fraction; spreadsheets show percent, still as numbers. */
 const pct = (fraction: number | null): number | null => (fraction === null ? null : fraction * 100);
@@ -37,7 +39,7 @@ const READING_COLUMNS: Array<{ title: string; width: number; format?: string; va
 	{ title: 'SOC σ (%)', width: 10, format: '0.0', value: (u) => pct(u.soc_sigma) },
 	{ title: 'SOC low (%)', width: 11, format: '0.0', value: (u) => pct(u.soc_low) },
 	{ title: 'SOC high (%)', width: 12, format: '0.0', value: (u) => pct(u.soc_high) },
-	{ title: 'SOC determinate', width: 15, value: (u) => (u.determinate ? 'yes' : 'indeterminate') },
+	{ title: 'SOC determinate', width: 15, value: (u) => (u.determinate ? 'yes' : VERDICT.indeterminate.word.toLowerCase()) },
 	{ title: 'expected OCV (V)', width: 16, format: '0.0000', value: (u) => u.expected_ocv_v },
 	{ title: 'residual (mV)', width: 13, format: '0.0', value: (u) => mv(u.residual_v) },
 	{ title: 'nonconforming', width: 14, value: (u) => (u.nonconforming ? 'yes' : 'no') },
@@ -79,20 +81,21 @@ function summaryPairs(data: ReportData): Array<[string, Cell]> {
 		['Chemistry', part.chemistry],
 		['Quantity', lot.quantity],
 		['Declared SOC (%)', pct(lot.declared_soc)],
-		['Transport', lot.transport],
-		['Lot status', lot.status],
-		['Disposition', STATUS_WORDS[disposition.status]],
+		['Transport', TRANSPORT[lot.transport]],
+		['Lot status', wordOf(LOT_STATUS, lot.status)],
+		['Disposition', VERDICT[disposition.status].word],
 		['Safety', disposition.safety ? 'yes' : 'no'],
 		['Nonconforming units', disposition.nonconforming],
 		['Sample size', plan ? plan.sample_size : null],
 		['Ac / Re', plan ? `${plan.accept} / ${plan.reject}` : null],
-		['Severity', data.severity],
+		['Severity', wordOf(INSPECTION_SEVERITY, data.severity)],
 		['Mean cell OCV at 25 °C (V)', stats ? stats.mean : null],
 		['SD cell OCV (mV)', stats ? stats.sd * 1000 : null],
 		['Window (V)', `${data.limits.ocv_min_v} – ${data.limits.ocv_max_v}`],
 		['Model', `${data.model.version} (${data.model.source})`],
-		['Decided by', decision ? (decision.kind === 'automatic' ? `automatic (${decision.by})` : decision.by) : 'no decision yet'],
-		['Generated', data.generated_at]
+		['Decision', decision ? DECISION_KIND[decision.kind] : 'no decision yet'],
+		['Decided by', decision ? decision.by : null],
+		['Generated', dateTime(data.generated_at)]
 	];
 }
 
@@ -102,7 +105,12 @@ function writeSummary(sheet: Sheet, data: ReportData): void {
 		sheet.cell(r + 1, 1).value(label).style({ bold: true });
 		if (value !== null) sheet.cell(r + 1, 2).value(value);
 	});
-	const reasonRows = data.disposition.reasons.map((reason): Cell[] => [reason.severity, reason.code, reason.message, (reason.units ?? []).join(', ')]);
+	const reasonRows = data.disposition.reasons.map((reason): Cell[] => [
+		REASON_SEVERITY[reason.severity].word,
+		reason.code,
+		reason.message,
+		(reason.units ?? []).join(', ')
+	]);
 	writeTable(sheet, pairs.length + 2, ['severity', 'code', 'reason', 'units'], reasonRows);
 	[28, 40, 70, 40].forEach((width, c) => sheet.column(c + 1).width(width));
 }
@@ -114,17 +122,24 @@ const LOT_COLUMNS: Array<{ title: string; width: number; value(row: LotListRow):
 	{ title: 'part number', width: 20, value: (r) => r.part_number },
 	{ title: 'chemistry', width: 11, value: (r) => r.chemistry },
 	{ title: 'quantity', width: 10, value: (r) => r.quantity },
-	{ title: 'status', width: 12, value: (r) => r.status },
+	{ title: 'status', width: 18, value: (r) => wordOf(LOT_STATUS, r.status) },
 	{ title: 'declared SOC (%)', width: 16, value: (r) => pct(r.declared_soc) },
-	{ title: 'transport', width: 10, value: (r) => r.transport },
-	{ title: 'created', width: 22, value: (r) => (r.created_at instanceof Date ? r.created_at.toISOString() : r.created_at) }
+	{ title: 'transport', width: 10, value: (r) => wordOf(TRANSPORT, r.transport) },
+	{ title: 'created', width: 22, value: (r) => dateTime(r.created_at) }
 ];
+
+/** Filter values that are codes are written as the words the lot list shows. */
+const FILTER_WORDS: Record<string, (value: string) => string> = {
+	status: (value) => wordOf(LOT_STATUS, value),
+	transport: (value) => wordOf(TRANSPORT, value)
+};
 
 /** Describes the filters in one line so a saved sheet still says what it contains. */
 export function filterNote(filters: Record<string, string>): string {
 	const applied = Object.entries(filters).filter(([, value]) => value !== '');
 	if (applied.length === 0) return 'Filters applied: none (all lots)';
-	return `Filters applied: ${applied.map(([key, value]) => `${key} = ${value}`).join('; ')}`;
+	const word = (key: string, value: string) => FILTER_WORDS[key]?.(value) ?? value;
+	return `Filters applied: ${applied.map(([key, value]) => `${key} = ${word(key, value)}`).join('; ')}`;
 }
 
 /** The lot list as shown on screen: a note row with the filters, then the header and one row per lot. */

@@ -34,17 +34,5 @@ export interface EvaluationView {
 	evaluated_at: string;
 }
 
-export const SEVERITY_WORD = { normal: 'Normal', tightened: 'Tightened', reduced: 'Reduced', discontinued: 'Discontinued' } as const;
-export const REASON_LOOK = {
-	reject: { word: 'Reject', shape: '■', tone: 'text-status-reject' },
-	hold: { word: 'Hold', shape: '▲', tone: 'text-status-hold' },
-	info: { word: 'Note', shape: '◇', tone: 'text-status-info' }
-} as const;
-
-/** Voltage to 0.1 mV for cells (instrument resolution), as the design notes ask. */
-export const volts = (v: number | null | undefined, decimals = 4) => (v === null || v === undefined ? '—' : `${v.toFixed(decimals)} V`);
-export const millivolts = (v: number | null | undefined, decimals = 1) => (v === null || v === undefined ? '—' : `${(v * 1000).toFixed(decimals)} mV`);
-export const percent = (x: number | null | undefined, decimals = 0) => (x === null || x === undefined ? '—' : `${(x * 100).toFixed(decimals)} %`);
-
 export type FullEvaluation = EvaluationView & Required<Pick<EvaluationView, 'units' | 'inputs'>>;
 export const isFull = (e: EvaluationView | null): e is FullEvaluation => !!e && !!e.units && !!e.inputs;

@@ -1,7 +1,9 @@
 // Per-row feedback computed in the browser with the same electrochemistry core the server uses.
 // The server's evaluation stays authoritative; this is the inspector's instant check.
 import { evaluateReading, type OcvModel } from '$lib/electrochem';
+import { percent, percentRange, signedMillivolts, socSigma, volts } from '$lib/format';
 import type { PartLimits } from '$lib/inspection';
+import { VERDICT, type Look } from '$lib/status';
 
 export interface BenchContext {
 	model: OcvModel;
@@ -13,25 +15,31 @@ export interface BenchContext {
 	airSocLimit?: number | null;
 }
 
-export type FeedbackTone = 'ok' | 'warn' | 'danger' | 'info';
+/** A finding on one reading: a stable code (for tests and styling hooks) and its look. */
+export interface Finding extends Look {
+	code: string;
+}
 
 export interface RowFeedback {
 	socText: string;
 	expectedText: string;
 	residualText: string;
 	/** Findings as words, each with a shape and tone (never colour alone). */
-	findings: Array<{ word: string; shape: string; tone: FeedbackTone }>;
+	findings: Finding[];
 	deepDischarge: boolean;
 	indeterminate: boolean;
 }
 
-const FLAG_WORDS: Record<string, { word: string; shape: string; tone: FeedbackTone }> = {
-	deep_discharge: { word: 'deep discharge', shape: '■', tone: 'danger' },
-	over_voltage: { word: 'over voltage', shape: '■', tone: 'danger' },
-	soc_indeterminate: { word: 'SOC indeterminate', shape: '◇', tone: 'info' },
-	temperature_out_of_range: { word: 'temp. out of range', shape: '▲', tone: 'warn' },
-	below_window: { word: 'below model range', shape: '▲', tone: 'warn' },
-	above_window: { word: 'above model range', shape: '▲', tone: 'warn' }
+const refused = (code: string, word: string): Finding => ({ code, word, shape: 'cross', tone: 'reject' });
+const attention = (code: string, word: string): Finding => ({ code, word, shape: 'alert', tone: 'hold' });
+
+const FLAG_FINDINGS: Record<string, Finding> = {
+	deep_discharge: refused('deep_discharge', 'deep discharge'),
+	over_voltage: refused('over_voltage', 'over voltage'),
+	soc_indeterminate: { ...VERDICT.indeterminate, code: 'soc_indeterminate', word: 'SOC indeterminate' },
+	temperature_out_of_range: attention('temperature_out_of_range', 'temp. out of range'),
+	below_window: attention('below_window', 'below model range'),
+	above_window: attention('above_window', 'above model range')
 };
 
 /** Plausible pack/cell voltage range shown beside the OCV field: the part window × cells in series. */
@@ -51,26 +59,26 @@ export function feedbackFor(ctx: BenchContext, ocvV: number, temperatureC: numbe
 	} catch {
 		return null;
 	}
-	const findings = r.flags.filter((f) => f !== 'below_window' && f !== 'above_window').map((f) => FLAG_WORDS[f]);
-	if (r.ocv_at_25c_v < ctx.limits.ocv_min_v || r.ocv_at_25c_v > ctx.limits.ocv_max_v) findings.push({ word: 'outside window', shape: '▲', tone: 'warn' });
+	const findings = r.flags.filter((f) => f !== 'below_window' && f !== 'above_window').map((f) => FLAG_FINDINGS[f]);
+	if (r.ocv_at_25c_v < ctx.limits.ocv_min_v || r.ocv_at_25c_v > ctx.limits.ocv_max_v) findings.push(attention('outside_window', 'outside window'));
 	if (r.residual_v !== null && Math.abs(r.residual_v) > ctx.limits.residual_tolerance_v && r.determinate) {
-		findings.push({ word: 'far from declared SOC', shape: '▲', tone: 'warn' });
+		findings.push(attention('far_from_declared_soc', 'far from declared SOC'));
 	}
 	// Same test as the server's air rule: the unit's SOC interval lies wholly above the limit.
 	if (ctx.airSocLimit != null && r.soc_low > ctx.airSocLimit) {
-		findings.push({ word: `above ${Math.round(ctx.airSocLimit * 100)} % air limit`, shape: '▲', tone: 'warn' });
+		findings.push(attention('above_air_limit', `above ${percent(ctx.airSocLimit)} air limit`));
 	}
-	if (findings.length === 0) findings.push({ word: 'in window', shape: '●', tone: 'ok' });
+	if (findings.length === 0) findings.push({ ...VERDICT.accept, code: 'in_window', word: 'in window' });
 	return {
 		socText: r.flags.includes('below_window')
 			? 'below range'
 			: r.flags.includes('above_window')
 				? 'above range'
 				: r.determinate
-			? `${(r.soc * 100).toFixed(0)} % ± ${(r.soc_sigma * 100).toFixed(0)}`
-			: `indeterminate ${(r.soc_low * 100).toFixed(0)}–${(r.soc_high * 100).toFixed(0)} %`,
-		expectedText: r.expected_ocv_v === null ? '—' : `${(r.expected_ocv_v * ctx.cellsInSeries).toFixed(ctx.cellsInSeries > 1 ? 2 : 3)} V`,
-		residualText: r.residual_v === null ? '—' : `${r.residual_v >= 0 ? '+' : '−'}${Math.abs(r.residual_v * 1000).toFixed(1)} mV`,
+					? socSigma(r.soc, r.soc_sigma)
+					: `${VERDICT.indeterminate.word.toLowerCase()} ${percentRange(r.soc_low, r.soc_high)}`,
+		expectedText: r.expected_ocv_v === null ? '—' : volts(r.expected_ocv_v * ctx.cellsInSeries, ctx.cellsInSeries > 1 ? 2 : 3),
+		residualText: signedMillivolts(r.residual_v),
 		findings,
 		deepDischarge: r.flags.includes('deep_discharge'),
 		indeterminate: !r.determinate
