@@ -5,6 +5,8 @@
  *   tokenFor(databaseUrl, email)          → an API token (the same service `npm run token` uses)
  *   signInPage(page, baseUrl, email, pw?) → Playwright: staff password sign-in on /signin
  *   signInSupplierByLink(page, baseUrl, email, mailHttpUrl?) → Playwright: supplier e-mail link
+ *   signInApiWithCode / signInPageWithCode   → the same for staff with a second factor (password, then code)
+ *   totpCode(secret, stepsAhead?), secretFromSecurityPage(html) → codes from the key the page shows
  *
  * Form POSTs send an `Origin` header, because SvelteKit refuses cross-site form posts.
  * Staff demo password: DEMO_PASSWORD. Each wrong password counts towards the sign-in throttle
@@ -13,6 +15,7 @@
 import { spawn } from 'node:child_process';
 import { resolve } from 'node:path';
 import type { Page } from '@playwright/test';
+import { Secret, TOTP } from 'otpauth';
 import { waitForMail, type ReceivedMail } from './mail';
 import { testEnv } from './env';
 
@@ -119,4 +122,55 @@ export async function signInSupplierByLink(page: Page, baseUrl: string, email: s
 	await page.waitForURL('**/signin/link-sent');
 	await page.goto(await signInLinkFor(email, since, mailHttpUrl));
 	await page.waitForURL((url) => url.pathname.startsWith('/portal'));
+}
+
+// ---- second factor (TOTP) ----
+
+/**
+ * The current TOTP code (RFC 6238: SHA-1, 6 digits, 30 s) for a base32 secret as the security page
+ * shows it (spaces allowed), `stepsAhead` × 30 s from now. The server accepts ±1 step and never a
+ * step at or before the last one it accepted, so a test that needs a fresh code soon after using
+ * one asks for the next step (stepsAhead = 1) instead of waiting.
+ */
+export function totpCode(secret: string, stepsAhead = 0): string {
+	return TOTP.generate({ secret: Secret.fromBase32(secret.replace(/\s+/g, '')), timestamp: Date.now() + stepsAhead * 30_000 });
+}
+
+/** The typed key from an /account/security page's HTML (the "Cannot scan it?" text). */
+export function secretFromSecurityPage(html: string): string {
+	const match = /data-testid="totp-secret"[^>]*>([A-Z2-7 ]+)</.exec(html);
+	if (!match) throw new Error('no TOTP secret on the security page');
+	return match[1].replace(/\s+/g, '');
+}
+
+/**
+ * Sign in as staff whose account has a second factor on: the password step (which answers with
+ * the code-step cookie), then POST /signin?/code. Returns the session cookie header; throws with
+ * the page's answer when either step is refused.
+ */
+export async function signInApiWithCode(baseUrl: string, email: string, code: string, password = DEMO_PASSWORD): Promise<string> {
+	const jar = new CookieJar();
+	const first = await postForm(baseUrl, '/signin?/password', { email, password, redirectTo: '/' });
+	jar.take(first);
+	if (first.status !== 303 || !jar.header().includes('restvolt-code-step')) {
+		throw new Error(`password step for ${email} refused: ${first.status} ${await first.text()}`);
+	}
+	const second = await postForm(baseUrl, '/signin?/code', { code, redirectTo: '/' }, jar.header());
+	jar.take(second);
+	if (second.status !== 303 || !jar.header().includes('session-token')) {
+		throw new Error(`code step for ${email} refused: ${second.status} ${await second.text()}`);
+	}
+	jar.cookies.delete('restvolt-code-step');
+	return jar.header();
+}
+
+/** Playwright: staff sign-in with a second factor; `code` is asked for when the code step shows. */
+export async function signInPageWithCode(page: Page, baseUrl: string, email: string, code: () => string, password = DEMO_PASSWORD): Promise<void> {
+	await page.goto(`${baseUrl}/signin`);
+	await page.getByLabel('Work e-mail').fill(email);
+	await page.getByLabel('Password').fill(password);
+	await page.getByRole('button', { name: 'Sign in' }).click();
+	await page.getByLabel('6-digit code').fill(code());
+	await page.getByRole('button', { name: 'Confirm and sign in' }).click();
+	await page.waitForURL((url) => !url.pathname.startsWith('/signin'));
 }
