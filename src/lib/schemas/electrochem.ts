@@ -4,6 +4,7 @@
  * object: the call carries up to 10,000 readings and must stay close to a static file in speed.
  */
 import { z } from 'zod';
+import { fromText, text, wholeNumber } from './fields';
 import { CHEMISTRY_CODES, type ChemistryCode, type ReadingInput } from '$lib/electrochem';
 
 export const MAX_READINGS = 10_000;
@@ -25,8 +26,8 @@ export const cellPotentialBody = z.object({
 });
 
 export const curveQuery = z.object({
-	temperature_c: z.coerce.number().pipe(celsius()).default(25),
-	points: z.coerce.number().int().min(2).max(1001).default(101)
+	temperature_c: fromText(celsius()).default(25),
+	points: fromText(wholeNumber('points must be a whole number from 2 to 1001').min(2).max(1001), { whole: true }).default(101)
 });
 
 /** Everything of an evaluate body except the readings themselves. */
@@ -77,7 +78,7 @@ export const fitBody = z.object({
 
 /** Saving a fitted version: the server refits from the points, so stored parameters are its own. */
 export const saveModelBody = fitBody.extend({
-	label: z.string().trim().max(80).optional()
+	label: text().trim().max(80).optional()
 });
 
 export const modelListQuery = z.object({
@@ -89,8 +90,8 @@ export const modelListQuery = z.object({
 export const saveFitForm = z.object({
 	chemistry: chemistryCode,
 	temperature_c: celsius().default(25),
-	csv: z.string().min(1, 'paste or upload a reference curve first').max(400_000),
-	label: z.string().trim().max(80).default('')
+	csv: text({ multiline: true }).min(1, 'paste or upload a reference curve first').max(400_000),
+	label: text().trim().max(80).default('')
 });
 
 export const approveForm = z.object({

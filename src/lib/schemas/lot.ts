@@ -3,6 +3,7 @@
  * JSON API (declared SOC as a fraction 0–1) and the service.
  */
 import { z } from 'zod';
+import { fromText, text, wholeNumber } from './fields';
 
 export const TRANSPORTS = ['air', 'sea', 'road', 'rail'] as const;
 export type TransportMode = (typeof TRANSPORTS)[number];
@@ -51,24 +52,23 @@ export function unNumberProblem(chemistry: string, unNumber: string | null | und
 	return null;
 }
 
-const poNumber = z
-	.string({ error: 'Enter the purchase order number' })
+const poNumber = text({ error: 'Enter the purchase order number' })
 	.trim()
 	.min(1, 'Enter the purchase order number')
 	.max(40, 'A PO number has at most 40 characters');
 const uuidField = (what: string) => z.uuid({ error: `Choose a ${what}` });
-const quantity = z
-	.number({ error: 'Enter the number of units as a whole number' })
-	.int('Enter the number of units as a whole number')
+const quantity = wholeNumber('Enter the number of units as a whole number')
 	.positive('The quantity must be at least 1')
 	.max(10_000_000, 'The quantity can be at most 10,000,000');
 const transport = z.enum(TRANSPORTS, { error: 'Choose air, sea, road or rail' });
-const unNumber = z
-	.string({ error: 'Write the UN number as text, e.g. UN3480' })
+const unNumber = text({ error: 'Write the UN number as text, e.g. UN3480' })
 	.trim()
 	.toUpperCase()
 	.refine((v) => v === '' || UN_NUMBER_PATTERN.test(v), 'Write the UN number as UN followed by four digits, e.g. UN3480');
-const isoDate = z.iso.date({ error: 'Use a date like 2026-03-31' });
+// ISO dates compare as text; anything outside this century is a typo.
+const isoDate = z.iso
+	.date({ error: 'Use a date like 2026-03-31' })
+	.refine((v) => v >= '2000-01-01' && v <= '2099-12-31', 'Use a date between 2000 and 2099');
 
 /** The register form: declared SOC in percent; empty optional fields arrive as ''. */
 export const lotFormSchema = z.object({
@@ -167,17 +167,13 @@ export const lotListQuerySchema = z.object({
 	status: blankAsMissing(z.enum(LOT_STATUSES, { error: `status is one of ${LOT_STATUSES.join(', ')}` })),
 	supplier_id: blankAsMissing(z.uuid({ error: 'supplier_id must be a UUID' })),
 	part_id: blankAsMissing(z.uuid({ error: 'part_id must be a UUID' })),
-	search: blankAsMissing(z.string().trim().max(60)),
+	search: blankAsMissing(text().trim().max(60)),
 	/** A serial trace: only lots holding a reading of this unit (exact serial). */
-	serial: blankAsMissing(z.string().trim().max(64, 'serial is at most 64 characters')),
+	serial: blankAsMissing(text().trim().max(64, 'serial is at most 64 characters')),
 	limit: z.preprocess(
 		(v) => (v === '' || v === undefined ? 25 : v),
-		z.coerce
-			.number({ error: 'limit must be a whole number from 1 to 100' })
-			.int('limit must be a whole number from 1 to 100')
-			.min(1, 'limit must be a whole number from 1 to 100')
-			.max(100, 'limit must be a whole number from 1 to 100')
+		fromText(wholeNumber('limit must be a whole number from 1 to 100').min(1, 'limit must be a whole number from 1 to 100').max(100, 'limit must be a whole number from 1 to 100'), { whole: true })
 	),
-	cursor: blankAsMissing(z.string().max(200))
+	cursor: blankAsMissing(text().max(200))
 });
 export type LotListQuery = z.infer<typeof lotListQuerySchema>;

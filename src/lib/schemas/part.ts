@@ -6,27 +6,25 @@ import { z } from 'zod';
 import { AQL_SERIES } from '$lib/inspection';
 import { CHEMISTRY_CODES } from '$lib/electrochem';
 import { blankAsMissing } from './lot';
+import { decimal, text, wholeNumber } from './fields';
 
 export const INSPECTION_LEVELS = ['I', 'II', 'III', 'S-1', 'S-2', 'S-3', 'S-4'] as const;
 export const REQUIRED_DOCUMENT_KINDS = ['coc', 'un38_3_summary', 'sds'] as const;
 export type RequiredDocumentKind = (typeof REQUIRED_DOCUMENT_KINDS)[number];
 
 const positiveInt = (what: string, max: number) =>
-	z
-		.number({ error: `Enter ${what} as a whole number` })
-		.int(`Enter ${what} as a whole number`)
+	wholeNumber(`Enter ${what} as a whole number`)
 		.min(1, `${what} is at least 1`)
 		.max(max, `${what} is at most ${max}`);
 const positive = (what: string, max: number) =>
-	z
-		.number({ error: `Enter ${what} as a number` })
+	decimal(`Enter ${what} as a number`)
 		.positive(`${what} must be more than 0`)
 		.max(max, `${what} is at most ${max}`);
 
 export const partDescriptiveSchema = z.object({
 	supplier_id: z.uuid({ error: 'Choose a supplier' }),
-	part_number: z.string().trim().min(1, 'Enter the supplier part number').max(60, 'At most 60 characters'),
-	description: z.string().trim().min(1, 'Describe the part in a few words').max(200, 'At most 200 characters'),
+	part_number: text().trim().min(1, 'Enter the supplier part number').max(60, 'At most 60 characters'),
+	description: text().trim().min(1, 'Describe the part in a few words').max(200, 'At most 200 characters'),
 	chemistry: z.enum(CHEMISTRY_CODES as [string, ...string[]], { error: 'Choose a chemistry' }),
 	cells_in_series: positiveInt('Cells in series', 400),
 	cells_in_parallel: positiveInt('Cells in parallel', 400),
@@ -61,8 +59,8 @@ export type PartLimitsForm = z.infer<typeof partLimitsSchema>;
 /** GET /api/v1/parts query. */
 export const partListQuerySchema = z.object({
 	supplier_id: blankAsMissing(z.uuid({ error: 'supplier_id must be a UUID' })),
-	chemistry: blankAsMissing(z.string().trim().max(20)),
-	search: blankAsMissing(z.string().trim().max(60))
+	chemistry: blankAsMissing(text().trim().max(20)),
+	search: blankAsMissing(text().trim().max(60))
 });
 export type PartListQuery = z.infer<typeof partListQuerySchema>;
 

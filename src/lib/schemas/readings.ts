@@ -1,22 +1,32 @@
 // Shapes of readings, meter-file mappings and sampling-plan queries, shared by the API, the
 // services and the browser grid.
 import { z } from 'zod';
+import { decimal, fromText, plausibleInstant, text, wholeNumber } from './fields';
 
 /** Most readings accepted in one call; beyond it the API answers 413. */
 export const MAX_READINGS_PER_CALL = 10_000;
 /** Largest meter file accepted (CSV or XLSX). */
 export const MAX_IMPORT_BYTES = 10 * 1024 * 1024;
+/**
+ * Highest AC resistance accepted, in mΩ: 100 Ω. Cells measure a few to a few hundred mΩ and the
+ * longest pack here (400 cells in series) stays well below this (common practice, from memory);
+ * beyond it the value is a typo or a unit mix-up (Ω typed as mΩ … times a thousand).
+ */
+export const MAX_AC_RESISTANCE_MOHM = 100_000;
 
 const finite = (what: string) => z.number({ error: `${what} must be a number` }).refine(Number.isFinite, `${what} must be finite`);
 
 export const readingSchema = z.object({
-	serial: z.string().trim().min(1, 'serial is required').max(64, 'serial is at most 64 characters'),
+	serial: text({ error: 'serial is required' }).trim().min(1, 'serial is required').max(64, 'serial is at most 64 characters'),
 	// Pack voltage for packs (the server divides by the cells in series), cell voltage for cells.
 	ocv_v: finite('ocv_v').min(0, 'ocv_v must be ≥ 0 V (check the probe polarity)').lt(1000, 'ocv_v must be below 1000 V'),
 	temperature_c: finite('temperature_c').gt(-60, 'temperature_c must be above −60 °C').lt(120, 'temperature_c must be below 120 °C'),
-	ac_resistance_mohm: finite('ac_resistance_mohm').positive('ac_resistance_mohm must be > 0 mΩ').nullish(),
-	measured_at: z.iso.datetime({ offset: true, error: 'measured_at must be an ISO 8601 date-time with zone' }).nullish(),
-	client_key: z.string().min(8).max(64).nullish()
+	ac_resistance_mohm: finite('ac_resistance_mohm')
+		.positive('ac_resistance_mohm must be > 0 mΩ')
+		.max(MAX_AC_RESISTANCE_MOHM, 'ac_resistance_mohm must be at most 100,000 mΩ (100 Ω); check the unit')
+		.nullish(),
+	measured_at: plausibleInstant('measured_at').nullish(),
+	client_key: text().min(8).max(64).nullish()
 });
 export type ReadingInputRow = z.infer<typeof readingSchema>;
 
@@ -31,7 +41,7 @@ export const readingCorrectionSchema = z
 		ocv_v: readingSchema.shape.ocv_v.optional(),
 		temperature_c: readingSchema.shape.temperature_c.optional(),
 		ac_resistance_mohm: readingSchema.shape.ac_resistance_mohm,
-		reason: z.string().trim().min(3, 'say why the value was wrong').max(500)
+		reason: text({ multiline: true }).trim().min(3, 'say why the value was wrong').max(500)
 	})
 	.refine((c) => c.serial !== undefined || c.ocv_v !== undefined || c.temperature_c !== undefined || c.ac_resistance_mohm !== undefined, {
 		error: 'change at least one value'
@@ -61,8 +71,8 @@ export type ImportMapping = z.infer<typeof importMappingSchema>;
 export const INSPECTION_LEVELS = ['I', 'II', 'III', 'S-1', 'S-2', 'S-3', 'S-4'] as const;
 
 export const planQuerySchema = z.object({
-	lot_size: z.coerce.number().int('lot_size must be a whole number').min(1, 'lot_size must be ≥ 1').max(100_000_000),
-	aql: z.coerce.number().positive('aql must be > 0'),
+	lot_size: fromText(wholeNumber('lot_size must be a whole number').min(1, 'lot_size must be ≥ 1').max(100_000_000), { whole: true }),
+	aql: fromText(decimal('aql must be a number').positive('aql must be > 0')),
 	level: z.enum(INSPECTION_LEVELS).default('II'),
 	severity: z.enum(['normal', 'tightened', 'reduced']).default('normal')
 });

@@ -45,15 +45,42 @@ export function zodIssues(error: z.ZodError): ApiIssue[] {
 	return error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
 }
 
-/** Parse a JSON body against a schema; 400 for unreadable JSON, 422 for a wrong shape. */
+/** The issues as one line for a page's error message: `search: must not contain …; limit: …`. */
+export const issuesText = (error: z.ZodError) =>
+	zodIssues(error)
+		.map((i) => `${i.path}: ${i.message}`)
+		.join('; ');
+
+/**
+ * Parse a JSON body against a schema; 400 for unreadable JSON (naming the field where it broke,
+ * e.g. `"quantity": 1,5`), 422 for a wrong shape.
+ */
 export async function readJson<T extends z.ZodType>(request: Request, schema: T): Promise<z.infer<T>> {
-	let body: unknown;
+	return parseWith(schema, await readJsonValue(request), 'The request body');
+}
+
+/** The JSON body as a plain value; 400 naming the field where the JSON broke. */
+export async function readJsonValue(request: Request): Promise<unknown> {
+	let text: string;
 	try {
-		body = await request.json();
+		text = await request.text();
 	} catch {
-		throw badRequest('The request body is not valid JSON');
+		throw badRequest('The request body could not be read');
 	}
-	return parseWith(schema, body, 'The request body');
+	try {
+		return JSON.parse(text);
+	} catch (error) {
+		throw badRequest(`The request body is not valid JSON (${(error as Error).message})`, jsonSyntaxIssues(text, error as Error));
+	}
+}
+
+/** The field whose value broke the JSON: the last `"key":` before the parser's position. */
+export function jsonSyntaxIssues(text: string, error: Error): ApiIssue[] | undefined {
+	const position = Number(/position (\d+)/.exec(error.message)?.[1] ?? text.length);
+	const keys = [...text.slice(0, position).matchAll(/"((?:[^"\\]|\\.)*)"\s*:/g)];
+	const key = keys.at(-1)?.[1];
+	if (key === undefined) return undefined;
+	return [{ path: key, message: 'is not valid JSON here: write numbers like 12 or 1.5 (no comma decimals, no units) and text in double quotes' }];
 }
 
 export function parseWith<T extends z.ZodType>(schema: T, value: unknown, what: string): z.infer<T> {

@@ -1,20 +1,22 @@
 import { error } from '@sveltejs/kit';
-import { z } from 'zod';
 import { can } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
 import { BadCursorError, listLots } from '$lib/server/services/lots';
 import { listSuppliers } from '$lib/server/services/suppliers';
 import { lotListQuerySchema } from '$lib/schemas/lot';
+import { text } from '$lib/schemas/fields';
+import { issuesText } from '$lib/server/http';
 import type { PageServerLoad } from './$types';
 
 // The list's state lives in the URL, so a filtered page can be bookmarked and shared.
-const pageQuery = lotListQuerySchema.extend({ trail: z.string().max(2000).optional() });
+const pageQuery = lotListQuerySchema.extend({ trail: text().max(2000).optional() });
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	const user = locals.user!;
 	if (!can(user, 'lot:read')) error(403, 'Your role may not read lots');
 	const parsed = pageQuery.safeParse(Object.fromEntries(url.searchParams));
-	const query = parsed.success ? parsed.data : pageQuery.parse({});
+	if (!parsed.success) error(400, `The list’s filters are not valid — ${issuesText(parsed.error)}`);
+	const query = parsed.data;
 	const db = getDb();
 	let page;
 	try {

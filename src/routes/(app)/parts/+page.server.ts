@@ -4,12 +4,14 @@ import { getDb } from '$lib/server/db';
 import { listParts } from '$lib/server/services/parts';
 import { listSuppliers } from '$lib/server/services/suppliers';
 import { partListQuerySchema } from '$lib/schemas/part';
+import { issuesText } from '$lib/server/http';
 import type { PageServerLoad } from './$types';
 
 export const load: PageServerLoad = async ({ locals, url }) => {
 	if (!can(locals.user, 'part:read')) error(403, 'Your role may not read parts');
 	const parsed = partListQuerySchema.safeParse(Object.fromEntries(url.searchParams));
-	const filter = parsed.success ? parsed.data : {};
+	if (!parsed.success) error(400, `The list’s filters are not valid — ${issuesText(parsed.error)}`);
+	const filter = parsed.data;
 	const db = getDb();
 	const [parts, suppliers] = await Promise.all([listParts(db, filter), listSuppliers(db)]);
 	return {

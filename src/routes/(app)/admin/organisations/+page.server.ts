@@ -2,13 +2,14 @@ import { error, fail } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from 'zod';
+import { text } from '$lib/schemas/fields';
 import { can } from '$lib/server/policy';
 import { createSupplierOrganisation, listOrganisations, UserRuleError, type Actor } from '$lib/server/services/users';
 import type { Actions, PageServerLoad } from './$types';
 
 const newSupplier = z.object({
-	name: z.string().trim().min(2, 'Enter the company name').max(160),
-	country: z.string().trim().max(80).default('')
+	name: text().trim().min(2, 'Enter the company name').max(160),
+	country: text().trim().max(80).default('')
 });
 
 function admin(locals: App.Locals): Actor {

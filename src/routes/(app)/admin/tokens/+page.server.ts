@@ -2,14 +2,15 @@ import { error, fail } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from 'zod';
+import { text } from '$lib/schemas/fields';
 import { can } from '$lib/server/policy';
 import { createToken, listTokens, revokeToken } from '$lib/server/services/tokens';
 import { getUser, listUsers, type Actor } from '$lib/server/services/users';
 import type { Actions, PageServerLoad } from './$types';
 
 const newToken = z.object({
-	userId: z.string().min(1, 'Choose the person the token acts as'),
-	label: z.string().trim().min(2, 'Say what the token is for (e.g. "bench meter bridge")').max(120)
+	userId: text().min(1, 'Choose the person the token acts as'),
+	label: text().trim().min(2, 'Say what the token is for (e.g. "bench meter bridge")').max(120)
 });
 
 function admin(locals: App.Locals): Actor {

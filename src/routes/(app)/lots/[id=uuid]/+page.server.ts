@@ -14,6 +14,7 @@ import { UploadRefused, uploadDocument } from '$lib/server/services/uploads';
 import { getPart } from '$lib/server/services/parts';
 import { currentSeverity } from '$lib/server/services/switching';
 import { documentKindSchema } from '$lib/schemas/document';
+import { hasControlCharacters } from '$lib/schemas/fields';
 import { samplingView } from './sampling';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -91,6 +92,9 @@ export const actions: Actions = {
 		if (!can(locals.user, 'lot:cancel')) error(403, 'Only buyers cancel lots');
 		await lotOr404(locals, params.id);
 		const reason = String((await request.formData()).get('reason') ?? '').trim().slice(0, 500);
+		if (hasControlCharacters(reason, { multiline: true })) {
+			return fail(400, { action: 'cancel', ok: false, message: 'The reason must not contain control characters such as NUL.' });
+		}
 		try {
 			await cancelLot(getDb(), locals.user!, params.id, reason || undefined);
 		} catch (e) {

@@ -2,6 +2,7 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { setError, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
+import { validateForm } from '$lib/server/forms';
 import { getDb } from '$lib/server/db';
 import { createLot, InputError } from '$lib/server/services/lots';
 import { lotFormSchema, lotInputFromForm, type LotForm } from '$lib/schemas/lot';
@@ -27,7 +28,7 @@ export const actions: Actions = {
 	default: async (event) => {
 		const user = event.locals.user;
 		if (!can(user, 'lot:create')) error(403, 'Only buyers register lots');
-		const form = await superValidate(event, zod4(lotFormSchema), { id: FORM_ID });
+		const form = await validateForm(event, zod4(lotFormSchema), { id: FORM_ID });
 		if (!form.valid) return fail(400, { form });
 		let lotId: string;
 		try {

@@ -3,6 +3,8 @@ import { setError, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { getLibraryModel, isChemistryCode, type ChemistryCode } from '$lib/electrochem';
 import { can } from '$lib/server/policy';
+import { validateForm } from '$lib/server/forms';
+import { strictNumberFromText } from '$lib/schemas/fields';
 import { getModelVersion, listModelVersions, saveFittedModel } from '$lib/server/services/models';
 import { saveFitForm } from '$lib/schemas/electrochem';
 import { approveAction, emptyApproveForm } from '../approve-action';
@@ -26,8 +28,8 @@ async function storedVersion(id: string | null, code: ChemistryCode) {
 }
 
 function initialTemperature(url: URL): number {
-	const t = Number(url.searchParams.get('t') ?? 25);
-	return Number.isFinite(t) && t > -60 && t < 100 ? t : 25;
+	const t = strictNumberFromText(url.searchParams.get('t') ?? '25') ?? 25;
+	return t > -60 && t < 100 ? t : 25;
 }
 
 export const load: PageServerLoad = async ({ params, url, locals }) => {
@@ -56,7 +58,7 @@ export const actions: Actions = {
 	save: async (event) => {
 		const user = event.locals.user;
 		if (!user || !can(user, 'model:fit')) error(403, 'Only a quality manager may save model versions');
-		const form = await superValidate(event, zod4(saveFitForm), { id: 'save-fit' });
+		const form = await validateForm(event, zod4(saveFitForm), { id: 'save-fit' });
 		if (!form.valid) return fail(400, { form });
 		const parsed = parseReferenceCsv(form.data.csv);
 		if (parsed.errors.length > 0) return setError(form, 'csv', parsed.errors);

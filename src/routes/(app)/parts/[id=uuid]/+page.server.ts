@@ -2,6 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { message, setError, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
+import { validateForm } from '$lib/server/forms';
 import { getDb } from '$lib/server/db';
 import {
 	approvedModels,
@@ -47,7 +48,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	descriptive: async (event) => {
 		if (!can(event.locals.user, 'part:edit')) error(403, 'Only buyers edit part details');
-		const form = await superValidate(event, zod4(partDescriptiveSchema), { id: DESCRIPTIVE });
+		const form = await validateForm(event, zod4(partDescriptiveSchema), { id: DESCRIPTIVE });
 		if (!form.valid) return fail(400, { descriptiveForm: form });
 		try {
 			const saved = await updatePartDescriptive(getDb(), event.locals.user!, event.params.id, form.data);
@@ -62,7 +63,7 @@ export const actions: Actions = {
 	},
 	limits: async (event) => {
 		if (!can(event.locals.user, 'part:limits')) error(403, 'Only quality edits limits and sampling');
-		const form = await superValidate(event, zod4(partLimitsSchema), { id: LIMITS });
+		const form = await validateForm(event, zod4(partLimitsSchema), { id: LIMITS });
 		if (!form.valid) return fail(400, { limitsForm: form });
 		try {
 			const saved = await updatePartLimits(getDb(), event.locals.user!, event.params.id, form.data);

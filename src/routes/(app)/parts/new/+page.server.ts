@@ -2,6 +2,7 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { setError, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
+import { validateForm } from '$lib/server/forms';
 import { getDb } from '$lib/server/db';
 import { createPart } from '$lib/server/services/parts';
 import { InputError } from '$lib/server/services/lots';
@@ -25,7 +26,7 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 export const actions: Actions = {
 	default: async (event) => {
 		if (!can(event.locals.user, 'part:edit')) error(403, 'Only buyers add parts');
-		const form = await superValidate(event, zod4(partDescriptiveSchema), { id: FORM_ID });
+		const form = await validateForm(event, zod4(partDescriptiveSchema), { id: FORM_ID });
 		if (!form.valid) return fail(400, { form });
 		let id: string;
 		try {

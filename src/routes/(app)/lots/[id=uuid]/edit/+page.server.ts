@@ -2,6 +2,7 @@ import { error, fail, redirect } from '@sveltejs/kit';
 import { setError, setMessage, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
+import { validateForm } from '$lib/server/forms';
 import { getDb } from '$lib/server/db';
 import { BEFORE_INSPECTION, getLotForUser, InputError, LotConflictError, updateLot } from '$lib/server/services/lots';
 import { lotFormSchema, lotInputFromForm, type LotForm } from '$lib/schemas/lot';
@@ -41,7 +42,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 export const actions: Actions = {
 	default: async ({ locals, params, request }) => {
 		const lot = await editableLot(locals.user, params.id);
-		const form = await superValidate(request, zod4(lotFormSchema), { id: FORM_ID });
+		const form = await validateForm({ request }, zod4(lotFormSchema), { id: FORM_ID });
 		if (!form.valid) return fail(400, { form });
 		try {
 			await updateLot(getDb(), locals.user!, lot.id, lotInputFromForm(form.data));

@@ -1,5 +1,6 @@
 import { error, fail } from '@sveltejs/kit';
 import { readingCorrectionSchema } from '$lib/schemas/readings';
+import { strictNumberFromText, wholeNumberParam } from '$lib/schemas/fields';
 import { ApiError } from '$lib/server/http';
 import { getDb } from '$lib/server/db';
 import { can } from '$lib/server/policy';
@@ -35,10 +36,13 @@ export const load: PageServerLoad = async ({ locals, params, depends }) => {
 	};
 };
 
-/** A form number: blank is "not given", a decimal comma is accepted. */
+/**
+ * A form number: blank is "not given", a decimal comma is accepted (bench keyboards); anything else
+ * not written plainly (`1e3`, `0x10`, `3.6V`) is not a number, which the schema refuses for that field.
+ */
 function formNumber(value: FormDataEntryValue | null): number | undefined {
 	const text = typeof value === 'string' ? value.trim() : '';
-	return text === '' ? undefined : Number(text.replace(',', '.'));
+	return text === '' ? undefined : (strictNumberFromText(text.replace(',', '.')) ?? Number.NaN);
 }
 
 export const actions: Actions = {
@@ -50,8 +54,8 @@ export const actions: Actions = {
 		if (!lot) error(404, 'No such lot');
 		if (!can(user, 'reading:write', { supplierId: lot.supplierId })) error(403, 'Your role may not correct readings');
 		const form = await request.formData();
-		const readingId = Number(form.get('readingId'));
-		if (!Number.isSafeInteger(readingId) || readingId < 1) return fail(400, { readingId: null, errors: {}, message: 'No reading chosen.' });
+		const readingId = wholeNumberParam(String(form.get('readingId') ?? ''));
+		if (readingId === null) return fail(400, { readingId: null, errors: {}, message: 'No reading chosen.' });
 		const parsed = readingCorrectionSchema.safeParse({
 			ocv_v: formNumber(form.get('ocv_v')),
 			temperature_c: formNumber(form.get('temperature_c')),

@@ -2,18 +2,10 @@
 // Validation is split: zod for the small header, a plain loop for the (up to 10,000) readings.
 import { json } from '@sveltejs/kit';
 import { ElectrochemError, evaluateReadings, getLibraryModel, type ReadingInput } from '$lib/electrochem';
-import { api, ApiError, authorize, badRequest, parseWith, unprocessable } from '$lib/server/http';
+import { api, ApiError, authorize, parseWith, readJsonValue, unprocessable } from '$lib/server/http';
 import { roundedResult } from '$lib/server/services/evaluation-body';
 import { evaluateHeader, MAX_READINGS, readingsIssues } from '$lib/schemas/electrochem';
 import type { RequestHandler } from './$types';
-
-async function readBody(request: Request): Promise<unknown> {
-	try {
-		return await request.json();
-	} catch {
-		throw badRequest('The request body is not valid JSON');
-	}
-}
 
 function checkCount(body: unknown): void {
 	const readings = (body as { readings?: unknown } | null)?.readings;
@@ -29,7 +21,7 @@ function checkCount(body: unknown): void {
 
 export const POST: RequestHandler = api(async (event) => {
 	authorize(event, 'electrochem:use');
-	const body = await readBody(event.request);
+	const body = await readJsonValue(event.request);
 	checkCount(body);
 	const header = parseWith(evaluateHeader, body, 'The request body');
 	const issues = readingsIssues(header.readings);
