@@ -10,6 +10,9 @@
  *    the lots and readings tables).
  * The route table below is checked against the files under src/routes/api/v1, so a new route or
  * method without an entry fails the test.
+ * Strict fields (issue 18): every text and number field of the JSON bodies and query strings, read
+ * from the routes' zod schemas (strict-fields.ts), gets NUL and control characters, exponents and
+ * comma decimals; each must be refused with a 400/422 that names the field.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
@@ -17,6 +20,7 @@ import { startApp, type RunningApp } from '../helpers/app';
 import { signInApi, tokenFor } from '../helpers/auth';
 import { freshDatabase } from '../helpers/db';
 import { apiRouteFiles, seedIds, snapshot, type DbSnapshot, type SeedIds } from './hardening-fixtures';
+import { strictFieldEntries, strictFieldValue } from './strict-fields';
 
 type Who = 'buyer' | 'inspector' | 'quality' | 'qualitySession' | 'supplierA' | 'admin' | 'public';
 type InputKind = 'query' | 'json' | 'multipart' | 'none';
@@ -308,6 +312,7 @@ const describeSent = (s: Sent) =>
 		: `${s.contentType ?? '-'} ${typeof s.body === 'string' ? s.body.slice(0, 200) : s.body ? `<${s.body.length} bytes>` : ''}`;
 
 const RUNS_PER_ENTRY = 12;
+const STRICT_RUNS_PER_FIELD = 6;
 let before: DbSnapshot;
 const counted = { calls: 0, resets: 0, byStatus: {} as Record<number, number> };
 
@@ -364,6 +369,34 @@ describe('bad input to every JSON API route', () => {
 			);
 			// Our own short report: the generated values can be 100 kB long.
 			if (run.failed) throw new Error(`${entry.method} ${entry.route} (seed ${run.seed}, path ${run.counterexamplePath}): ${String((run.errorInstance as Error)?.message ?? run.errorInstance).slice(0, 1500)} ${String((run.errorInstance as Error & { cause?: unknown })?.cause ?? '')}`);
+		}
+	}, 240_000);
+
+	it('refuses NUL, control characters, exponents and comma decimals in every text and number field, naming the field', async () => {
+		// The fields come from the routes' zod schemas (strict-fields.ts), so a new field is covered too.
+		const entries = strictFieldEntries(ids);
+		expect(entries.reduce((n, e) => n + e.fields.length, 0)).toBeGreaterThan(40);
+		for (const entry of entries) {
+			for (const field of entry.fields) {
+				const run = await fc.check(
+					fc.asyncProperty(strictFieldValue(field.kind, { query: entry.method === 'GET' }), async (value) => {
+						const sent = entry.send(field.name, value);
+						const url = `${app.url}/api/v1${sent.path}`;
+						const what = `${entry.method} ${sent.path.slice(0, 200)} field ${field.name} (${field.kind}) = ${JSON.stringify(value).slice(0, 80)}`;
+						const out = await send(entry.method, url, creds[entry.who], sent);
+						counted.calls += 1;
+						counted.byStatus[out.status] = (counted.byStatus[out.status] ?? 0) + 1;
+						expect([400, 422], `${what} → ${out.status} ${out.text.slice(0, 300)}`).toContain(out.status);
+						expect(out.contentType, what).toMatch(/^application\/json/);
+						const { error } = JSON.parse(out.text) as { error: { message: string; issues?: Array<{ path: string }> } };
+						const named = entry.names(field.name);
+						const paths = (error.issues ?? []).map((i) => i.path);
+						expect(paths.some((p) => named.includes(p)) || named.some((n) => error.message.includes(`\`${n}\``)), `${what}: not named in ${out.text.slice(0, 300)}`).toBe(true);
+					}),
+					{ numRuns: STRICT_RUNS_PER_FIELD, endOnFailure: true }
+				);
+				if (run.failed) throw new Error(`${entry.method} ${entry.route} ${field.name} (seed ${run.seed}): ${String((run.errorInstance as Error)?.message ?? run.errorInstance).slice(0, 1500)}`);
+			}
 		}
 	}, 240_000);
 

@@ -74,9 +74,10 @@ export async function readJsonValue(request: Request): Promise<unknown> {
 	}
 }
 
-/** The field whose value broke the JSON: the last `"key":` before the parser's position. */
+/** The field whose value broke the JSON: the last `"key":` before where it broke. */
 export function jsonSyntaxIssues(text: string, error: Error): ApiIssue[] | undefined {
-	const position = Number(/position (\d+)/.exec(error.message)?.[1] ?? text.length);
+	// V8 names the position for some errors only ("Unexpected token … is not valid JSON" has none).
+	const position = brokenValueAt(text) ?? Number(/position (\d+)/.exec(error.message)?.[1] ?? text.length);
 	const keys = [...text.slice(0, position).matchAll(/"((?:[^"\\]|\\.)*)"\s*:/g)];
 	const key = keys.at(-1)?.[1];
 	if (key === undefined) return undefined;
@@ -87,6 +88,37 @@ export function parseWith<T extends z.ZodType>(schema: T, value: unknown, what: 
 	const parsed = schema.safeParse(value);
 	if (!parsed.success) throw unprocessable(`${what} does not match the expected shape`, zodIssues(parsed.error));
 	return parsed.data;
+}
+
+/**
+ * Where the first value that is not JSON starts (`1,5`, `.5`, `12abc`, `NaN` after a key), or
+ * undefined: a small scan of values and commas outside strings, not a whole parser.
+ */
+export function brokenValueAt(text: string): number | undefined {
+	const scalar = /\s*(?:-?(?:0|[1-9]\d*)(?:\.\d+)?(?:[eE][+-]?\d+)?|true|false|null)\s*(?=[,}\]]|$)/y;
+	const open: string[] = [];
+	for (let i = 0; i < text.length; i++) {
+		const c = text[i];
+		if (c === '"') {
+			for (i++; i < text.length && text[i] !== '"'; i++) if (text[i] === '\\') i++;
+			continue;
+		}
+		if (c === '{' || c === '[') open.push(c);
+		else if (c === '}' || c === ']') open.pop();
+		if (c !== ':' && c !== ',' && c !== '[') continue;
+		let next = i + 1;
+		while (next < text.length && /\s/.test(text[next])) next++;
+		const ahead = text[next];
+		// In an object a comma is followed by a key; elsewhere a value follows.
+		if (c === ',' && open.at(-1) === '{') {
+			if (ahead !== '"') return next;
+			continue;
+		}
+		if (ahead === '"' || ahead === '{' || ahead === '[' || ahead === ']') continue;
+		scalar.lastIndex = i + 1;
+		if (!scalar.test(text)) return next;
+	}
+	return undefined;
 }
 
 /** Parse query-string parameters (as an object of strings) against a schema; 400 on failure. */

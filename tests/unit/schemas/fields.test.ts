@@ -20,6 +20,7 @@ import {
 	wholeNumberParam
 } from '../../../src/lib/schemas/fields';
 import { numberFields, strictNumbers, validateForm } from '../../../src/lib/server/forms';
+import { brokenValueAt, jsonSyntaxIssues } from '../../../src/lib/server/http';
 import { lotFormSchema } from '../../../src/lib/schemas/lot';
 
 const CONTROLS = [...Array.from({ length: 32 }, (_, i) => i), ...Array.from({ length: 33 }, (_, i) => 0x7f + i)].map((c) => String.fromCharCode(c));
@@ -170,5 +171,37 @@ describe('form posts (validateForm)', () => {
 		const loose = await superValidate(body, zod4(lotFormSchema));
 		expect(loose.data.quantity).toBe(1);
 		expect(strictNumbers(body, numberFields(zod4(lotFormSchema).jsonSchema as never)).get('quantity')).toBe('not-a-number');
+	});
+});
+
+describe('a broken JSON body names the field where it broke', () => {
+	const named = (text: string) => {
+		let error: Error | undefined;
+		try {
+			JSON.parse(text);
+		} catch (e) {
+			error = e as Error;
+		}
+		expect(error, text).toBeDefined();
+		return jsonSyntaxIssues(text, error!)?.map((i) => i.path);
+	};
+	it.each([
+		['{"po_number":"PO-1","quantity":1,5,"transport":"road"}', 'quantity'],
+		['{"quantity":12abc}', 'quantity'],
+		['{"declared_soc":.5,"transport":"road"}', 'declared_soc'],
+		['{"a":"x,\\"y\\":1","ocv_v":NaN}', 'ocv_v'],
+		['{"readings":[{"serial":"A","ocv_v":3,6}]}', 'ocv_v'],
+		['{"readings":[{"serial":"A"},{"serial":"B","temperature_c":-}]}', 'temperature_c'],
+		['{"quantity":0x10}', 'quantity']
+	])('%s → %s', (text, field) => {
+		expect(named(text)).toEqual([field]);
+	});
+	it('finds nothing broken in valid JSON', () => {
+		fc.assert(
+			fc.property(fc.jsonValue(), (v) => {
+				expect(brokenValueAt(JSON.stringify(v))).toBeUndefined();
+			})
+		);
+		expect(brokenValueAt('{ "a" : [ 1 , -2.5e+3 , true , null , { } ] , "b" : "\\"}" }')).toBeUndefined();
 	});
 });
