@@ -30,6 +30,8 @@ const BUYER = 'buyer@kestrel-mobility.example';
 const WRONG_CODE_TEXT = 'That code does not match.';
 const THROTTLED_TEXT = 'Too many attempts';
 
+/** QUALITY's key, kept for the last describe (a lost phone). */
+let qualitySecret = '';
 let app: RunningApp;
 let db: { url: string; drop: () => Promise<void> };
 
@@ -106,6 +108,7 @@ describe('enrolment on /account/security', () => {
 
 		const started = await startEnrolment(app.url, cookie);
 		secret = started.secret;
+		qualitySecret = secret;
 		expect(secret).toMatch(/^[A-Z2-7]{32}$/);
 		expect(started.html).toMatch(/<img[^>]+src="data:image\/svg\+xml;base64,/);
 		expect(started.html).toContain('set-up started, not confirmed');
@@ -310,5 +313,30 @@ describe('the site requires a second factor (RESTVOLT_REQUIRE_TOTP=on)', () => {
 		await enrol(strict.url, cookie);
 		expect((await get(strict.url, '/review', cookie)).status).toBe(200);
 		expect((await get(strict.url, '/api/v1/me', cookie)).status).toBe(200);
+	});
+});
+
+describe('a lost phone', () => {
+	it('an administrator removes someone else’s second factor on the People page; their sessions end, the password signs in again', async () => {
+		expect((await factorRow(QUALITY))?.enabled_at).toBeTruthy(); // turned on in the first describe
+		// The describes between used QUALITY's codes up to one step ahead of a moment at least a step ago.
+		const qualitySession = await signInApiWithCode(app.url, QUALITY, totpCode(qualitySecret, 1));
+		const admin = await signInApi(app.url, ADMIN);
+		const people = await (await get(app.url, '/admin/users', admin)).text();
+		expect(people).toContain('+ code from an app');
+		const quality = (await sql<{ id: string }>('select id from "user" where email = $1', [QUALITY]))[0].id;
+		const adminId = (await sql<{ id: string }>('select id from "user" where email = $1', [ADMIN]))[0].id;
+
+		const own = await postForm(app.url, '/admin/users?/removeSecondFactor', { userId: adminId }, admin);
+		expect(own.status).toBe(400);
+
+		const res = await postForm(app.url, '/admin/users?/removeSecondFactor', { userId: quality }, admin);
+		expect(res.status).toBe(200);
+		expect(await factorRow(QUALITY)).toBeNull();
+		expect(await auditCount('auth.second_factor_removed', ADMIN)).toBe(1);
+		expect((await get(app.url, '/api/v1/me', qualitySession)).status).toBe(401);
+		expect((await get(app.url, '/api/v1/me', await signInApi(app.url, QUALITY))).status).toBe(200);
+		// Nothing left to remove.
+		expect((await postForm(app.url, '/admin/users?/removeSecondFactor', { userId: quality }, admin)).status).toBe(400);
 	});
 });

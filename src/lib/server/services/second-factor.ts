@@ -14,7 +14,7 @@ import { and, eq, gt, isNotNull, isNull, lt, or, sql, TransactionRollbackError }
 import { getDb, type Tx } from '../db';
 import { secondFactors, signInCodeSteps, users } from '../db/schema';
 import { recordAudit } from './audit';
-import { endOtherSessions } from './sessions';
+import { endAllSessions, endOtherSessions } from './sessions';
 import { accountKey, clearFailures, releaseAttempt, reserveAttempt, signInLimits } from './throttle';
 import { openSecret, sealSecret } from './second-factor-seal';
 import { acceptedStep, groupedForTyping, newTotpSecret, totpUri } from './totp';
@@ -155,6 +155,28 @@ export async function turnOffSecondFactor(
 	});
 	if (outcome === 'invalid') await audit(user, 'auth.second_factor_off_failed', ip);
 	return outcome;
+}
+
+/** The people with a second factor on (for the administrators' list of people). */
+export async function peopleWithSecondFactor(): Promise<Set<string>> {
+	const rows = await getDb().select({ userId: secondFactors.userId }).from(secondFactors).where(isNotNull(secondFactors.enabledAt));
+	return new Set(rows.map((r) => r.userId));
+}
+
+/**
+ * An administrator removes someone's second factor (a lost or replaced phone), after checking who
+ * they are outside Restvolt. Their sessions end; they sign in with the password and set up again.
+ * False when the person had none.
+ */
+export async function removeSecondFactor(actor: { id: string; email: string }, userId: string, ip: string | null): Promise<boolean> {
+	return getDb().transaction(async (tx) => {
+		const removed = await tx.delete(secondFactors).where(eq(secondFactors.userId, userId)).returning({ userId: secondFactors.userId });
+		if (!removed.length) return false;
+		await endAllSessions(tx, userId, 'second_factor_changed');
+		await tx.delete(signInCodeSteps).where(eq(signInCodeSteps.userId, userId));
+		await recordAudit(tx, { actorId: actor.id, actorEmail: actor.email, action: 'auth.second_factor_removed', entityType: 'user', entityId: userId, ip });
+		return true;
+	});
 }
 
 // ---- the code step of signing in ----

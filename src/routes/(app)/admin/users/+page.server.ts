@@ -3,8 +3,10 @@ import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
 import { sendInvitation } from '$lib/server/services/sign-in';
+import { peopleWithSecondFactor, removeSecondFactor } from '$lib/server/services/second-factor';
+import { clientAddress } from '$lib/server/auth';
 import { changeRole, inviteUser, listUsers, organisationChoices, setActive, UserRuleError, type Actor } from '$lib/server/services/users';
-import { changeRole as changeRoleSchema, invite, setActive as setActiveSchema } from './schemas';
+import { changeRole as changeRoleSchema, invite, removeSecondFactor as removeSecondFactorSchema, setActive as setActiveSchema } from './schemas';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 function admin(locals: App.Locals): Actor {
@@ -14,11 +16,16 @@ function admin(locals: App.Locals): Actor {
 
 export const load: PageServerLoad = async ({ locals }) => {
 	const me = admin(locals);
-	const [people, organisations] = await Promise.all([listUsers(), organisationChoices()]);
-	return { me: me.id, people, organisations, inviteForm: await superValidate(zod4(invite), { id: 'invite' }) };
+	const [people, organisations, withCode] = await Promise.all([listUsers(), organisationChoices(), peopleWithSecondFactor()]);
+	return {
+		me: me.id,
+		people: people.map((p) => ({ ...p, hasSecondFactor: withCode.has(p.id) })),
+		organisations,
+		inviteForm: await superValidate(zod4(invite), { id: 'invite' })
+	};
 };
 
-/** Row actions (role, active) post plain forms; rule breaks come back as a message. */
+/** Row actions (role, active, second factor) post plain forms; rule breaks come back as a message. */
 async function rowAction<T>(event: RequestEvent, parse: (fd: FormData) => T, run: (actor: Actor, input: T) => Promise<void>) {
 	const actor = admin(event.locals);
 	let input: T;
@@ -58,5 +65,17 @@ export const actions: Actions = {
 	role: (event) =>
 		rowAction(event, (fd) => changeRoleSchema.parse(Object.fromEntries(fd)), (actor, input) => changeRole(actor, input.userId, input.role)),
 	active: (event) =>
-		rowAction(event, (fd) => setActiveSchema.parse(Object.fromEntries(fd)), (actor, input) => setActive(actor, input.userId, input.active === 'true'))
+		rowAction(event, (fd) => setActiveSchema.parse(Object.fromEntries(fd)), (actor, input) => setActive(actor, input.userId, input.active === 'true')),
+	/** A lost phone: the person signs in with the password again and sets up a new second factor. */
+	removeSecondFactor: (event) =>
+		rowAction(
+			event,
+			(fd) => removeSecondFactorSchema.parse(Object.fromEntries(fd)),
+			async (actor, input) => {
+				if (input.userId === actor.id) throw new UserRuleError('Turn your own second factor off on the Sign-in security page.');
+				if (!(await removeSecondFactor(actor, input.userId, clientAddress(event)))) {
+					throw new UserRuleError('That person has no second factor.');
+				}
+			}
+		)
 };

@@ -13,3 +13,4 @@ export const invite = z.object({
 
 export const changeRole = z.object({ userId: text().min(1), role: roleSchema });
 export const setActive = z.object({ userId: text().min(1), active: z.enum(['true', 'false']) });
+export const removeSecondFactor = z.object({ userId: text().min(1) });
