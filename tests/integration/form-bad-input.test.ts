@@ -2,11 +2,11 @@
  * Strict input in the pages (issue 18, item 6): the lot form's quantity typed as `1e7`, `1,5`,
  * `1e309` or `12abc` is refused with 400 naming the field (it used to be stored as 1 or 12), and
  * nothing is stored; the same for editing a lot and for a part's limits; NUL in a text field or a
- * list's search is a 400, never a 500.
+ * list's search is a 400, never a 500; a NUL in the sign-in's return path is dropped.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startApp, type RunningApp } from '../helpers/app';
-import { postForm, signInApi, tokenFor } from '../helpers/auth';
+import { DEMO_PASSWORD, postForm, signInApi, tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient, type FreshDatabase } from '../helpers/db';
 import { PART } from './decisions-fixtures';
 import { createLot, partByNumber, type Caller } from './readings-fixtures';
@@ -103,6 +103,12 @@ describe('other pages', () => {
 		const html = await res.text();
 		expect(res.status, html.slice(0, 300)).toBe(400);
 		expect(html).toMatch(/filters are not valid/);
+	});
+
+	it('signs in with a NUL in the return path, going to the start page instead (no 500)', async () => {
+		const res = await postForm(app.url, '/signin?/password', { email: 'buyer@kestrel-mobility.example', password: DEMO_PASSWORD, redirectTo: '/lots\u0000x' });
+		expect(res.status).toBe(303);
+		expect(new URL(res.headers.get('location')!, app.url).pathname).toBe('/');
 	});
 
 	it('refuses a NUL in a cancellation reason', async () => {

@@ -1,11 +1,12 @@
 import { z } from 'zod';
+import { hasControlCharacters } from '$lib/schemas/fields';
 import { totpCode } from '$lib/schemas/second-factor';
 
-/** Only same-site paths, so a crafted link cannot send people elsewhere after signing in. */
+/** Only same-site paths, so a crafted link cannot send people elsewhere after signing in (no control characters: a Location header refuses them). */
 export const redirectTo = z
 	.string()
 	.default('')
-	.transform((v) => (v.startsWith('/') && !v.startsWith('//') && !v.startsWith('/\\') ? v : ''));
+	.transform((v) => (v.startsWith('/') && !v.startsWith('//') && !v.startsWith('/\\') && !hasControlCharacters(v) ? v : ''));
 
 export const passwordSignIn = z.object({
 	email: z.email('Enter your work e-mail address').max(320),
