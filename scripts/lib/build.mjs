@@ -1,7 +1,7 @@
 // Builds the app when build/ is missing or older than the sources.
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import { runInherit } from './proc.mjs';
+import { runInherit, runLogged } from './proc.mjs';
 
 function newestMtime(path) {
 	const st = statSync(path);
@@ -9,12 +9,14 @@ function newestMtime(path) {
 	return readdirSync(path).reduce((max, name) => Math.max(max, newestMtime(join(path, name))), st.mtimeMs);
 }
 
-export async function ensureBuild(root, { force = false } = {}) {
+/** `logFile`: send vite's output there (shown only when the build fails) instead of the terminal. */
+export async function ensureBuild(root, { force = false, logFile, log = console.log } = {}) {
 	const handler = join(root, 'build', 'handler.js');
 	const inputs = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json'];
 	const sourcesTime = Math.max(...inputs.map((p) => join(root, p)).filter(existsSync).map(newestMtime));
 	if (!force && existsSync(handler) && statSync(handler).mtimeMs > sourcesTime) return;
-	console.log('[restvolt] building the app (vite build)…');
-	const code = await runInherit('npx', ['vite', 'build', '--logLevel', 'warn'], { cwd: root });
+	log('[restvolt] building the app (vite build, about a minute)…');
+	const args = ['vite', 'build', '--logLevel', 'warn'];
+	const code = logFile ? await runLogged('npx', args, { cwd: root, logFile }) : await runInherit('npx', args, { cwd: root });
 	if (code !== 0) throw new Error('vite build failed');
 }

@@ -2,15 +2,17 @@
 // and (as root, from Debian) PostgreSQL, Chromium and poppler-utils. Node built-ins only.
 import { existsSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import { commandExists, isRoot, run, runInherit } from './proc.mjs';
+import { commandExists, isRoot, run, runInherit, runLogged } from './proc.mjs';
 
-export async function ensureNodeModules(root) {
+/** `logFile`: npm's output goes there (shown only when it fails). */
+export async function ensureNodeModules(root, { logFile } = {}) {
 	const marker = join(root, 'node_modules', '.package-lock.json');
 	const lock = join(root, 'package-lock.json');
 	const stale = !existsSync(marker) || statSync(lock).mtimeMs > statSync(marker).mtimeMs + 1000;
 	if (!stale) return;
 	console.log('[restvolt] installing npm packages (npm ci)…');
-	const code = await runInherit('npm', ['ci', '--no-audit', '--no-fund'], { cwd: root });
+	const args = ['ci', '--no-audit', '--no-fund'];
+	const code = logFile ? await runLogged('npm', args, { cwd: root, logFile }) : await runInherit('npm', args, { cwd: root });
 	if (code !== 0) throw new Error('npm ci failed');
 }
 
@@ -32,7 +34,8 @@ export function ensureDebianPackages(packages, commands) {
 }
 
 /** Generate .svelte-kit/ (tsconfig paths for $lib), which the seed and scripts run through tsx rely on. */
-export async function ensureKitSync(root) {
-	const code = await runInherit('npx', ['svelte-kit', 'sync'], { cwd: root, env: { ...process.env, RESTVOLT_KIT_DIR: '' } });
+export async function ensureKitSync(root, { logFile } = {}) {
+	const opts = { cwd: root, env: { ...process.env, RESTVOLT_KIT_DIR: '' } };
+	const code = logFile ? await runLogged('npx', ['svelte-kit', 'sync'], { ...opts, logFile }) : await runInherit('npx', ['svelte-kit', 'sync'], opts);
 	if (code !== 0) throw new Error('svelte-kit sync failed');
 }

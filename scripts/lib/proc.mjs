@@ -1,5 +1,7 @@
 // Small process helpers shared by the start, test and bench scripts (node built-ins only).
 import { spawn, spawnSync } from 'node:child_process';
+import { closeSync, mkdirSync, openSync, readFileSync } from 'node:fs';
+import { dirname } from 'node:path';
 import net from 'node:net';
 
 export const isRoot = () => typeof process.getuid === 'function' && process.getuid() === 0;
@@ -20,6 +22,29 @@ export function runInherit(cmd, args, opts = {}) {
 		const child = spawn(cmd, args, { stdio: 'inherit', ...opts });
 		child.on('exit', (code, signal) => resolve(code ?? (signal ? 1 : 0)));
 	});
+}
+
+/**
+ * Run a command with its output going to `logFile` only (for `npm start`, which stays quiet).
+ * Resolves with the exit code; on failure the last lines of the log are printed, with its path.
+ */
+export function runLogged(cmd, args, { logFile, ...opts }) {
+	mkdirSync(dirname(logFile), { recursive: true });
+	const out = openSync(logFile, 'w');
+	return new Promise((resolve) => {
+		const child = spawn(cmd, args, { ...opts, stdio: ['ignore', out, out] });
+		child.on('exit', (code, signal) => {
+			closeSync(out);
+			const status = code ?? (signal ? 1 : 0);
+			if (status !== 0) printTail(logFile);
+			resolve(status);
+		});
+	});
+}
+
+function printTail(logFile, lines = 30) {
+	const tail = readFileSync(logFile, 'utf8').trimEnd().split('\n').slice(-lines);
+	console.error(`--- last ${tail.length} lines of ${logFile} ---\n${tail.join('\n')}\n---`);
 }
 
 export function commandExists(cmd) {
