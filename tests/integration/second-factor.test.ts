@@ -25,13 +25,14 @@ import {
 const QUALITY = 'quality@kestrel-mobility.example';
 const QUALITY2 = 'quality2@kestrel-mobility.example';
 const INSPECTOR = 'inspector@kestrel-mobility.example';
+const INSPECTOR2 = 'inspector2@kestrel-mobility.example';
 const ADMIN = 'admin@kestrel-mobility.example';
 const BUYER = 'buyer@kestrel-mobility.example';
 const WRONG_CODE_TEXT = 'That code does not match.';
 const THROTTLED_TEXT = 'Too many attempts';
 
-/** QUALITY's key, kept for the last describe (a lost phone). */
-let qualitySecret = '';
+/** A session QUALITY signed in to with password and code, kept for the last describe (a lost phone). */
+let qualityCodeSession = '';
 let app: RunningApp;
 let db: { url: string; drop: () => Promise<void> };
 
@@ -79,10 +80,10 @@ async function startEnrolment(base: string, cookie: string): Promise<{ secret: s
 	return { secret: secretFromSecurityPage(html), html };
 }
 
-/** Enrol a person completely through the forms; returns the secret. */
-async function enrol(base: string, cookie: string): Promise<string> {
+/** Enrol a person completely through the forms (with the code of now + `stepsAhead` steps); returns the secret. */
+async function enrol(base: string, cookie: string, stepsAhead = 0): Promise<string> {
 	const { secret } = await startEnrolment(base, cookie);
-	const confirm = await postForm(base, '/account/security?/confirm', { code: totpCode(secret) }, cookie);
+	const confirm = await postForm(base, '/account/security?/confirm', { code: totpCode(secret, stepsAhead) }, cookie);
 	expect(confirm.status, await confirm.clone().text()).toBe(303);
 	return secret;
 }
@@ -108,7 +109,6 @@ describe('enrolment on /account/security', () => {
 
 		const started = await startEnrolment(app.url, cookie);
 		secret = started.secret;
-		qualitySecret = secret;
 		expect(secret).toMatch(/^[A-Z2-7]{32}$/);
 		expect(started.html).toMatch(/<img[^>]+src="data:image\/svg\+xml;base64,/);
 		expect(started.html).toContain('set-up started, not confirmed');
@@ -175,6 +175,7 @@ describe('enrolment on /account/security', () => {
 		it('password then a current code signs in', async () => {
 			lastCode = totpCode(secret, 1); // the enrolment used this step's code
 			const cookie = await signInApiWithCode(app.url, QUALITY, lastCode);
+			qualityCodeSession = cookie;
 			const me = await get(app.url, '/api/v1/me', cookie);
 			expect(me.status).toBe(200);
 			expect((await me.json()).email).toBe(QUALITY);
@@ -230,11 +231,39 @@ describe('the throttle counts codes', () => {
 	});
 });
 
+describe('one code used twice at the same moment', () => {
+	it('three parallel posts of one code step sign in once; a code raced between sign-in and turning off is used once', async () => {
+		const cookie = await signInApi(app.url, INSPECTOR2);
+		// Three steps are accepted now (previous, current, next): enrol with the previous one, then
+		// use the current and the next, all well before the clock moves on.
+		await withRoomInStep();
+		const secret = await enrol(app.url, cookie, -1);
+		const code = totpCode(secret, 0);
+		const fresh = totpCode(secret, 1);
+		const jar = new CookieJar();
+		jar.take(await postForm(app.url, '/signin?/password', { email: INSPECTOR2, password: DEMO_PASSWORD, redirectTo: '/' }));
+		const answers = await Promise.all([1, 2, 3].map(() => postForm(app.url, '/signin?/code', { code, redirectTo: '/' }, jar.header())));
+		expect(answers.map((a) => a.status).sort()).toEqual([303, 400, 400]);
+
+		// The same fresh code on two paths at once: the sign-in's code step and turning the factor off.
+		const step = new CookieJar();
+		step.take(await postForm(app.url, '/signin?/password', { email: INSPECTOR2, password: DEMO_PASSWORD, redirectTo: '/' }));
+		const [signIn, off] = await Promise.all([
+			postForm(app.url, '/signin?/code', { code: fresh, redirectTo: '/' }, step.header()),
+			postForm(app.url, '/account/security?/turnOff', { password: DEMO_PASSWORD, code: fresh }, cookie)
+		]);
+		expect([signIn.status, off.status].sort()).toEqual([303, 400]);
+		expect((await factorRow(INSPECTOR2)) === null).toBe(off.status === 303);
+	});
+});
+
 describe('turning it off', () => {
 	it('needs the password and a current code; then the password alone signs in again', async () => {
 		const cookie = await signInApi(app.url, ADMIN);
-		const secret = await enrol(app.url, cookie);
-		const signInCode = totpCode(secret, 1); // the enrolment used this step's code
+		await withRoomInStep();
+		const secret = await enrol(app.url, cookie, -1); // the previous step's code, still accepted
+		const signInCode = totpCode(secret, 0);
+		const offCode = totpCode(secret, 1);
 		const otherSession = await signInApiWithCode(app.url, ADMIN, signInCode);
 
 		const wrongPassword = await postForm(app.url, '/account/security?/turnOff', { password: 'not-my-password', code: totpCode(secret, 1) }, cookie);
@@ -248,9 +277,8 @@ describe('turning it off', () => {
 		expect(usedCode.status).toBe(400);
 		expect((await factorRow(ADMIN))?.enabled_at).not.toBeNull();
 
-		// A code newer than the one the sign-in used: once the clock has moved on a step, the next one.
-		await nextTimeStep();
-		const off = await postForm(app.url, '/account/security?/turnOff', { password: DEMO_PASSWORD, code: totpCode(secret, 1) }, cookie);
+		// A code newer than the one the sign-in used.
+		const off = await postForm(app.url, '/account/security?/turnOff', { password: DEMO_PASSWORD, code: offCode }, cookie);
 		expect(off.status).toBe(303);
 		expect(off.headers.get('location')).toBe('/account/security?changed=off');
 		expect(await factorRow(ADMIN)).toBeNull();
@@ -261,9 +289,13 @@ describe('turning it off', () => {
 	});
 });
 
-/** Wait for the next 30-second time step to begin (at most 30 s). */
-async function nextTimeStep(): Promise<void> {
-	await new Promise((r) => setTimeout(r, 30_000 - (Date.now() % 30_000) + 200));
+/**
+ * When less than `ms` of the current 30-second step is left, wait for the next one: a test that
+ * uses the previous step's code must use it before the clock moves on (then it is two steps old).
+ */
+async function withRoomInStep(ms = 8_000): Promise<void> {
+	const left = 30_000 - (Date.now() % 30_000);
+	if (left < ms) await new Promise((r) => setTimeout(r, left + 200));
 }
 
 describe('the site requires a second factor (RESTVOLT_REQUIRE_TOTP=on)', () => {
@@ -319,8 +351,8 @@ describe('the site requires a second factor (RESTVOLT_REQUIRE_TOTP=on)', () => {
 describe('a lost phone', () => {
 	it('an administrator removes someone else’s second factor on the People page; their sessions end, the password signs in again', async () => {
 		expect((await factorRow(QUALITY))?.enabled_at).toBeTruthy(); // turned on in the first describe
-		// The describes between used QUALITY's codes up to one step ahead of a moment at least a step ago.
-		const qualitySession = await signInApiWithCode(app.url, QUALITY, totpCode(qualitySecret, 1));
+		const qualitySession = qualityCodeSession;
+		expect((await get(app.url, '/api/v1/me', qualitySession)).status).toBe(200);
 		const admin = await signInApi(app.url, ADMIN);
 		const people = await (await get(app.url, '/admin/users', admin)).text();
 		expect(people).toContain('+ code from an app');
