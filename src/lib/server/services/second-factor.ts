@@ -75,8 +75,8 @@ export async function beginEnrolment(user: SessionUser, ip: string | null): Prom
 }
 
 /**
- * Accept `code` for this person's factor (confirmed, or pending when `pending` is set) and record
- * its step. Runs inside the caller's transaction, holding the row lock until it commits.
+ * Accept `code` for this person's factor (`which`: the confirmed one, or a pending enrolment) and
+ * record its step. Runs inside the caller's transaction, holding the row lock until it commits.
  */
 async function useCode(tx: Tx, userId: string, code: string, which: 'on' | 'pending'): Promise<boolean> {
 	const [row] = await tx
