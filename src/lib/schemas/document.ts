@@ -4,8 +4,6 @@ import { z } from 'zod';
 export const UPLOAD_KINDS = ['coc', 'un38_3_summary', 'sds', 'other'] as const;
 export type UploadKind = (typeof UPLOAD_KINDS)[number];
 export const MAX_DOCUMENT_BYTES = 20 * 1024 * 1024;
-export const ACCEPTED_MIME = ['application/pdf', 'image/png', 'image/jpeg'] as const;
-export type AcceptedMime = (typeof ACCEPTED_MIME)[number];
 
 export const documentKindSchema = z.enum(UPLOAD_KINDS, {
 	error: 'kind is one of coc, un38_3_summary, sds, other'

@@ -7,7 +7,6 @@ import { fromText, text, wholeNumber } from './fields';
 
 export const TRANSPORTS = ['air', 'sea', 'road', 'rail'] as const;
 export type TransportMode = (typeof TRANSPORTS)[number];
-export const TRANSPORT_LABEL: Record<TransportMode, string> = { air: 'Air', sea: 'Sea', road: 'Road', rail: 'Rail' };
 
 export const LOT_STATUSES = [
 	'draft',
@@ -176,4 +175,3 @@ export const lotListQuerySchema = z.object({
 	),
 	cursor: blankAsMissing(text().max(200))
 });
-export type LotListQuery = z.infer<typeof lotListQuerySchema>;

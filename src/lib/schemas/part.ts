@@ -10,7 +10,6 @@ import { decimal, text, wholeNumber } from './fields';
 
 export const INSPECTION_LEVELS = ['I', 'II', 'III', 'S-1', 'S-2', 'S-3', 'S-4'] as const;
 export const REQUIRED_DOCUMENT_KINDS = ['coc', 'un38_3_summary', 'sds'] as const;
-export type RequiredDocumentKind = (typeof REQUIRED_DOCUMENT_KINDS)[number];
 
 const positiveInt = (what: string, max: number) =>
 	wholeNumber(`Enter ${what} as a whole number`)

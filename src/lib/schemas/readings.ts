@@ -30,10 +30,6 @@ export const readingSchema = z.object({
 });
 export type ReadingInputRow = z.infer<typeof readingSchema>;
 
-export const readingsBodySchema = z.object({
-	readings: z.array(readingSchema).min(1, 'send at least one reading')
-});
-
 /** A correction of a wrong value before the lot is decided; the reason goes to the audit trail. */
 export const readingCorrectionSchema = z
 	.object({
@@ -47,9 +43,6 @@ export const readingCorrectionSchema = z
 		error: 'change at least one value'
 	});
 export type ReadingCorrection = z.infer<typeof readingCorrectionSchema>;
-
-export const IMPORT_FIELDS = ['serial', 'ocv', 'temperature', 'ac_resistance', 'time'] as const;
-export type ImportField = (typeof IMPORT_FIELDS)[number];
 
 /** Which column (0-based) holds which value; the OCV unit is V or mV. */
 export const importMappingSchema = z.object({

@@ -76,6 +76,3 @@ export function can(user: SessionUser | null, action: Action, resource?: Resourc
 	}
 	return true;
 }
-
-/** Is this role a member of the receiving company's staff? */
-export const isStaff = (user: SessionUser | null) => !!user && user.role !== 'supplier';

@@ -73,7 +73,7 @@ export function noticeCautions(n: Pick<NoticeInput, 'status' | 'lithium' | 'safe
 	return cautions;
 }
 
-export function noticeSubject(n: NoticeInput): string {
+function noticeSubject(n: NoticeInput): string {
 	const prefix = n.kind === 'override' ? 'Quality decision' : 'Inspection result';
 	return `${prefix}: lot ${n.lotCode} ${shout(n.status)} (PO ${n.poNumber}, ${n.partNumber})`;
 }

@@ -28,7 +28,7 @@ export function drawPairs(page: PDFPage, fonts: FontSet, pairs: readonly Pair[],
 	return top - y;
 }
 
-export function pairsHeight(fonts: FontSet, pairs: readonly Pair[], width: number): number {
+function pairsHeight(fonts: FontSet, pairs: readonly Pair[], width: number): number {
 	const labelWidth = labelWidthFor(width);
 	return pairs.reduce((sum, [, value]) => {
 		const lines = wrapText(fonts, value, VALUE_SIZE, width - labelWidth - 4).length;

@@ -18,7 +18,7 @@ interface GlyphSource {
 const FONT_DIR = ['node_modules', '@fontsource', 'roboto-flex', 'files'];
 
 /** The app always runs from the project root (dev, tests and `node build`), so resolve fonts from there. */
-export function fontPath(script: 'latin' | 'greek'): string {
+function fontPath(script: 'latin' | 'greek'): string {
 	return join(process.cwd(), ...FONT_DIR, `roboto-flex-${script}-400-normal.woff`);
 }
 

@@ -21,7 +21,7 @@ const TAG_TITLES = {
 	rejected: `QUARANTINE — ${LOT_STATUS.rejected.word.toUpperCase()}`
 } as const;
 
-export function tagCaution(tag: TagData): string {
+function tagCaution(tag: TagData): string {
 	if (tag.safety) {
 		return 'Deep-discharged lithium-ion units: do not charge. Keep them in the quarantine area, apart from combustible material, and handle them per the site procedure and local regulations.';
 	}

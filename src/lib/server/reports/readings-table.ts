@@ -9,12 +9,12 @@ import { drawTable, type Column } from './table';
 import type { ReportUnit } from './types';
 
 /** SOC with its 1σ spread, or the plausible range when the OCV curve is too flat to decide. */
-export function socCell(unit: ReportUnit): string {
+function socCell(unit: ReportUnit): string {
 	if (!unit.determinate) return `${VERDICT.indeterminate.word.toLowerCase()} ${fixed(unit.soc_low * 100, 0)}–${fixed(unit.soc_high * 100, 0)}`;
 	return `${fixed(unit.soc * 100, 1)} ± ${fixed(unit.soc_sigma * 100, 1)}`;
 }
 
-export function flagsCell(unit: ReportUnit): string {
+function flagsCell(unit: ReportUnit): string {
 	const flags = unit.flags.join(', ');
 	if (unit.nonconforming) return flags ? `NC: ${flags}` : 'NC';
 	return flags || MISSING;

@@ -74,21 +74,12 @@ export async function listModelVersions(filter: { chemistry?: ChemistryCode; sta
 	return rows.map(toVersion);
 }
 
-/** Only approved versions may be chosen for a part. */
-export const listApprovedModels = (chemistry?: ChemistryCode) => listModelVersions({ chemistry, status: 'approved' });
-
 /** One version with its model; the model is null when the stored JSON no longer validates. */
 export async function getModelVersion(id: string): Promise<{ version: ModelVersion; model: OcvModel | null } | null> {
 	const [row] = await versionQuery().where(eq(ocvModels.id, id));
 	if (!row) return null;
 	const [stored] = await getDb().select({ parameters: ocvModels.parameters }).from(ocvModels).where(eq(ocvModels.id, id));
 	return { version: toVersion(row), model: validateModel(stored.parameters) };
-}
-
-/** Approved model for evaluation, or null when the id is unknown, unapproved or invalid. */
-export async function getApprovedModel(id: string): Promise<OcvModel | null> {
-	const found = await getModelVersion(id);
-	return found && found.version.status === 'approved' ? found.model : null;
 }
 
 export type SaveFitResult =

@@ -69,14 +69,6 @@ export async function getSupplier(db: Database, id: string): Promise<Supplier | 
 	return all.find((s) => s.id === id) ?? null;
 }
 
-/** Is this id a supplier organisation? */
-export async function supplierExists(db: Database | Tx, id: string): Promise<boolean> {
-	const [row] = await db
-		.select({ id: organisations.id })
-		.from(organisations)
-		.where(and(eq(organisations.id, id), eq(organisations.kind, 'supplier')));
-	return !!row;
-}
 
 export class ContactNotFoundError extends Error {}
 
