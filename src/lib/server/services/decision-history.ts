@@ -50,7 +50,7 @@ export interface HistoryNotice {
 	replies: HistoryReply[];
 }
 
-export interface LotHistory {
+export interface DecisionTrail {
 	lotId: string;
 	status: string;
 	canSubmit: boolean;
@@ -143,11 +143,11 @@ export async function listNoticesWithReplies(db: Db, lotId: string, replyLink: (
 }
 
 /** The whole paper trail of a lot the user may see (the caller checked access). */
-export async function lotHistory(
+export async function decisionTrail(
 	db: Database,
 	user: { role: string },
 	lot: { id: string; status: string }
-): Promise<LotHistory> {
+): Promise<DecisionTrail> {
 	const base = `/api/v1/lots/${lot.id}`;
 	const [evals, decs, notes] = await Promise.all([
 		listEvaluations(db, lot.id),

@@ -67,7 +67,7 @@ async function storeEvaluation(tx: Tx, user: SessionUser, evaluation: LotEvaluat
 const reasonTexts = (e: LotEvaluation) => e.reasons.filter((r) => r.severity !== 'info').map((r) => r.message);
 const withoutInputs = ({ inputs: _inputs, ...rest }: LotEvaluation) => rest;
 
-function evaluateOrExplain(evaluation: LotEvaluation): asserts evaluation is LotEvaluation & { status: 'accept' | 'hold' | 'reject' } {
+function assertSampleComplete(evaluation: LotEvaluation): asserts evaluation is LotEvaluation & { status: 'accept' | 'hold' | 'reject' } {
 	if (evaluation.status !== 'pending') return;
 	const why = evaluation.reasons.find((r) => r.code === 'sample_incomplete')?.message;
 	throw new ApiError(422, 'sample_incomplete', why ?? `The sample is not complete: ${evaluation.plan.sample_size} units are needed.`);
@@ -124,7 +124,7 @@ export async function submitLot(user: SessionUser, lotId: string): Promise<Decis
 			throw conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a lot in inspection can be submitted for decision`);
 		}
 		const evaluation = await evaluateLotNow(tx, lotId);
-		evaluateOrExplain(evaluation);
+		assertSampleComplete(evaluation);
 		const evaluationId = await storeEvaluation(tx, user, evaluation);
 		const applied = await applyAutomatic(tx, user, lot, evaluation, lot.status, evaluationId, null);
 		return { lotId, previousStatus: lot.status, evaluationId, ...applied, evaluation: withoutInputs(evaluation) };
@@ -141,7 +141,7 @@ export async function reevaluateLot(user: SessionUser, lotId: string): Promise<D
 		if (!can(user, 'lot:decide', { supplierId: lot.supplierId })) throw new ApiError(403, 'forbidden', 'Only quality may re-evaluate a held lot');
 		if (lot.status !== 'on_hold') throw conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a held lot can be re-evaluated`);
 		const evaluation = await evaluateLotNow(tx, lotId);
-		evaluateOrExplain(evaluation);
+		assertSampleComplete(evaluation);
 		const evaluationId = await storeEvaluation(tx, user, evaluation);
 		if (STATUS_OF[evaluation.status] === 'on_hold') {
 			await recordAudit(tx, { actorId: user.id, actorEmail: user.email, action: 'lot.reevaluated', entityType: 'lot', entityId: lotId, lotId, details: { evaluationId, result: 'hold' } });

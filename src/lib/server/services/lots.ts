@@ -332,7 +332,7 @@ export interface HistoryEntry {
 }
 
 /** The lot's trail: audit events that name the lot, and its decisions, oldest first. */
-export async function lotHistory(db: Database, lotId: string): Promise<HistoryEntry[]> {
+export async function lotTimeline(db: Database, lotId: string): Promise<HistoryEntry[]> {
 	const events = await db
 		.select({ at: auditEvents.at, action: auditEvents.action, actor: auditEvents.actorEmail, details: auditEvents.details })
 		.from(auditEvents)

@@ -6,7 +6,7 @@ import {
 	cancelLot,
 	getLotForUser,
 	LotConflictError,
-	lotHistory,
+	lotTimeline,
 	markAwaitingArrival
 } from '$lib/server/services/lots';
 import { listDocuments, missingDocuments } from '$lib/server/services/documents';
@@ -26,7 +26,7 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	if (!lot) error(404, 'No such lot');
 	const part = await getPart(db, lot.partId);
 	if (!part) error(404, 'The lot’s part no longer exists');
-	const [documents, history] = await Promise.all([listDocuments(db, lot.id), lotHistory(db, lot.id)]);
+	const [documents, history] = await Promise.all([listDocuments(db, lot.id), lotTimeline(db, lot.id)]);
 	// Before the bench the severity is the supplier × part's current one; afterwards the one the lot was inspected under.
 	const severity = BEFORE_INSPECTION.includes(lot.status)
 		? (await currentSeverity(db, lot.supplierId, lot.partId)).severity
