@@ -8,7 +8,8 @@
  * ride on, and integrations usually send no Origin header.
  */
 import { json, text, type Handle } from '@sveltejs/kit';
-import { ApiError, errorResponse } from './http';
+import { Forbidden } from './errors';
+import { errorResponse } from './http';
 
 const FORM_TYPES = ['application/x-www-form-urlencoded', 'multipart/form-data', 'text/plain'];
 const UNSAFE_METHODS = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
@@ -34,7 +35,7 @@ export const csrfGuard: Handle = async ({ event, resolve }) => {
 	if (isCrossSiteWrite(request, url)) {
 		const message = `Cross-site ${request.method} requests are forbidden`;
 		// The JSON API answers in its own error shape; pages keep SvelteKit's answer.
-		if (url.pathname.startsWith('/api/')) return errorResponse(new ApiError(403, 'cross_site', message));
+		if (url.pathname.startsWith('/api/')) return errorResponse(new Forbidden(message, 'cross_site'));
 		return request.headers.get('accept') === 'application/json' ? json({ message }, { status: 403 }) : text(message, { status: 403 });
 	}
 	return resolve(event);

@@ -6,40 +6,33 @@ import { json, type RequestEvent } from '@sveltejs/kit';
 import type { z } from 'zod';
 import { can, type Action, type Resource, type SessionUser } from './policy';
 import { isDatabaseUnavailable } from './db/unavailable';
+import { statusOf } from './error-status';
+import { Conflict, DomainError, Forbidden, Invalid, Malformed, NotFound, Unauthenticated, Unavailable, type Issue } from './errors';
 
 export { isDatabaseUnavailable };
 
-export interface ApiIssue {
-	path: string;
-	message: string;
+export type ApiIssue = Issue;
+
+/** The one place a domain error (errors.ts) becomes the API's status and error shape. */
+export function errorResponse(error: DomainError): Response {
+	return errorJson(statusOf(error.kind), error.code, error.message, error.issues);
 }
 
-export class ApiError extends Error {
-	constructor(
-		readonly status: number,
-		readonly code: string,
-		message: string,
-		readonly issues?: ApiIssue[]
-	) {
-		super(message);
-	}
-}
-
-export function errorResponse(error: ApiError): Response {
-	const body = { error: { code: error.code, message: error.message, ...(error.issues ? { issues: error.issues } : {}) } };
+function errorJson(status: number, code: string, message: string, issues?: Issue[]): Response {
+	const body = { error: { code, message, ...(issues ? { issues } : {}) } };
 	// A 503 is temporary (the database restarting): tell clients when to try again.
-	return json(body, { status: error.status, headers: error.status === 503 ? { 'retry-after': '2' } : undefined });
+	return json(body, { status, headers: status === 503 ? { 'retry-after': '2' } : undefined });
 }
 
 export const DATABASE_UNAVAILABLE_MESSAGE = 'The database is not reachable right now; nothing was saved. Try again in a moment.';
 /** The answer while PostgreSQL is down or restarting (also given by the hooks, unavailable.ts). */
-export const databaseUnavailable = () => new ApiError(503, 'database_unavailable', DATABASE_UNAVAILABLE_MESSAGE);
+export const databaseUnavailable = () => new Unavailable(DATABASE_UNAVAILABLE_MESSAGE, 'database_unavailable');
 
-export const badRequest = (message: string, issues?: ApiIssue[]) => new ApiError(400, 'bad_request', message, issues);
-export const notFound = (what = 'resource') => new ApiError(404, 'not_found', `${what} not found`);
-export const conflict = (message: string) => new ApiError(409, 'conflict', message);
-export const unprocessable = (message: string, issues?: ApiIssue[]) =>
-	new ApiError(422, 'unprocessable', message, issues);
+/** Short names for the domain errors API routes throw most (the same classes services throw). */
+export const badRequest = (message: string, issues?: ApiIssue[]) => new Malformed(message, issues);
+export const notFound = (what = 'resource') => new NotFound(what);
+export const conflict = (message: string) => new Conflict(message);
+export const unprocessable = (message: string, issues?: ApiIssue[]) => new Invalid(message, issues);
 
 export function zodIssues(error: z.ZodError): ApiIssue[] {
 	return error.issues.map((i) => ({ path: i.path.map(String).join('.'), message: i.message }));
@@ -131,8 +124,8 @@ export function readQuery<T extends z.ZodType>(url: URL, schema: T): z.infer<T> 
 /** 401 when nobody is signed in, 403 when the role may not do this. */
 export function authorize(event: Pick<RequestEvent, 'locals'>, action: Action, resource?: Resource): SessionUser {
 	const user = event.locals.user;
-	if (!user) throw new ApiError(401, 'unauthenticated', 'Sign in or send an API token (Authorization: Bearer …)');
-	if (!can(user, action, resource)) throw new ApiError(403, 'forbidden', 'Your role may not do this');
+	if (!user) throw new Unauthenticated('Sign in or send an API token (Authorization: Bearer …)');
+	if (!can(user, action, resource)) throw new Forbidden('Your role may not do this');
 	return user;
 }
 
@@ -140,7 +133,7 @@ export function authorize(event: Pick<RequestEvent, 'locals'>, action: Action, r
 const READ_RETRY_MS = 1000;
 
 /**
- * Wrap a handler so ApiErrors become the error shape and nothing unexpected leaks as a 5xx body
+ * Wrap a handler so domain errors (errors.ts) become the status and error shape and nothing unexpected leaks as a 5xx body
  * with internals (it is logged; the client sees a plain 500). An unreachable database answers 503
  * `database_unavailable`; a GET or HEAD (a read, safe to repeat) is tried once more first.
  */
@@ -163,11 +156,11 @@ export function api<E extends RequestEvent>(handler: (event: E) => Promise<Respo
 }
 
 function failure(event: RequestEvent, error: unknown): Response {
-	if (error instanceof ApiError) return errorResponse(error);
+	if (error instanceof DomainError) return errorResponse(error);
 	if (isKitResponse(error)) throw error;
 	console.error(`[api] ${event.request.method} ${event.url.pathname}`, error);
 	if (isDatabaseUnavailable(error)) return errorResponse(databaseUnavailable());
-	return errorResponse(new ApiError(500, 'internal', 'Something went wrong on the server'));
+	return errorJson(500, 'internal', 'Something went wrong on the server');
 }
 
 

@@ -7,7 +7,7 @@ import { verify } from '@node-rs/argon2';
 import { and, desc, eq, sql } from 'drizzle-orm';
 import { getDb, type Tx } from '../db';
 import { decisions, evaluations, lots, users } from '../db/schema';
-import { ApiError, conflict, notFound, unprocessable } from '../http';
+import { Conflict, DomainError, Forbidden, Invalid, NotFound, Throttled } from '../errors';
 import { can } from '../policy';
 import { recordAudit } from './audit';
 import { evaluateLotNow, type LotEvaluation } from './evaluation';
@@ -40,7 +40,7 @@ export interface DecisionOutcome {
 async function lockLot(tx: Tx, user: SessionUser, lotId: string) {
 	await lockSamplingOfLot(tx, lotId);
 	const [lot] = await tx.select().from(lots).where(eq(lots.id, lotId)).for('update');
-	if (!lot || !can(user, 'lot:read', { supplierId: lot.supplierId })) throw notFound('lot');
+	if (!lot || !can(user, 'lot:read', { supplierId: lot.supplierId })) throw new NotFound('lot');
 	return lot;
 }
 
@@ -70,7 +70,7 @@ const withoutInputs = ({ inputs: _inputs, ...rest }: LotEvaluation) => rest;
 function assertSampleComplete(evaluation: LotEvaluation): asserts evaluation is LotEvaluation & { status: 'accept' | 'hold' | 'reject' } {
 	if (evaluation.status !== 'pending') return;
 	const why = evaluation.reasons.find((r) => r.code === 'sample_incomplete')?.message;
-	throw new ApiError(422, 'sample_incomplete', why ?? `The sample is not complete: ${evaluation.plan.sample_size} units are needed.`);
+	throw new Invalid(why ?? `The sample is not complete: ${evaluation.plan.sample_size} units are needed.`, undefined, 'sample_incomplete');
 }
 
 /** Write the engine's decision (status, decision row, notice, audit) for a finished evaluation. */
@@ -119,9 +119,9 @@ async function applyAutomatic(
 export async function submitLot(user: SessionUser, lotId: string): Promise<DecisionOutcome> {
 	return getDb().transaction(async (tx) => {
 		const lot = await lockLot(tx, user, lotId);
-		if (!can(user, 'lot:submit', { supplierId: lot.supplierId })) throw new ApiError(403, 'forbidden', 'Your role may not submit lots');
+		if (!can(user, 'lot:submit', { supplierId: lot.supplierId })) throw new Forbidden('Your role may not submit lots');
 		if (!SUBMITTABLE.includes(lot.status)) {
-			throw conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a lot in inspection can be submitted for decision`);
+			throw new Conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a lot in inspection can be submitted for decision`);
 		}
 		const evaluation = await evaluateLotNow(tx, lotId);
 		assertSampleComplete(evaluation);
@@ -138,8 +138,8 @@ export async function submitLot(user: SessionUser, lotId: string): Promise<Decis
 export async function reevaluateLot(user: SessionUser, lotId: string): Promise<DecisionOutcome> {
 	return getDb().transaction(async (tx) => {
 		const lot = await lockLot(tx, user, lotId);
-		if (!can(user, 'lot:decide', { supplierId: lot.supplierId })) throw new ApiError(403, 'forbidden', 'Only quality may re-evaluate a held lot');
-		if (lot.status !== 'on_hold') throw conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a held lot can be re-evaluated`);
+		if (!can(user, 'lot:decide', { supplierId: lot.supplierId })) throw new Forbidden('Only quality may re-evaluate a held lot');
+		if (lot.status !== 'on_hold') throw new Conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a held lot can be re-evaluated`);
 		const evaluation = await evaluateLotNow(tx, lotId);
 		assertSampleComplete(evaluation);
 		const evaluationId = await storeEvaluation(tx, user, evaluation);
@@ -170,12 +170,12 @@ export const SAFETY_RELEASE_REFUSED =
 async function verifySignature(user: SessionUser, password: string, ip: string | null): Promise<void> {
 	const key = `signature:${user.id}`;
 	const reservation = await reserveAttempt([accountLimit(key)]);
-	if (!reservation) throw new ApiError(429, 'throttled', 'Too many wrong passwords — wait a few minutes and try again.');
+	if (!reservation) throw new Throttled('Too many wrong passwords — wait a few minutes and try again.');
 	const [row] = await getDb().select({ hash: users.passwordHash, active: users.active }).from(users).where(eq(users.id, user.id));
 	const ok = !!row?.hash && row.active && (await verify(row.hash, password).catch(() => false));
 	if (!ok) {
 		await recordAudit(getDb(), { actorId: user.id, actorEmail: user.email, action: 'decision.signature_failed', ip });
-		throw new ApiError(403, 'signature_invalid', 'The password is not correct; nothing was decided.');
+		throw new Forbidden('The password is not correct; nothing was decided.', 'signature_invalid');
 	}
 	await releaseAttempt(reservation);
 	await clearFailures(key);
@@ -187,7 +187,7 @@ async function latestEvaluation(tx: Tx, lotId: string) {
 }
 
 /** Why a lot is no longer on hold: who moved it and when, for the conflict message. */
-async function alreadyDecided(tx: Tx, lotId: string, status: LotStatus): Promise<ApiError> {
+async function alreadyDecided(tx: Tx, lotId: string, status: LotStatus): Promise<DomainError> {
 	const [last] = await tx
 		.select({ at: decisions.decidedAt, by: users.name, email: users.email })
 		.from(decisions)
@@ -196,7 +196,7 @@ async function alreadyDecided(tx: Tx, lotId: string, status: LotStatus): Promise
 		.orderBy(desc(decisions.decidedAt))
 		.limit(1);
 	const who = last ? ` by ${last.by ?? last.email ?? 'someone else'} at ${last.at.toISOString()}` : '';
-	return conflict(`Another decision was recorded first: the lot is now ${status.replaceAll('_', ' ')}${who}. Nothing was changed.`);
+	return new Conflict(`Another decision was recorded first: the lot is now ${status.replaceAll('_', ' ')}${who}. Nothing was changed.`);
 }
 
 /**
@@ -208,17 +208,17 @@ async function alreadyDecided(tx: Tx, lotId: string, status: LotStatus): Promise
  */
 export async function decideOverride(user: SessionUser, lotId: string, input: OverrideInput, ip: string | null = null): Promise<DecisionOutcome> {
 	const reason = input.reason.trim();
-	if (reason.length < 5) throw unprocessable('Give a reason for the decision (at least 5 characters)', [{ path: 'reason', message: 'Required' }]);
+	if (reason.length < 5) throw new Invalid('Give a reason for the decision (at least 5 characters)', [{ path: 'reason', message: 'Required' }]);
 	const [visible] = await getDb().select({ supplierId: lots.supplierId }).from(lots).where(eq(lots.id, lotId));
-	if (!visible || !can(user, 'lot:read', { supplierId: visible.supplierId })) throw notFound('lot');
-	if (!can(user, 'lot:decide', { supplierId: visible.supplierId })) throw new ApiError(403, 'forbidden', 'Only quality managers decide held lots');
+	if (!visible || !can(user, 'lot:read', { supplierId: visible.supplierId })) throw new NotFound('lot');
+	if (!can(user, 'lot:decide', { supplierId: visible.supplierId })) throw new Forbidden('Only quality managers decide held lots');
 	await checkChallenge(getDb(), user, lotId, input.decision, input.challengeId);
 	await verifySignature(user, input.password, ip);
 	return getDb().transaction(async (tx) => {
 		await lockSamplingOfLot(tx, lotId);
 		const challenge = await consumeChallenge(tx, user, lotId, input.decision, input.challengeId);
 		const latest = await latestEvaluation(tx, lotId);
-		if (input.decision === 'accept' && latest?.safety) throw conflict(`Rejected for safety: ${SAFETY_RELEASE_REFUSED}`);
+		if (input.decision === 'accept' && latest?.safety) throw new Conflict(`Rejected for safety: ${SAFETY_RELEASE_REFUSED}`);
 		const status: FinalStatus = input.decision === 'accept' ? 'accepted' : 'rejected';
 		const [won] = await tx
 			.update(lots)

@@ -8,7 +8,7 @@ import type { SessionUser } from '$lib/roles';
 import { MAX_READINGS_PER_CALL, type ImportMapping } from '$lib/schemas/readings';
 import type { Database } from '../db';
 import { lots, readingImports } from '../db/schema';
-import { ApiError, unprocessable } from '../http';
+import { Invalid, TooLarge } from '../errors';
 import { CsvSyntaxError, guessMapping, mapTable, parseCsv, readXlsxTable, type RowError, type Table } from './meter-file';
 import { addReadingsTx, type AddReadingsResult } from './readings';
 import { sha256Hex } from './uploads';
@@ -51,18 +51,18 @@ async function readXlsx(bytes: Uint8Array): Promise<Table> {
 	try {
 		return await readXlsxTable(bytes);
 	} catch {
-		throw unprocessable('The file looks like a spreadsheet but could not be read as XLSX', [{ path: 'file', message: 'not a readable XLSX workbook' }]);
+		throw new Invalid('The file looks like a spreadsheet but could not be read as XLSX', [{ path: 'file', message: 'not a readable XLSX workbook' }]);
 	}
 }
 
 function readCsv(bytes: Uint8Array): Table {
 	const text = new TextDecoder('utf-8', { fatal: false }).decode(bytes);
-	if (text.includes('\u0000')) throw unprocessable('The file is neither CSV text nor an XLSX workbook');
+	if (text.includes('\u0000')) throw new Invalid('The file is neither CSV text nor an XLSX workbook');
 	try {
 		return parseCsv(text);
 	} catch (error) {
 		if (!(error instanceof CsvSyntaxError)) throw error;
-		throw unprocessable(`The CSV file could not be read: broken quoting in row ${error.row}`, [{ path: `row ${error.row}`, message: error.message }]);
+		throw new Invalid(`The CSV file could not be read: broken quoting in row ${error.row}`, [{ path: `row ${error.row}`, message: error.message }]);
 	}
 }
 
@@ -121,14 +121,14 @@ export async function commitImport(db: Database, user: SessionUser, lotId: strin
 	const sha = sha256Hex(file.bytes);
 	const mapped = mapTable(table, mapping);
 	if (mapped.errors.length > 0 && !mapping.skip_invalid) {
-		throw unprocessable(
+		throw new Invalid(
 			`${new Set(mapped.errors.map((e) => e.row)).size} row(s) of the file have errors; nothing was imported`,
 			mapped.errors.slice(0, ERROR_LIMIT).map((e) => ({ path: `row ${e.row}.${e.column}`, message: e.message }))
 		);
 	}
-	if (mapped.rows.length === 0) throw unprocessable('The file has no valid readings with this mapping');
+	if (mapped.rows.length === 0) throw new Invalid('The file has no valid readings with this mapping');
 	if (mapped.rows.length > MAX_READINGS_PER_CALL) {
-		throw new ApiError(413, 'too_many_readings', `A meter file may hold at most ${MAX_READINGS_PER_CALL} readings (this one has ${mapped.rows.length})`);
+		throw new TooLarge(`A meter file may hold at most ${MAX_READINGS_PER_CALL} readings (this one has ${mapped.rows.length})`, 'too_many_readings');
 	}
 	const skipped = new Set(mapped.errors.map((e) => e.row)).size;
 	return db.transaction(async (tx) => {

@@ -9,17 +9,10 @@ import type { SessionUser } from '$lib/roles';
 import { LOT_FIELD, unNumberProblem, type LotInput, type LotStatus } from '$lib/schemas/lot';
 import { recordAudit } from './audit';
 import { currentSeverity } from './switching';
-import { ApiError, conflict, unprocessable } from '../http';
-
-/** Bad input that only the database can judge (unknown ids, part of another supplier…). */
-export class InputError extends Error {
-	constructor(readonly issues: Array<{ path: string; message: string }>) {
-		super(issues.map((i) => `${i.path}: ${i.message}`).join('; '));
-	}
-}
+import { Conflict, invalidFields, Malformed } from '../errors';
 
 /** A status change that lost: the lot was no longer in one of the expected states. */
-export class LotConflictError extends Error {
+export class LotConflictError extends Conflict {
 	constructor(
 		readonly lotId: string,
 		readonly expected: readonly LotStatus[],
@@ -83,7 +76,7 @@ async function checkReferences(tx: Tx, input: LotInput): Promise<{ chemistry: st
 	}
 	const unProblem = part ? unNumberProblem(part.chemistry, input.unNumber) : null;
 	if (unProblem) issues.push({ path: LOT_FIELD.unNumber, message: unProblem });
-	if (issues.length > 0) throw new InputError(issues);
+	if (issues.length > 0) throw invalidFields(issues);
 	return { chemistry: part!.chemistry };
 }
 
@@ -149,7 +142,8 @@ export interface LotListFilter {
 	cursor?: string;
 }
 
-export class BadCursorError extends Error {}
+/** A cursor this server did not hand out (a list page starts over from the top instead). */
+export class BadCursorError extends Malformed {}
 
 /** Cursors carry created_at as PG text (microseconds kept) and the id, base64url-encoded. */
 export function encodeCursor(createdAtText: string, id: string): string {
@@ -365,14 +359,6 @@ export async function lotTimeline(db: Database, lotId: string): Promise<HistoryE
 }
 
 // ---------------------------------------------------------------- JSON
-
-/** The API answer for a service error (null when it is not one of ours). */
-export function lotErrorToApi(error: unknown): ApiError | null {
-	if (error instanceof InputError) return unprocessable('Some fields are not valid', error.issues);
-	if (error instanceof LotConflictError) return conflict(error.message);
-	if (error instanceof BadCursorError) return new ApiError(400, 'bad_request', error.message);
-	return null;
-}
 
 const isoDate = (d: Date | null) => (d ? d.toISOString() : null);
 

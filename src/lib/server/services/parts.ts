@@ -9,7 +9,7 @@ import type { SessionUser } from '$lib/roles';
 import type { OcvModel } from '$lib/electrochem';
 import type { PartDescriptive, PartLimitsForm, PartListQuery } from '$lib/schemas/part';
 import { recordAudit } from './audit';
-import { InputError } from './lots';
+import { invalidFields } from '../errors';
 
 export type PartRow = typeof parts.$inferSelect;
 export interface PartView extends PartRow {
@@ -80,7 +80,7 @@ async function defaultsFor(tx: Tx, chemistry: string) {
 		.where(and(eq(ocvModels.chemistry, chemistry), eq(ocvModels.origin, 'library'), isNotNull(ocvModels.approvedAt)))
 		.orderBy(desc(ocvModels.approvedAt))
 		.limit(1);
-	if (!model) throw new InputError([{ path: 'chemistry', message: 'No approved OCV model exists for this chemistry yet' }]);
+	if (!model) throw invalidFields([{ path: 'chemistry', message: 'No approved OCV model exists for this chemistry yet' }]);
 	const params = model.parameters as OcvModel;
 	return { modelId: model.id, ocvMinCellV: params.min_safe_v, ocvMaxCellV: params.max_v };
 }
@@ -103,7 +103,7 @@ async function checkSupplier(tx: Tx, supplierId: string) {
 		.select({ id: organisations.id })
 		.from(organisations)
 		.where(and(eq(organisations.id, supplierId), eq(organisations.kind, 'supplier')));
-	if (!org) throw new InputError([{ path: 'supplier_id', message: 'No supplier with this id' }]);
+	if (!org) throw invalidFields([{ path: 'supplier_id', message: 'No supplier with this id' }]);
 }
 
 async function checkPartNumberFree(tx: Tx, supplierId: string, partNumber: string, exceptId?: string) {
@@ -112,7 +112,7 @@ async function checkPartNumberFree(tx: Tx, supplierId: string, partNumber: strin
 		.from(parts)
 		.where(and(eq(parts.supplierId, supplierId), eq(parts.partNumber, partNumber)));
 	if (clash && clash.id !== exceptId) {
-		throw new InputError([{ path: 'part_number', message: 'This supplier already has a part with this number' }]);
+		throw invalidFields([{ path: 'part_number', message: 'This supplier already has a part with this number' }]);
 	}
 }
 
@@ -156,7 +156,7 @@ export async function updatePartLimits(db: Database, actor: SessionUser, id: str
 		if (!current) return null;
 		const allowed = await approvedModels(tx, current.chemistry);
 		if (!allowed.some((m) => m.id === form.model_id)) {
-			throw new InputError([{ path: 'model_id', message: `Choose an approved ${current.chemistry} model version` }]);
+			throw invalidFields([{ path: 'model_id', message: `Choose an approved ${current.chemistry} model version` }]);
 		}
 		const values = {
 			modelId: form.model_id,

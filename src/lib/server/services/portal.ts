@@ -3,29 +3,29 @@
  * for another organisation's lot, report or notice gets 404, as if it did not exist.
  */
 import { asc, desc, eq, inArray } from 'drizzle-orm';
-import type { RequestEvent } from '@sveltejs/kit';
-import { getDb, type Database } from '../db';
+import type { Database } from '../db';
 import { documents, lots, noticeResponses, notices, parts } from '../db/schema';
 import type { IncomingFile } from '$lib/uploads/rules';
-import { authorize, notFound, unprocessable, type ApiError } from '../http';
-import type { Action } from '../policy';
+import { Forbidden, Invalid, NotFound } from '../errors';
+import { can, type Action } from '../policy';
 import { recordAudit } from './audit';
 import { acceptUpload, storeLotFile } from './uploads';
 import { getLotForUser, type LotView } from './lots';
 import { getNoticeForUser } from './notices';
 import type { SessionUser } from '../../roles';
 
-/** 401/403 by role, 404 for a lot the user may not see, then the action on that lot. */
-export async function requireLot(event: Pick<RequestEvent, 'locals'>, lotId: string, action: Action): Promise<{ user: SessionUser; lot: LotView }> {
-	const me = event.locals.user;
-	const user = authorize(event, action, me?.role === 'supplier' ? { supplierId: me.organisationId } : undefined);
-	const lot = await getLotForUser(getDb(), user, lotId);
-	if (!lot) throw notFound('lot');
-	authorize(event, action, { supplierId: lot.supplierId });
-	return { user, lot };
+/**
+ * The lot `user` may do `action` on: Forbidden when the role may not do it at all, NotFound for a
+ * lot they may not see (another supplier's), Forbidden when they see it but may not do this to it.
+ */
+export async function lotForAction(db: Database, user: SessionUser, lotId: string, action: Action): Promise<LotView> {
+	const own = user.role === 'supplier' ? { supplierId: user.organisationId } : undefined;
+	if (!can(user, action, own)) throw new Forbidden('Your role may not do this');
+	const lot = await getLotForUser(db, user, lotId);
+	if (!lot) throw new NotFound('lot');
+	if (!can(user, action, { supplierId: lot.supplierId })) throw new Forbidden('Your role may not do this');
+	return lot;
 }
-
-export const isApiError = (e: unknown): e is ApiError => e instanceof Error && 'status' in e && 'code' in e;
 
 /** The supplier's lots that have reached a decision or are being inspected, newest first. */
 export async function portalLots(db: Database, user: SessionUser) {
@@ -71,7 +71,7 @@ export interface ReplyInput {
  */
 export async function replyToNotice(db: Database, user: SessionUser, noticeId: string, input: ReplyInput) {
 	const comment = input.comment.trim();
-	if (comment.length < 2) throw unprocessable('Write a comment', [{ path: 'comment', message: 'Required' }]);
+	if (comment.length < 2) throw new Invalid('Write a comment', [{ path: 'comment', message: 'Required' }]);
 	return db.transaction(async (tx) => {
 		const notice = await getNoticeForUser(tx, user, noticeId);
 		const file = input.file ? acceptUpload('supplier_reply', input.file) : null;
@@ -119,7 +119,7 @@ export interface PortalNotice {
 /** The notices of one lot the supplier may see (404 for another organisation's lot), with replies. */
 export async function portalNotices(db: Database, user: SessionUser, lotId: string): Promise<PortalNotice[]> {
 	const lot = await getLotForUser(db, user, lotId);
-	if (!lot) throw notFound('lot');
+	if (!lot) throw new NotFound('lot');
 	const rows = await db.select().from(notices).where(eq(notices.lotId, lot.id)).orderBy(desc(notices.createdAt));
 	const replies = await repliesFor(db, rows.map((n) => n.id));
 	return rows.map((n) => ({

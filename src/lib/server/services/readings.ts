@@ -9,7 +9,7 @@ import type { SessionUser } from '$lib/roles';
 import { MAX_READINGS_PER_CALL, readingSchema, type ReadingCorrection, type ReadingInputRow } from '$lib/schemas/readings';
 import type { Database, Tx } from '../db';
 import { readings } from '../db/schema';
-import { ApiError, conflict, notFound, unprocessable, type ApiIssue } from '../http';
+import { Conflict, Invalid, NotFound, TooLarge, type Issue } from '../errors';
 import { recordAudit } from './audit';
 import { recordArrival, transitionLot } from './lots';
 import { requiredSampleSize } from './evaluation';
@@ -57,24 +57,24 @@ async function lockLot(tx: Tx, lotId: string): Promise<LockedLot> {
 		sql`select id, status::text as status, supplier_id from lots where id = ${lotId} for update`
 	);
 	const lot = result.rows[0];
-	if (!lot) throw notFound('lot');
+	if (!lot) throw new NotFound('lot');
 	return lot;
 }
 
 /** Validate every row before anything is written; row-level issues are reported together. */
 export function validateReadings(rows: unknown[]): ReadingInputRow[] {
-	if (rows.length === 0) throw unprocessable('Send at least one reading');
+	if (rows.length === 0) throw new Invalid('Send at least one reading');
 	if (rows.length > MAX_READINGS_PER_CALL) {
-		throw new ApiError(413, 'too_many_readings', `At most ${MAX_READINGS_PER_CALL} readings per call (got ${rows.length}); split the batch`);
+		throw new TooLarge(`At most ${MAX_READINGS_PER_CALL} readings per call (got ${rows.length}); split the batch`, 'too_many_readings');
 	}
-	const issues: ApiIssue[] = [];
+	const issues: Issue[] = [];
 	const valid: ReadingInputRow[] = [];
 	rows.forEach((row, i) => {
 		const parsed = readingSchema.safeParse(row);
 		if (parsed.success) valid.push(parsed.data);
 		else for (const issue of (parsed.error as z.ZodError).issues) issues.push({ path: ['readings', i, ...issue.path].join('.'), message: issue.message });
 	});
-	if (issues.length > 0) throw unprocessable(`${new Set(issues.map((i) => i.path.split('.')[1])).size} reading(s) are not valid; nothing was stored`, issues.slice(0, 200));
+	if (issues.length > 0) throw new Invalid(`${new Set(issues.map((i) => i.path.split('.')[1])).size} reading(s) are not valid; nothing was stored`, issues.slice(0, 200));
 	return valid;
 }
 
@@ -107,7 +107,7 @@ export async function addReadingsTx(
 ): Promise<AddReadingsResult> {
 	const lot = await lockLot(tx, lotId);
 	if (!(OPEN_STATUSES as readonly string[]).includes(lot.status)) {
-		throw conflict(`This lot is ${lot.status.replace('_', ' ')}; readings can only be added while it awaits arrival or is in inspection`);
+		throw new Conflict(`This lot is ${lot.status.replace('_', ' ')}; readings can only be added while it awaits arrival or is in inspection`);
 	}
 	const arrived = lot.status === 'awaiting_arrival';
 	if (arrived) await recordArrival(tx, user, lotId);
@@ -204,9 +204,9 @@ export async function listReadings(db: Database | Tx, lotId: string): Promise<St
 export async function correctReading(db: Database, user: SessionUser, lotId: string, readingId: number, change: ReadingCorrection): Promise<StoredReading> {
 	return db.transaction(async (tx) => {
 		const lot = await lockLot(tx, lotId);
-		if (!CORRECTABLE.includes(lot.status)) throw conflict(`Readings can only be corrected before a final decision or while the lot is on hold (it is ${lot.status.replace('_', ' ')})`);
+		if (!CORRECTABLE.includes(lot.status)) throw new Conflict(`Readings can only be corrected before a final decision or while the lot is on hold (it is ${lot.status.replace('_', ' ')})`);
 		const [before] = await tx.select(selectColumns).from(readings).where(and(eq(readings.id, readingId), eq(readings.lotId, lotId)));
-		if (!before) throw notFound('reading');
+		if (!before) throw new NotFound('reading');
 		const patch = {
 			...(change.serial !== undefined ? { serial: change.serial } : {}),
 			...(change.ocv_v !== undefined ? { ocvV: change.ocv_v } : {}),

@@ -5,7 +5,7 @@
 import { and, desc, eq, lte } from 'drizzle-orm';
 import type { Database, Tx } from '../db';
 import { decisions, evaluations, lots, organisations, parts, readings, users } from '../db/schema';
-import { notFound } from '../http';
+import { NotFound } from '../errors';
 import type { LotListRow, ReportData, ReportReason, ReportSignature, ReportUnit, TagData } from '../reports';
 import type { SignatureManifest } from '../signature-manifest';
 import { evaluateLotNow, type EvaluationInputs, type LotEvaluation } from './evaluation';
@@ -24,7 +24,7 @@ async function loadHeader(db: Db, lotId: string) {
 		.innerJoin(parts, eq(parts.id, lots.partId))
 		.innerJoin(organisations, eq(organisations.id, lots.supplierId))
 		.where(eq(lots.id, lotId));
-	if (!row) throw notFound('lot');
+	if (!row) throw new NotFound('lot');
 	return row;
 }
 

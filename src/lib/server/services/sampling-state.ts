@@ -17,7 +17,7 @@ import type { Database, Tx } from '../db';
 import { inspectionResumptions, samplingStates } from '../db/schema';
 import { currentSeverity, type SeverityView } from './switching';
 import { recordAudit } from './audit';
-import { conflict, notFound } from '../http';
+import { Conflict, NotFound } from '../errors';
 
 const lockKey = (partIdSql: SQL) => sql`hashtext('restvolt.sampling:' || ${partIdSql}::text)`;
 
@@ -107,10 +107,10 @@ export async function recordResumption(tx: Tx, input: ResumptionInput): Promise<
 export async function resumeInspection(db: Database, user: { id: string; email: string }, partId: string, reason: string): Promise<SeverityView> {
 	return db.transaction(async (tx) => {
 		const [part] = (await tx.execute<{ supplier_id: string }>(sql`select supplier_id from parts where id = ${partId}`)).rows;
-		if (!part) throw notFound('part');
+		if (!part) throw new NotFound('part');
 		await lockSamplingOfPart(tx, partId);
 		const now = await currentSeverity(tx, part.supplier_id, partId);
-		if (now.severity !== 'discontinued') throw conflict(`Inspection of this part is ${now.severity}, not discontinued; there is nothing to resume.`);
+		if (now.severity !== 'discontinued') throw new Conflict(`Inspection of this part is ${now.severity}, not discontinued; there is nothing to resume.`);
 		const view = await recordResumption(tx, { supplierId: part.supplier_id, partId, reason, resumedBy: user.id });
 		await recordAudit(tx, {
 			actorId: user.id,

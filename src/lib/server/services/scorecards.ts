@@ -7,7 +7,7 @@
 import { and, eq, sql } from 'drizzle-orm';
 import type { Database } from '../db';
 import { organisations, parts } from '../db/schema';
-import { notFound } from '../http';
+import { NotFound } from '../errors';
 import { nextLotSeverity } from './sampling-state';
 
 interface LotFact extends Record<string, unknown> {
@@ -107,14 +107,14 @@ export async function supplierScorecard(db: Database, supplierId: string, partId
 		.select({ id: organisations.id, name: organisations.name })
 		.from(organisations)
 		.where(and(eq(organisations.id, supplierId), eq(organisations.kind, 'supplier')));
-	if (!supplier) throw notFound('supplier');
+	if (!supplier) throw new NotFound('supplier');
 	const partRows = await db
 		.select({ id: parts.id, partNumber: parts.partNumber, description: parts.description })
 		.from(parts)
 		.where(eq(parts.supplierId, supplierId))
 		.orderBy(parts.partNumber);
 	const part = partId ? partRows.find((p) => p.id === partId) : undefined;
-	if (partId && !part) throw notFound('part');
+	if (partId && !part) throw new NotFound('part');
 	const facts = await lotFacts(db, supplierId, partId);
 	const perPart = await Promise.all(
 		(part ? [part] : partRows).map(async (p) => ({

@@ -8,7 +8,7 @@ import { and, eq, isNull, sql } from 'drizzle-orm';
 import type { SessionUser } from '$lib/roles';
 import type { Database, Tx } from '../db';
 import { lots, signatureChallenges } from '../db/schema';
-import { ApiError, conflict, notFound } from '../http';
+import { Conflict, DomainError, Forbidden, Invalid, NotFound } from '../errors';
 import { can } from '../policy';
 import { MEANING } from '../signature-manifest';
 
@@ -29,9 +29,9 @@ export interface IssuedChallenge {
 /** The held lot a quality manager may decide: 404 when not visible, 403 without the right, 409 when not on hold. */
 async function decidableLot(db: Database | Tx, user: SessionUser, lotId: string) {
 	const [lot] = await db.select({ id: lots.id, lotCode: lots.lotCode, status: lots.status, revision: lots.revision, supplierId: lots.supplierId }).from(lots).where(eq(lots.id, lotId));
-	if (!lot || !can(user, 'lot:read', { supplierId: lot.supplierId })) throw notFound('lot');
-	if (!can(user, 'lot:decide', { supplierId: lot.supplierId })) throw new ApiError(403, 'forbidden', 'Only quality managers decide held lots');
-	if (lot.status !== 'on_hold') throw conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a lot on hold can be released or rejected`);
+	if (!lot || !can(user, 'lot:read', { supplierId: lot.supplierId })) throw new NotFound('lot');
+	if (!can(user, 'lot:decide', { supplierId: lot.supplierId })) throw new Forbidden('Only quality managers decide held lots');
+	if (lot.status !== 'on_hold') throw new Conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a lot on hold can be released or rejected`);
 	return lot;
 }
 
@@ -55,23 +55,27 @@ export const challengeJson = (c: IssuedChallenge) => ({
 	expires_at: c.expiresAt
 });
 
-const refused = (status: 409 | 422, code: string, message: string) => new ApiError(status, code, message, [{ path: 'challenge_id', message }]);
+/** A challenge that cannot sign: `invalid` for one that never fits, `conflict` for one that no longer does. */
+const refused = (kind: 'conflict' | 'invalid', code: string, message: string) => {
+	const issues = [{ path: 'challenge_id', message }];
+	return kind === 'conflict' ? new Conflict(message, code, issues) : new Invalid(message, issues, code);
+};
 
 type ChallengeRow = typeof signatureChallenges.$inferSelect;
 
 /** Why a challenge cannot sign this decision on this lot now, or null when it can. */
-function whyNot(row: ChallengeRow | undefined, user: SessionUser, lotId: string, decision: SignedDecision, now: Date): ApiError | null {
-	if (!row || row.userId !== user.id) return refused(422, 'challenge_unknown', 'No signing challenge with this id was issued to you. Ask for one (POST …/decision/challenge) and sign again.');
-	if (row.lotId !== lotId) return refused(422, 'challenge_wrong_lot', 'This signing challenge was issued for another lot; nothing was decided.');
-	if (row.decision !== decision) return refused(422, 'challenge_wrong_decision', `This signing challenge was issued to ${row.decision} the lot, not to ${decision} it; nothing was decided.`);
-	if (row.usedAt) return refused(409, 'challenge_used', 'This signing challenge has already been used; each signature needs a new one. Nothing was decided.');
-	if (row.expiresAt <= now) return refused(409, 'challenge_expired', `This signing challenge expired (they last ${CHALLENGE_MINUTES} minutes); ask for a new one and sign again. Nothing was decided.`);
+function whyNot(row: ChallengeRow | undefined, user: SessionUser, lotId: string, decision: SignedDecision, now: Date): DomainError | null {
+	if (!row || row.userId !== user.id) return refused('invalid', 'challenge_unknown', 'No signing challenge with this id was issued to you. Ask for one (POST …/decision/challenge) and sign again.');
+	if (row.lotId !== lotId) return refused('invalid', 'challenge_wrong_lot', 'This signing challenge was issued for another lot; nothing was decided.');
+	if (row.decision !== decision) return refused('invalid', 'challenge_wrong_decision', `This signing challenge was issued to ${row.decision} the lot, not to ${decision} it; nothing was decided.`);
+	if (row.usedAt) return refused('conflict', 'challenge_used', 'This signing challenge has already been used; each signature needs a new one. Nothing was decided.');
+	if (row.expiresAt <= now) return refused('conflict', 'challenge_expired', `This signing challenge expired (they last ${CHALLENGE_MINUTES} minutes); ask for a new one and sign again. Nothing was decided.`);
 	return null;
 }
 
 /** The lot moved on since the challenge was issued (a reading, a document, a limit changed). */
 export const lotChanged = (from: number, to: number) =>
-	refused(409, 'lot_changed', `The lot changed since the signing challenge was issued (revision ${from}, now ${to}): review it as it stands and sign again. Nothing was decided.`);
+	refused('conflict', 'lot_changed', `The lot changed since the signing challenge was issued (revision ${from}, now ${to}): review it as it stands and sign again. Nothing was decided.`);
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -107,5 +111,5 @@ export async function consumeChallenge(tx: Tx, user: SessionUser, lotId: string,
 		)
 		.returning({ id: signatureChallenges.id, revision: signatureChallenges.lotRevision });
 	if (claimed) return claimed;
-	throw whyNot(await loadChallenge(tx, challengeId), user, lotId, decision, new Date()) ?? refused(409, 'challenge_used', 'This signing challenge has already been used. Nothing was decided.');
+	throw whyNot(await loadChallenge(tx, challengeId), user, lotId, decision, new Date()) ?? refused('conflict', 'challenge_used', 'This signing challenge has already been used. Nothing was decided.');
 }

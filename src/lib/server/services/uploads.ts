@@ -12,21 +12,24 @@ import type { UploadKind } from '$lib/schemas/document';
 import { checkUpload, type AcceptedFile, type IncomingFile, type UploadUse } from '$lib/uploads/rules';
 import type { Database, Tx } from '../db';
 import { documents } from '../db/schema';
-import { ApiError } from '../http';
+import { DomainError, type ErrorKind } from '../errors';
 import { recordAudit } from './audit';
 import { metaColumns, type DocumentMeta } from './documents';
 
-/** A refused file: the status that says it best, and an issue naming the form field. */
-export class UploadRefused extends ApiError {
-	constructor(status: number, code: string, message: string, field = 'file') {
-		super(status, code, message, [{ path: field, message }]);
+/** A refused file: the kind that says it best, and an issue naming the form field. */
+export class UploadRefused extends DomainError {
+	constructor(kind: ErrorKind, code: string, message: string, field = 'file') {
+		super(kind, code, message, [{ path: field, message }]);
 	}
 }
+
+/** The rule book's refusals (written as statuses, $lib/uploads/rules) in the domain's words. */
+const REFUSAL_KIND = { 400: 'malformed', 413: 'too_large', 415: 'unsupported_type' } as const satisfies Record<number, ErrorKind>;
 
 /** The same bytes are already attached to the lot (lot documents refuse a second copy). */
 export class DuplicateDocument extends UploadRefused {
 	constructor(readonly existing: { id: string; fileName: string }) {
-		super(409, 'duplicate_document', `This file is already attached as “${existing.fileName}”`);
+		super('conflict', 'duplicate_document', `This file is already attached as “${existing.fileName}”`);
 	}
 }
 
@@ -39,7 +42,7 @@ export async function incomingFile(value: FormDataEntryValue | null): Promise<In
 /** Check a file against the rules of its use; throws UploadRefused (naming `field`). */
 export function acceptUpload(use: UploadUse, file: IncomingFile, field = 'file'): AcceptedFile {
 	const verdict = checkUpload(use, file);
-	if (!verdict.ok) throw new UploadRefused(verdict.refusal.status, verdict.refusal.code, verdict.refusal.message, field);
+	if (!verdict.ok) throw new UploadRefused(REFUSAL_KIND[verdict.refusal.status], verdict.refusal.code, verdict.refusal.message, field);
 	return verdict.file;
 }
 

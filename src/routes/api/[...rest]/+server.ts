@@ -1,4 +1,5 @@
-import { api, ApiError } from '$lib/server/http';
+import { NotFound } from '$lib/server/errors';
+import { api } from '$lib/server/http';
 import type { RequestHandler } from './$types';
 
 /**
@@ -6,7 +7,7 @@ import type { RequestHandler } from './$types';
  * answers in the API's error shape rather than with an HTML page.
  */
 const unknown: RequestHandler = api(async ({ url }) => {
-	throw new ApiError(404, 'not_found', `No API endpoint at ${url.pathname}`);
+	throw new NotFound(`No API endpoint at ${url.pathname}`);
 });
 
 export const GET = unknown;

@@ -1,16 +1,16 @@
 import { error, fail } from '@sveltejs/kit';
+import { refusalOf } from '$lib/server/action-errors';
 import { can } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
 import {
 	BEFORE_INSPECTION,
 	cancelLot,
 	getLotForUser,
-	LotConflictError,
 	lotTimeline,
 	markAwaitingArrival
 } from '$lib/server/services/lots';
 import { listDocuments, missingDocuments } from '$lib/server/services/documents';
-import { UploadRefused, uploadDocument } from '$lib/server/services/uploads';
+import { uploadDocument } from '$lib/server/services/uploads';
 import { getPart } from '$lib/server/services/parts';
 import { currentSeverity } from '$lib/server/services/switching';
 import { documentKindSchema } from '$lib/schemas/document';
@@ -73,7 +73,11 @@ async function lotOr404(locals: App.Locals, id: string) {
 	return lot;
 }
 
-const conflictMessage = (e: unknown) => (e instanceof LotConflictError ? e.message : null);
+/** A step the service refused (the lot moved on, a file not accepted…), as this page shows it. */
+function refused(action: string, e: unknown) {
+	const refusal = refusalOf(e);
+	return fail(refusal.status, { action, ok: false, message: refusal.message });
+}
 
 export const actions: Actions = {
 	release: async ({ locals, params }) => {
@@ -82,9 +86,7 @@ export const actions: Actions = {
 		try {
 			await markAwaitingArrival(getDb(), locals.user!, params.id);
 		} catch (e) {
-			const message = conflictMessage(e);
-			if (message) return fail(409, { action: 'release', ok: false, message });
-			throw e;
+			return refused('release', e);
 		}
 		return { action: 'release', ok: true, message: 'Released: receiving now expects this lot.' };
 	},
@@ -98,9 +100,7 @@ export const actions: Actions = {
 		try {
 			await cancelLot(getDb(), locals.user!, params.id, reason || undefined);
 		} catch (e) {
-			const message = conflictMessage(e);
-			if (message) return fail(409, { action: 'cancel', ok: false, message });
-			throw e;
+			return refused('cancel', e);
 		}
 		return { action: 'cancel', ok: true, message: 'The lot is cancelled.' };
 	},
@@ -122,8 +122,7 @@ export const actions: Actions = {
 			});
 			return { action: 'upload', ok: true, message: `Attached “${doc.fileName}”.` };
 		} catch (e) {
-			if (e instanceof UploadRefused) return fail(e.status, { action: 'upload', ok: false, message: e.message });
-			throw e;
+			return refused('upload', e);
 		}
 	}
 };

@@ -1,10 +1,11 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { setError, superValidate } from 'sveltekit-superforms';
+import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
 import { validateForm } from '$lib/server/forms';
 import { getDb } from '$lib/server/db';
-import { createLot, InputError } from '$lib/server/services/lots';
+import { refuseForm } from '$lib/server/action-errors';
+import { createLot } from '$lib/server/services/lots';
 import { lotFormSchema, lotInputFromForm, type LotForm } from '$lib/schemas/lot';
 import { clientAddress } from '$lib/server/auth';
 import { formField, lotFormChoices } from '../lot-form.server';
@@ -35,9 +36,7 @@ export const actions: Actions = {
 			const lot = await createLot(getDb(), user!, lotInputFromForm(form.data), { status: 'draft', ip: clientAddress(event) });
 			lotId = lot.id;
 		} catch (e) {
-			if (!(e instanceof InputError)) throw e;
-			for (const issue of e.issues) setError(form, formField(issue.path), issue.message);
-			return fail(400, { form });
+			return fail(refuseForm(form, e, formField), { form });
 		}
 		redirect(303, `/lots/${lotId}?registered=1`);
 	}

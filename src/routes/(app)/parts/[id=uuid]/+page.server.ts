@@ -1,5 +1,5 @@
 import { error, fail } from '@sveltejs/kit';
-import { message, setError, superValidate } from 'sveltekit-superforms';
+import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
 import { validateForm } from '$lib/server/forms';
@@ -12,11 +12,10 @@ import {
 	updatePartDescriptive,
 	updatePartLimits
 } from '$lib/server/services/parts';
-import { InputError } from '$lib/server/services/lots';
 import { listSuppliers } from '$lib/server/services/suppliers';
 import { currentSeverity } from '$lib/server/services/switching';
 import { resumeInspection } from '$lib/server/services/sampling-state';
-import { ApiError } from '$lib/server/http';
+import { refuseForm } from '$lib/server/action-errors';
 import { resumeSchema } from '$lib/schemas/resume';
 import { partDescriptiveSchema, partLimitsSchema } from '$lib/schemas/part';
 import type { Actions, PageServerLoad } from './$types';
@@ -54,9 +53,7 @@ export const actions: Actions = {
 			const saved = await updatePartDescriptive(getDb(), event.locals.user!, event.params.id, form.data);
 			if (!saved) error(404, 'No such part');
 		} catch (e) {
-			if (!(e instanceof InputError)) throw e;
-			for (const issue of e.issues) setError(form, issue.path as 'part_number', issue.message);
-			return fail(400, { descriptiveForm: form });
+			return fail(refuseForm(form, e), { descriptiveForm: form });
 		}
 		message(form, 'Part details saved.');
 		return { descriptiveForm: form };
@@ -69,9 +66,7 @@ export const actions: Actions = {
 			const saved = await updatePartLimits(getDb(), event.locals.user!, event.params.id, form.data);
 			if (!saved) error(404, 'No such part');
 		} catch (e) {
-			if (!(e instanceof InputError)) throw e;
-			for (const issue of e.issues) setError(form, issue.path as 'model_id', issue.message);
-			return fail(400, { limitsForm: form });
+			return fail(refuseForm(form, e), { limitsForm: form });
 		}
 		message(form, 'Limits and sampling saved.');
 		return { limitsForm: form };
@@ -83,8 +78,7 @@ export const actions: Actions = {
 		try {
 			await resumeInspection(getDb(), event.locals.user!, event.params.id, form.data.reason);
 		} catch (e) {
-			if (!(e instanceof ApiError)) throw e;
-			return message(form, e.message, { status: e.status === 404 ? 404 : 409 });
+			return fail(refuseForm(form, e), { resumeForm: form });
 		}
 		message(form, 'Inspection resumed on tightened inspection.');
 		return { resumeForm: form };

@@ -1,11 +1,11 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { setError, superValidate } from 'sveltekit-superforms';
+import { superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
 import { validateForm } from '$lib/server/forms';
 import { getDb } from '$lib/server/db';
 import { createPart } from '$lib/server/services/parts';
-import { InputError } from '$lib/server/services/lots';
+import { refuseForm } from '$lib/server/action-errors';
 import { listSuppliers } from '$lib/server/services/suppliers';
 import { partDescriptiveSchema } from '$lib/schemas/part';
 import type { Actions, PageServerLoad } from './$types';
@@ -32,9 +32,7 @@ export const actions: Actions = {
 		try {
 			id = (await createPart(getDb(), event.locals.user!, form.data)).id;
 		} catch (e) {
-			if (!(e instanceof InputError)) throw e;
-			for (const issue of e.issues) setError(form, issue.path as 'part_number' | 'supplier_id' | 'chemistry', issue.message);
-			return fail(400, { form });
+			return fail(refuseForm(form, e), { form });
 		}
 		redirect(303, `/parts/${id}`);
 	}

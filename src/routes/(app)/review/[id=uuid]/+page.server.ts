@@ -2,7 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { message, setError, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { getDb } from '$lib/server/db';
-import { ApiError } from '$lib/server/http';
+import { orErrorPage, refusalOf } from '$lib/server/action-errors';
 import { can } from '$lib/server/policy';
 import { overrideSchema } from '$lib/schemas/decision';
 import { listDecisions } from '$lib/server/services/decision-history';
@@ -36,13 +36,13 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const user = quality(locals);
 	const lot = await getLotForUser(getDb(), user, params.id);
 	if (!lot) error(404, 'Lot not found');
-	const [report, decisions] = await Promise.all([buildReportData(getDb(), lot.id), listDecisions(getDb(), lot.id)]);
+	const [report, decisions] = await orErrorPage(Promise.all([buildReportData(getDb(), lot.id), listDecisions(getDb(), lot.id)]));
 	return {
 		lot: { id: lot.id, status: lot.status },
 		report,
 		decisions,
 		safetyText: SAFETY_RELEASE_REFUSED,
-		challenges: await signingChallenges(locals, lot, report.disposition.safety),
+		challenges: await orErrorPage(signingChallenges(locals, lot, report.disposition.safety)),
 		form: await superValidate(zod4(overrideSchema), { id: FORM_ID })
 	};
 };
@@ -62,9 +62,9 @@ export const actions: Actions = {
 			const outcome = await decideOverride(user, event.params.id, { ...form.data, password, challengeId }, event.getClientAddress());
 			return message(form, `Recorded: the lot is now ${outcome.status === 'accepted' ? 'released (accepted)' : 'rejected'}. The supplier notice is queued.`);
 		} catch (e) {
-			if (!(e instanceof ApiError)) throw e;
-			if (e.code === 'signature_invalid') return setError(form, 'password', e.message, { status: 403 });
-			return message(form, e.message, { status: e.status as 400 });
+			const refusal = refusalOf(e);
+			if (refusal.code === 'signature_invalid') return setError(form, 'password', refusal.message, { status: 403 });
+			return message(form, refusal.message, { status: refusal.status as 400 });
 		}
 	},
 	reevaluate: async (event) => {
@@ -73,8 +73,8 @@ export const actions: Actions = {
 			const outcome = await reevaluateLot(user, event.params.id);
 			return { reevaluated: outcome.status };
 		} catch (e) {
-			if (!(e instanceof ApiError)) throw e;
-			return fail(e.status, { reevaluateError: e.message });
+			const refusal = refusalOf(e);
+			return fail(refusal.status, { reevaluateError: refusal.message });
 		}
 	}
 };

@@ -2,7 +2,7 @@ import { json } from '@sveltejs/kit';
 import { api, authorize, readQuery } from '$lib/server/http';
 import { getDb } from '$lib/server/db';
 import { listNotices } from '$lib/server/services/notices';
-import { requireLot } from '$lib/server/services/portal';
+import { requireLot } from '$lib/server/route-helpers';
 import { noticesQuery } from '$lib/schemas/decision';
 import type { RequestHandler } from './$types';
 

@@ -1,10 +1,11 @@
 import { error, fail, redirect } from '@sveltejs/kit';
-import { setError, setMessage, superValidate } from 'sveltekit-superforms';
+import { setMessage, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
 import { validateForm } from '$lib/server/forms';
 import { getDb } from '$lib/server/db';
-import { BEFORE_INSPECTION, getLotForUser, InputError, LotConflictError, updateLot } from '$lib/server/services/lots';
+import { refuseForm } from '$lib/server/action-errors';
+import { BEFORE_INSPECTION, getLotForUser, LotConflictError, updateLot } from '$lib/server/services/lots';
 import { lotFormSchema, lotInputFromForm, type LotForm } from '$lib/schemas/lot';
 import { formField, lotFormChoices } from '../../lot-form.server';
 import type { Actions, PageServerLoad } from './$types';
@@ -47,12 +48,8 @@ export const actions: Actions = {
 		try {
 			await updateLot(getDb(), locals.user!, lot.id, lotInputFromForm(form.data));
 		} catch (e) {
-			if (e instanceof InputError) {
-				for (const issue of e.issues) setError(form, formField(issue.path), issue.message);
-				return fail(400, { form });
-			}
 			if (e instanceof LotConflictError) return setMessage(form, 'The lot reached the bench meanwhile; its purchase facts can no longer change.', { status: 409 });
-			throw e;
+			return fail(refuseForm(form, e, formField), { form });
 		}
 		redirect(303, `/lots/${lot.id}?edited=1`);
 	}

@@ -1,7 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
 import { readingCorrectionSchema } from '$lib/schemas/readings';
 import { strictNumberFromText, wholeNumberParam } from '$lib/schemas/fields';
-import { ApiError } from '$lib/server/http';
+import { refusalOf } from '$lib/server/action-errors';
 import { getDb } from '$lib/server/db';
 import { can } from '$lib/server/policy';
 import { evaluateLotNow } from '$lib/server/services/evaluation';
@@ -68,8 +68,8 @@ export const actions: Actions = {
 		try {
 			await correctReading(db, user, lot.id, readingId, parsed.data);
 		} catch (e) {
-			if (e instanceof ApiError) return fail(e.status, { readingId, errors: {}, message: e.message });
-			throw e;
+			const refusal = refusalOf(e);
+			return fail(refusal.status, { readingId, errors: {}, message: refusal.message });
 		}
 		return { corrected: readingId };
 	}

@@ -1,7 +1,7 @@
 import { error, fail } from '@sveltejs/kit';
 import { z } from 'zod';
 import { getDb } from '$lib/server/db';
-import { ApiError } from '$lib/server/http';
+import { orErrorPage, refusalOf } from '$lib/server/action-errors';
 import { can } from '$lib/server/policy';
 import { replySchema } from '$lib/schemas/decision';
 import { getLotForUser } from '$lib/server/services/lots';
@@ -31,7 +31,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 			partDescription: lot.partDescription,
 			decidedAt: lot.decidedAt?.toISOString() ?? null
 		},
-		notices: await portalNotices(getDb(), user, lot.id)
+		notices: await orErrorPage(portalNotices(getDb(), user, lot.id))
 	};
 };
 
@@ -44,8 +44,7 @@ async function run<T>(work: () => Promise<T>) {
 	try {
 		return { ok: true as const, value: await work() };
 	} catch (e) {
-		if (e instanceof ApiError) return { ok: false as const, status: e.status, message: e.message, field: e.issues?.[0]?.path ?? null };
-		throw e;
+		return { ok: false as const, ...refusalOf(e) };
 	}
 }
 

@@ -2,7 +2,8 @@
 // Validation is split: zod for the small header, a plain loop for the (up to 10,000) readings.
 import { json } from '@sveltejs/kit';
 import { ElectrochemError, evaluateReadings, getLibraryModel, type ReadingInput } from '$lib/electrochem';
-import { api, ApiError, authorize, parseWith, readJsonValue, unprocessable } from '$lib/server/http';
+import { TooLarge } from '$lib/server/errors';
+import { api, authorize, parseWith, readJsonValue, unprocessable } from '$lib/server/http';
 import { roundedResult } from '$lib/server/services/evaluation-body';
 import { evaluateHeader, MAX_READINGS, readingsIssues } from '$lib/schemas/electrochem';
 import type { RequestHandler } from './$types';
@@ -10,10 +11,9 @@ import type { RequestHandler } from './$types';
 function checkCount(body: unknown): void {
 	const readings = (body as { readings?: unknown } | null)?.readings;
 	if (Array.isArray(readings) && readings.length > MAX_READINGS) {
-		throw new ApiError(
-			413,
-			'too_many_readings',
+		throw new TooLarge(
 			`At most ${MAX_READINGS} readings per call; this body has ${readings.length}. Split it into several calls.`,
+			'too_many_readings',
 			[{ path: 'readings', message: `must hold at most ${MAX_READINGS} readings` }]
 		);
 	}

@@ -1,7 +1,8 @@
 import { json } from '@sveltejs/kit';
-import { ApiError, api, readJson } from '$lib/server/http';
+import { Forbidden } from '$lib/server/errors';
+import { api, readJson } from '$lib/server/http';
 import { decideOverride } from '$lib/server/services/decisions';
-import { requireLot } from '$lib/server/services/portal';
+import { requireLot } from '$lib/server/route-helpers';
 import { overrideRequestSchema } from '$lib/schemas/decision';
 import type { RequestHandler } from './$types';
 
@@ -15,7 +16,7 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = api(async (event) => {
 	const { user, lot } = await requireLot(event, event.params.id, 'lot:decide');
 	if (event.locals.authMethod !== 'session') {
-		throw new ApiError(403, 'session_required', 'A quality decision is e-signed: sign in interactively and re-enter your password (API tokens cannot sign)');
+		throw new Forbidden('A quality decision is e-signed: sign in interactively and re-enter your password (API tokens cannot sign)', 'session_required');
 	}
 	const { challenge_id: challengeId, ...body } = await readJson(event.request, overrideRequestSchema);
 	const outcome = await decideOverride(user, lot.id, { ...body, challengeId }, event.getClientAddress());

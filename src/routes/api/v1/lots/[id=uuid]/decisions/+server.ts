@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { api } from '$lib/server/http';
 import { decisionTrail } from '$lib/server/services/decision-history';
-import { requireLot } from '$lib/server/services/portal';
+import { requireLot } from '$lib/server/route-helpers';
 import { getDb } from '$lib/server/db';
 import type { RequestHandler } from './$types';
 

@@ -1,5 +1,6 @@
 import { json, type RequestEvent } from '@sveltejs/kit';
-import { api, ApiError, authorize, notFound, parseWith } from '$lib/server/http';
+import { statusOf } from '$lib/server/error-status';
+import { api, authorize, badRequest, conflict, notFound, parseWith, unprocessable } from '$lib/server/http';
 import { getDb } from '$lib/server/db';
 import { getLotForUser } from '$lib/server/services/lots';
 import { documentJson, listDocuments } from '$lib/server/services/documents';
@@ -30,17 +31,17 @@ export const GET: RequestHandler = api(async (event) => {
 async function readUpload(request: Request): Promise<{ kind: unknown; file: File }> {
 	const length = Number(request.headers.get('content-length') ?? 0);
 	if (length > MAX_DOCUMENT_BYTES + MULTIPART_OVERHEAD) {
-		throw new UploadRefused(413, 'file_too_large', `The upload is ${(length / 1048576).toFixed(1)} MB; the limit is ${MAX_DOCUMENT_BYTES / 1048576} MB per file`);
+		throw new UploadRefused('too_large', 'file_too_large', `The upload is ${(length / 1048576).toFixed(1)} MB; the limit is ${MAX_DOCUMENT_BYTES / 1048576} MB per file`);
 	}
 	let form: FormData;
 	try {
 		form = await request.formData();
 	} catch {
-		throw new ApiError(400, 'bad_request', 'Send the document as multipart/form-data with the fields kind and file');
+		throw badRequest('Send the document as multipart/form-data with the fields kind and file');
 	}
 	const file = form.get('file');
 	if (!(file instanceof File)) {
-		throw new ApiError(422, 'unprocessable', 'The upload has no file', [{ path: 'file', message: 'Attach the document as the field "file"' }]);
+		throw unprocessable('The upload has no file', [{ path: 'file', message: 'Attach the document as the field "file"' }]);
 	}
 	return { kind: form.get('kind'), file };
 }
@@ -54,7 +55,7 @@ export const POST: RequestHandler = api(async (event) => {
 	const user = authorize(event, 'document:upload');
 	const lot = await getLotForUser(getDb(), user, event.params.id);
 	if (!lot) throw notFound('lot');
-	if (lot.status === 'cancelled') throw new ApiError(409, 'conflict', 'The lot is cancelled; documents can no longer be added');
+	if (lot.status === 'cancelled') throw conflict('The lot is cancelled; documents can no longer be added');
 	const { kind, file } = await readUpload(event.request);
 	const { kind: validKind } = parseWith(documentUploadSchema, { kind }, 'The upload');
 	try {
@@ -64,6 +65,6 @@ export const POST: RequestHandler = api(async (event) => {
 	} catch (error) {
 		if (!(error instanceof DuplicateDocument)) throw error; // other refusals answer through api()
 		const body = { error: { code: error.code, message: error.message, issues: error.issues, existing_document_id: error.existing.id, existing_file_name: error.existing.fileName } };
-		return json(body, { status: error.status });
+		return json(body, { status: statusOf(error.kind) });
 	}
 });

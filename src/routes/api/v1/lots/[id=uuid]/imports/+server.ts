@@ -20,7 +20,7 @@ async function fileOf(form: FormData): Promise<MeterFile> {
 	const value = form.get('file');
 	if (!(value instanceof File)) throw unprocessable('The `file` field is missing', [{ path: 'file', message: 'choose a CSV or XLSX file' }]);
 	const incoming = await incomingFile(value);
-	if (!incoming) throw new UploadRefused(400, 'empty_file', `“${value.name || 'the file'}” is empty.`);
+	if (!incoming) throw new UploadRefused('malformed', 'empty_file', `“${value.name || 'the file'}” is empty.`);
 	const accepted = acceptUpload('meter_file', incoming);
 	return { name: accepted.fileName, bytes: accepted.bytes, format: accepted.type === 'xlsx' ? 'xlsx' : 'csv' };
 }
@@ -50,7 +50,7 @@ export const POST: RequestHandler = api(async (event) => {
 	if (!lot) throw notFound('lot');
 	// Refuse an oversized upload before reading it (multipart framing adds a little).
 	if (Number(event.request.headers.get('content-length') ?? 0) > MAX_IMPORT_BYTES + 64 * 1024) {
-		throw new UploadRefused(413, 'file_too_large', `Meter files are limited to ${MAX_IMPORT_BYTES / 1024 / 1024} MB`);
+		throw new UploadRefused('too_large', 'file_too_large', `Meter files are limited to ${MAX_IMPORT_BYTES / 1024 / 1024} MB`);
 	}
 	const form = await readForm(event.request);
 	const file = await fileOf(form);

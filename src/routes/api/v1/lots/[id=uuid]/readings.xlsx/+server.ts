@@ -2,7 +2,7 @@ import { api } from '$lib/server/http';
 import { getDb } from '$lib/server/db';
 import { lotReadingsXlsx } from '$lib/server/reports';
 import { buildReportData, fileHeaders, XLSX_MIME } from '$lib/server/services/report-data';
-import { requireLot } from '$lib/server/services/portal';
+import { requireLot } from '$lib/server/route-helpers';
 
 import type { RequestHandler } from './$types';
 

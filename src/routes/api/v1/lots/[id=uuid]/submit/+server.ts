@@ -1,7 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { api } from '$lib/server/http';
 import { submitLot } from '$lib/server/services/decisions';
-import { requireLot } from '$lib/server/services/portal';
+import { requireLot } from '$lib/server/route-helpers';
 import type { RequestHandler } from './$types';
 
 /** POST /api/v1/lots/{id}/submit — the engine evaluates the complete sample and decides (→ the evaluation). */

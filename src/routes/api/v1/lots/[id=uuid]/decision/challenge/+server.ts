@@ -1,7 +1,8 @@
 import { json } from '@sveltejs/kit';
-import { ApiError, api, readJson } from '$lib/server/http';
+import { Forbidden } from '$lib/server/errors';
+import { api, readJson } from '$lib/server/http';
 import { getDb } from '$lib/server/db';
-import { requireLot } from '$lib/server/services/portal';
+import { requireLot } from '$lib/server/route-helpers';
 import { challengeJson, issueChallenge } from '$lib/server/services/signature-challenges';
 import { challengeRequestSchema } from '$lib/schemas/decision';
 import type { RequestHandler } from './$types';
@@ -15,7 +16,7 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = api(async (event) => {
 	const { user, lot } = await requireLot(event, event.params.id, 'lot:decide');
 	if (event.locals.authMethod !== 'session') {
-		throw new ApiError(403, 'session_required', 'A quality decision is e-signed: sign in interactively to ask for a signing challenge (API tokens cannot sign)');
+		throw new Forbidden('A quality decision is e-signed: sign in interactively to ask for a signing challenge (API tokens cannot sign)', 'session_required');
 	}
 	const { decision } = await readJson(event.request, challengeRequestSchema);
 	const challenge = await issueChallenge(getDb(), user, lot.id, decision);
