@@ -6,7 +6,7 @@ import { and, desc, eq } from 'drizzle-orm';
 import type { Database, Tx } from '../db';
 import { lots, notices, organisations, parts, supplierContacts, users } from '../db/schema';
 import { renderNotice, type FinalStatus, type NoticeKind } from '../mail/templates';
-import { notFound } from '../http';
+import { NotFound } from '../errors';
 import { recordAudit } from './audit';
 import { appOrigin } from '../origin';
 import type { SessionUser } from '../../roles';
@@ -56,7 +56,7 @@ export async function queueNotice(tx: Tx, input: QueueNoticeInput): Promise<stri
 		.innerJoin(parts, eq(parts.id, lots.partId))
 		.innerJoin(organisations, eq(organisations.id, lots.supplierId))
 		.where(eq(lots.id, input.lotId));
-	if (!row) throw notFound('lot');
+	if (!row) throw new NotFound('lot');
 	const recipients = await recipientsFor(tx, row.lot.supplierId);
 	if (recipients.length === 0) {
 		await recordAudit(tx, { action: 'notice.no_recipients', lotId: input.lotId, entityType: 'lot', entityId: input.lotId });
@@ -142,8 +142,8 @@ export async function listNotices(db: Db, user: SessionUser, filter: { lotId?: s
 /** One notice, or 404 when it does not exist or belongs to another supplier. */
 export async function getNoticeForUser(db: Db, user: SessionUser, id: string) {
 	const [n] = await db.select().from(notices).where(eq(notices.id, id));
-	if (!n) throw notFound('notice');
-	if (user.role === 'supplier' && n.organisationId !== user.organisationId) throw notFound('notice');
+	if (!n) throw new NotFound('notice');
+	if (user.role === 'supplier' && n.organisationId !== user.organisationId) throw new NotFound('notice');
 	return n;
 }
 
