@@ -12,7 +12,7 @@ function newestMtime(path) {
 /** `logFile`: send vite's output there (shown only when the build fails) instead of the terminal. */
 export async function ensureBuild(root, { force = false, logFile, log = console.log } = {}) {
 	const handler = join(root, 'build', 'handler.js');
-	const inputs = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'tailwind.config.ts', 'package-lock.json'];
+	const inputs = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'package-lock.json'];
 	const sourcesTime = Math.max(...inputs.map((p) => join(root, p)).filter(existsSync).map(newestMtime));
 	if (!force && existsSync(handler) && statSync(handler).mtimeMs > sourcesTime) return;
 	log('[restvolt] building the app (vite build, about a minute)…');

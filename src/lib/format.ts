@@ -78,6 +78,17 @@ export function socSigma(soc: Maybe, sigma: Maybe, decimals = 0): string {
 	return `${percent(soc, decimals)} ±${NBSP}${percent(sigma, decimals)}`;
 }
 
+const MEBIBYTE = 1024 * 1024;
+
+/** Megabytes as uploads count them (1 MB = 1024 × 1024 bytes), to 0.1 MB. */
+export const megabytes = (bytes: Maybe, decimals = 1) => withUnit(fixed(known(bytes) ? bytes / MEBIBYTE : bytes, decimals), 'MB');
+
+/** A stored file's size: whole KB (at least 1) under 1 MB, else MB to 0.1. */
+export function fileSize(bytes: Maybe): string {
+	if (!known(bytes)) return MISSING;
+	return bytes < MEBIBYTE ? withUnit(String(Math.max(1, Math.round(bytes / 1024))), 'KB') : megabytes(bytes);
+}
+
 const GROUPED = new Intl.NumberFormat('en-GB', { maximumFractionDigits: 0 });
 
 /** A whole count with thousands separators: 12500 → "12,500". */

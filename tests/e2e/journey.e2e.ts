@@ -258,8 +258,8 @@ test('3. the new inspector records the sample by keyboard and from a meter file'
 	await expect(entry).toContainText(`${expected.expected_ocv_v!.toFixed(3)} V`); // OCV expected at the declared 30 %
 	await expect(entry).toContainText(`+${(expected.residual_v! * 1000).toFixed(1)} mV`);
 	// The row already says what the server will hold the lot for: the unit reads above the air limit.
-	await expect(entry.locator('[data-finding="above 30 % air limit"]')).toBeVisible();
-	await expect(entry.locator('[data-finding="in window"]')).toHaveCount(0);
+	await expect(entry.locator('[data-finding="above_air_limit"]')).toContainText('above 30 % air limit');
+	await expect(entry.locator('[data-finding="in_window"]')).toHaveCount(0);
 	await shot(page, 'inspector-live-feedback');
 	await page.keyboard.press('Enter');
 	await expect(page.getByTestId('bench-row').first()).toHaveAttribute('data-state', 'saved');
@@ -298,18 +298,18 @@ test('3. the new inspector records the sample by keyboard and from a meter file'
 		await route.continue();
 	});
 	await page.getByRole('button', { name: `Import ${METER.length} reading(s)` }).click();
-	await expect(page.getByTestId('meter-import').getByRole('status').first()).toContainText(/uploading \d+ %|processing on the server…/);
+	await expect(page.getByTestId('meter-import').getByRole('status').first()).toContainText(/uploading \d+\s%|processing on the server…/);
 	await expect(page.getByRole('button', { name: `Import ${METER.length} reading(s)` })).toBeDisabled(); // no double import while busy
 	await shot(page, 'inspector-import-progress');
 	await expect(page.getByTestId('import-message')).toHaveText(`Imported ${METER.length} reading(s) from meter-vc42j.csv.`);
 	await page.unroute('**/api/v1/lots/*/imports');
 	await expect(server).toContainText(`${PLAN.sample_size} of ${PLAN.sample_size}`);
 	await expect(page.getByTestId('server-status')).toHaveAttribute('data-status', 'hold');
-	await expect(page.getByTestId('server-status')).toHaveText(/On hold/);
+	await expect(page.getByTestId('server-status')).toHaveText('Hold'); // what the rules propose (src/lib/status.ts VERDICT)
 	await expect(server.locator('[data-reason="dg_soc_over_limit"]')).toContainText(HOLD_TEXT);
 	await expect(server).toContainText(`0 nonconforming (Ac ${PLAN.accept} / Re ${PLAN.reject})`);
 	await expect(page.getByText('The sample is complete.')).toBeVisible();
-	await expect(page.locator('[data-finding="above 30 % air limit"]')).toHaveCount(PLAN.sample_size); // every row, typed or imported
+	await expect(page.locator('[data-finding="above_air_limit"]')).toHaveCount(PLAN.sample_size); // every row, typed or imported
 	await shot(page, 'inspector-sample-complete');
 });
 

@@ -62,7 +62,7 @@ test('an engineer explores LFP, changes the temperature and sees a pasted curve 
 	await shot(page, 'lfp-at-25c');
 
 	await page.getByLabel('Cell temperature (°C)').fill('5');
-	await expect(page.getByText(/5 °C is outside the range this model is valid for/)).toBeVisible();
+	await expect(page.getByText(/5\s°C is outside the range this model is valid for/)).toBeVisible();
 	await expect(chart.locator('.model-curve')).not.toHaveAttribute('d', pathAt25!);
 	await expect(page.locator('aside')).toContainText('at 5 °C');
 	await shot(page, 'lfp-at-5c');
@@ -70,7 +70,7 @@ test('an engineer explores LFP, changes the temperature and sees a pasted curve 
 	await pasteReference(page, referenceCsv('LFP'));
 	await expect(page.getByText('21 points read; SOC read as %.')).toBeVisible();
 	await expect(page.getByTestId('fit-verdict')).toContainText('Fit accepted');
-	await expect(page.getByTestId('fit-rmse')).toHaveText(/^\d+\.\d\d mV$/);
+	await expect(page.getByTestId('fit-rmse')).toHaveText(/^\d+\.\d\d\smV$/); // number and unit joined by a no-break space ($lib/format)
 	await expect(chart.locator('.fit-curve')).toHaveCount(1);
 	// one residual marker (a square) per reference point under the main plot
 	await expect(chart.locator('.residuals [data-shape="square"]')).toHaveCount(21);

@@ -296,6 +296,10 @@ describe('reports, exports, notices and supplier isolation', () => {
 		const onHold = await withClient(db.url, async (c) => (await c.query(`select lot_code from lots where status = 'on_hold'`)).rows.map((r) => r.lot_code));
 		const listed = values.filter((row) => onHold.includes(String(row[0])));
 		expect(listed).toHaveLength(onHold.length);
+		// states and filters in Restvolt's words (src/lib/status.ts), not the API's codes
+		expect(String(values[0][0])).toBe('Filters applied: status = On hold');
+		expect(listed.every((row) => row[6] === 'On hold')).toBe(true);
+		expect(codes).not.toContain('on_hold');
 		const bad = await fetch(`${app.url}/api/v1/lots.xlsx?status=nonsense`, { headers: { authorization: `Bearer ${buyer.token}` } });
 		expect(bad.status).toBe(400);
 	});

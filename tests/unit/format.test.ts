@@ -6,7 +6,9 @@ import {
 	count,
 	dateOnly,
 	dateTime,
+	fileSize,
 	fixed,
+	megabytes,
 	millivolts,
 	milliohms,
 	MISSING,
@@ -77,6 +79,14 @@ describe('numbers with units', () => {
 			expect(text).toMatch(/\d\u00a0\S+$/);
 			expect(text).not.toContain(' ');
 		}
+	});
+
+	it('writes file sizes in KB under 1 MB and in MB (1024 × 1024 bytes) above', () => {
+		expect(plain(fileSize(200))).toBe('1 KB');
+		expect(plain(fileSize(150 * 1024))).toBe('150 KB');
+		expect(plain(fileSize(1024 * 1024))).toBe('1.0 MB');
+		expect(plain(megabytes(20 * 1024 * 1024 + 1))).toBe('20.0 MB');
+		expect(plain(megabytes(20 * 1024 * 1024, 0))).toBe('20 MB');
 	});
 
 	it('groups thousands and names what is counted', () => {

@@ -3,6 +3,7 @@
  * the checks in the order a person wants to hear them (empty, too large, not an allowed type, the
  * name or the declared type says otherwise). Pure, so the unit tests and the server agree.
  */
+import { megabytes } from '$lib/format';
 import { MAX_DOCUMENT_BYTES } from '$lib/schemas/document';
 import { MAX_IMPORT_BYTES } from '$lib/schemas/readings';
 import { cleanFileName, extensionOf } from './file-name';
@@ -60,7 +61,6 @@ const SNIFFED_WORDS: Record<Sniffed, string> = {
 	empty: 'empty'
 };
 
-const mb = (bytes: number) => `${(bytes / (1024 * 1024)).toFixed(1)} MB`;
 
 /** The display form of the client's name for messages: its last segment, printable, short. */
 const shown = (name: string) => {
@@ -83,7 +83,7 @@ export function checkUpload(use: UploadUse, file: IncomingFile): UploadVerdict {
 	const name = shown(file.name);
 	if (file.bytes.byteLength === 0) return refuse(400, 'empty_file', `“${name}” is empty.`);
 	if (file.bytes.byteLength > rule.maxBytes) {
-		return refuse(413, 'file_too_large', `“${name}” is ${mb(file.bytes.byteLength)}; the limit is ${mb(rule.maxBytes)}.`);
+		return refuse(413, 'file_too_large', `“${name}” is ${megabytes(file.bytes.byteLength)}; the limit is ${megabytes(rule.maxBytes)}.`);
 	}
 	const sniffed = sniff(file.bytes);
 	const ext = extensionOf(file.name);

@@ -133,7 +133,7 @@ describe('checkUpload', () => {
 		big.set(PDF);
 		const r = refusal(checkUpload('lot_document', { name: 'big.pdf', declaredType: 'application/pdf', bytes: big }));
 		expect(r).toMatchObject({ status: 413, code: 'file_too_large' });
-		expect(r?.message).toContain('the limit is 20.0 MB');
+		expect(r?.message).toContain('the limit is 20.0\u00a0MB'); // $lib/format joins number and unit with a no-break space
 	});
 
 	it('accepts what each use allows, with the stored type and a cleaned name', async () => {

@@ -1,6 +1,6 @@
 import { pairColumns, paragraph, type Pair } from './blocks';
 import { ampereHours, count, dateTime, millivolts, percent, quantity, volts, MISSING } from '$lib/format';
-import { DECISION_KIND, INSPECTION_SEVERITY, LOT_STATUS, TRANSPORT, wordOf } from '$lib/status';
+import { DECISION_KIND, INSPECTION_SEVERITY, LOT_STATUS, TRANSPORT, VARIABLES_RESULT, wordOf } from '$lib/status';
 import { sectionTitle, type Cursor } from './layout';
 import { palette } from './palette';
 import type { ReportData } from './types';
@@ -76,7 +76,7 @@ export function drawStatsSection(cursor: Cursor, data: ReportData): void {
 		pairColumns(cursor, left, right);
 	}
 	if (variables) {
-		paragraph(cursor, `Variables check (${variables.method}): ${variables.result}. ${variables.detail}`, { size: 9, color: palette.ink });
+		paragraph(cursor, `Variables check (${variables.method}): ${wordOf(VARIABLES_RESULT, variables.result)}. ${variables.detail}`, { size: 9, color: palette.ink });
 		cursor.gap(6);
 	}
 }

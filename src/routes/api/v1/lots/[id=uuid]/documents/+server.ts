@@ -2,6 +2,7 @@ import { json, type RequestEvent } from '@sveltejs/kit';
 import { statusOf } from '$lib/server/error-status';
 import { api, authorize, badRequest, conflict, notFound, parseWith, unprocessable } from '$lib/server/http';
 import { getDb } from '$lib/server/db';
+import { megabytes } from '$lib/format';
 import { getLotForUser } from '$lib/server/services/lots';
 import { documentJson, listDocuments } from '$lib/server/services/documents';
 import { DuplicateDocument, UploadRefused, uploadDocument } from '$lib/server/services/uploads';
@@ -31,7 +32,7 @@ export const GET: RequestHandler = api(async (event) => {
 async function readUpload(request: Request): Promise<{ kind: unknown; file: File }> {
 	const length = Number(request.headers.get('content-length') ?? 0);
 	if (length > MAX_DOCUMENT_BYTES + MULTIPART_OVERHEAD) {
-		throw new UploadRefused('too_large', 'file_too_large', `The upload is ${(length / 1048576).toFixed(1)} MB; the limit is ${MAX_DOCUMENT_BYTES / 1048576} MB per file`);
+		throw new UploadRefused('too_large', 'file_too_large', `The upload is ${megabytes(length)}; the limit is ${megabytes(MAX_DOCUMENT_BYTES, 0)} per file`);
 	}
 	let form: FormData;
 	try {
