@@ -24,7 +24,8 @@ export function useServiceDatabase(label: string, options: { demo?: boolean } = 
 		const db = await freshDatabase(label, options);
 		handle.url = db.url;
 		drop = db.drop;
-		process.env.DATABASE_URL = db.url;
+		// The services run with the app's own least-privileged role, as in the running app.
+		process.env.DATABASE_URL = db.appUrl;
 	});
 	afterAll(async () => {
 		await closeDb();
