@@ -39,6 +39,7 @@ test('a quality manager enrols from the header menu, then signs in with password
 	expect(secret).toMatch(/^([A-Z2-7]{4} ){7}[A-Z2-7]{4}$/);
 	await shot(page, 'set-up');
 
+	await page.getByLabel('Password').fill('restvolt-demo-2026');
 	await page.getByLabel('6-digit code').fill(totpCode(secret));
 	await page.getByRole('button', { name: 'Turn on' }).click();
 	await expect(page.getByTestId('factor-state')).toContainText('● On');

@@ -29,6 +29,7 @@ const INSPECTOR2 = 'inspector2@kestrel-mobility.example';
 const ADMIN = 'admin@kestrel-mobility.example';
 const BUYER = 'buyer@kestrel-mobility.example';
 const WRONG_CODE_TEXT = 'That code does not match.';
+const ENROL_REFUSED_TEXT = 'That password and code do not match.';
 const THROTTLED_TEXT = 'Too many attempts';
 
 /** A session QUALITY signed in to with password and code, kept for the last describe (a lost phone). */
@@ -83,7 +84,7 @@ async function startEnrolment(base: string, cookie: string): Promise<{ secret: s
 /** Enrol a person completely through the forms (with the code of now + `stepsAhead` steps); returns the secret. */
 async function enrol(base: string, cookie: string, stepsAhead = 0): Promise<string> {
 	const { secret } = await startEnrolment(base, cookie);
-	const confirm = await postForm(base, '/account/security?/confirm', { code: totpCode(secret, stepsAhead) }, cookie);
+	const confirm = await postForm(base, '/account/security?/confirm', { password: DEMO_PASSWORD, code: totpCode(secret, stepsAhead) }, cookie);
 	expect(confirm.status, await confirm.clone().text()).toBe(303);
 	return secret;
 }
@@ -113,9 +114,9 @@ describe('enrolment on /account/security', () => {
 		expect(started.html).toMatch(/<img[^>]+src="data:image\/svg\+xml;base64,/);
 		expect(started.html).toContain('set-up started, not confirmed');
 
-		const wrong = await postForm(app.url, '/account/security?/confirm', { code: wrongCode(secret) }, cookie);
+		const wrong = await postForm(app.url, '/account/security?/confirm', { password: DEMO_PASSWORD, code: wrongCode(secret) }, cookie);
 		expect(wrong.status).toBe(400);
-		expect(await wrong.text()).toContain(WRONG_CODE_TEXT);
+		expect(await wrong.text()).toContain(ENROL_REFUSED_TEXT);
 		const row = await factorRow(QUALITY);
 		expect(row.enabled_at).toBeNull();
 		// The key is stored sealed, never as the text shown.
@@ -130,14 +131,21 @@ describe('enrolment on /account/security', () => {
 	});
 
 	it('a form field that is not six digits is refused naming the field', async () => {
-		const res = await postForm(app.url, '/account/security?/confirm', { code: '12ab56' }, cookie);
+		const res = await postForm(app.url, '/account/security?/confirm', { password: DEMO_PASSWORD, code: '12ab56' }, cookie);
 		expect(res.status).toBe(400);
 		expect(await res.text()).toContain('Enter the 6 digits your authenticator app shows');
 	});
 
+	it('a current code without the right password does not turn it on (a stolen cookie cannot enrol a phone)', async () => {
+		const res = await postForm(app.url, '/account/security?/confirm', { password: 'not-the-password', code: totpCode(secret) }, cookie);
+		expect(res.status).toBe(400);
+		expect(await res.text()).toContain(ENROL_REFUSED_TEXT);
+		expect((await factorRow(QUALITY)).enabled_at).toBeNull();
+	});
+
 	it('a current code turns it on, audits it and ends the other sessions but not this one', async () => {
 		const otherSession = await signInApi(app.url, QUALITY);
-		const confirm = await postForm(app.url, '/account/security?/confirm', { code: totpCode(secret) }, cookie);
+		const confirm = await postForm(app.url, '/account/security?/confirm', { password: DEMO_PASSWORD, code: totpCode(secret) }, cookie);
 		expect(confirm.status).toBe(303);
 		expect(confirm.headers.get('location')).toBe('/account/security?changed=on');
 		expect((await factorRow(QUALITY)).enabled_at).not.toBeNull();

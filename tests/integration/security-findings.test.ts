@@ -125,11 +125,15 @@ describe('throttles hold under concurrency', () => {
 	it('of 30 simultaneous e-signatures with a wrong password only 5 are checked', async () => {
 		const cookie = await signInApi(app.url, QUALITY);
 		const [held] = await sql<{ id: string }>(`select id from lots where status = 'on_hold' limit 1`);
+		const headers = { cookie, origin: app.url, 'content-type': 'application/json' };
+		const issued = await fetch(`${app.url}/api/v1/lots/${held.id}/decision/challenge`, { method: 'POST', headers, body: JSON.stringify({ decision: 'reject' }) });
+		expect(issued.status).toBe(201);
+		const { challenge_id } = await issued.json();
 		const sign = (i: number) =>
 			fetch(`${app.url}/api/v1/lots/${held.id}/decision`, {
 				method: 'POST',
-				headers: { cookie, origin: app.url, 'content-type': 'application/json' },
-				body: JSON.stringify({ decision: 'reject', reason: 'Parallel signature attempt', password: `wrong-${i}` })
+				headers,
+				body: JSON.stringify({ decision: 'reject', reason: 'Parallel signature attempt', password: `wrong-${i}`, challenge_id })
 			});
 		const statuses = (await Promise.all(Array.from({ length: 30 }, (_, i) => sign(i)))).map((r) => r.status);
 		expect(statuses.filter((s) => s === 429)).toHaveLength(25);

@@ -8,8 +8,14 @@ export const totpCode = z
 	.transform((v) => v.replace(/\s+/g, ''))
 	.pipe(z.string().regex(/^\d{6}$/, 'Enter the 6 digits your authenticator app shows'));
 
-/** Confirming enrolment: the first code from the newly added secret. */
-export const confirmSecondFactor = z.object({ code: totpCode });
+/**
+ * Confirming enrolment: the password and the first code from the newly added secret. The password
+ * keeps someone holding a stolen session cookie from putting the account on their own phone.
+ */
+export const confirmSecondFactor = z.object({
+	password: z.string().min(1, 'Enter your password').max(1024),
+	code: totpCode
+});
 
 /** Turning the factor off: the password and a current code. */
 export const turnOffSecondFactor = z.object({

@@ -124,9 +124,14 @@ async function throttled(user: SessionUser, ip: string | null, attempt: (tx: Tx)
 }
 
 /** Confirm a pending enrolment with a current code: the factor is on, the person's other sessions end. */
-export async function confirmEnrolment(user: SessionUser, code: string, keepSessionId: string | null, ip: string | null): Promise<CodeOutcome> {
+export async function confirmEnrolment(
+	user: SessionUser,
+	input: { password: string; code: string },
+	keepSessionId: string | null,
+	ip: string | null
+): Promise<CodeOutcome> {
 	const outcome = await throttled(user, ip, async (tx) => {
-		if (!(await useCode(tx, user.id, code, 'pending'))) return false;
+		if (!(await passwordMatches(tx, user.id, input.password)) || !(await useCode(tx, user.id, input.code, 'pending'))) return false;
 		await tx.update(secondFactors).set({ enabledAt: new Date() }).where(eq(secondFactors.userId, user.id));
 		await endOtherSessions(tx, user.id, keepSessionId, 'second_factor_changed');
 		await recordAudit(tx, auditEntry(user, 'auth.second_factor_enabled', ip));
@@ -134,6 +139,11 @@ export async function confirmEnrolment(user: SessionUser, code: string, keepSess
 	});
 	if (outcome === 'invalid') await audit(user, 'auth.second_factor_setup_failed', ip);
 	return outcome;
+}
+
+async function passwordMatches(tx: Tx, userId: string, password: string): Promise<boolean> {
+	const [row] = await tx.select({ passwordHash: users.passwordHash }).from(users).where(eq(users.id, userId));
+	return !!row?.passwordHash && (await verify(row.passwordHash, password).catch(() => false));
 }
 
 /** Turn the factor off: needs the password and a current code; the person's other sessions end. */
@@ -144,10 +154,8 @@ export async function turnOffSecondFactor(
 	ip: string | null
 ): Promise<CodeOutcome> {
 	const outcome = await throttled(user, ip, async (tx) => {
-		const [row] = await tx.select({ passwordHash: users.passwordHash }).from(users).where(eq(users.id, user.id));
-		const passwordOk = !!row?.passwordHash && (await verify(row.passwordHash, input.password).catch(() => false));
 		// The code is checked (and used up) only after a right password.
-		if (!passwordOk || !(await useCode(tx, user.id, input.code, 'on'))) return false;
+		if (!(await passwordMatches(tx, user.id, input.password)) || !(await useCode(tx, user.id, input.code, 'on'))) return false;
 		await tx.delete(secondFactors).where(eq(secondFactors.userId, user.id));
 		await endOtherSessions(tx, user.id, keepSessionId, 'second_factor_changed');
 		await recordAudit(tx, auditEntry(user, 'auth.second_factor_disabled', ip));

@@ -47,7 +47,7 @@ export const load: PageServerLoad = async ({ locals, url, setHeaders }) => {
 	};
 };
 
-const WRONG_CODE = 'That code does not match. Enter the code your app shows now; it changes every 30 seconds.';
+const WRONG_CODE = 'That password and code do not match. Enter your password and the code your app shows now; it changes every 30 seconds.';
 
 function refusal(outcome: Exclude<CodeOutcome, 'done'>, wrong: string) {
 	return outcome === 'throttled' ? { text: THROTTLED_MESSAGE, status: 429 as const } : { text: wrong, status: 400 as const };
@@ -66,11 +66,13 @@ export const actions: Actions = {
 	confirm: async (event) => {
 		const user = staff(event.locals);
 		const form = await superValidate(event, zod4(confirmSecondFactor), { id: 'confirm' });
+		const { password, code } = form.data;
+		form.data.password = ''; // never echo a password back to the browser
+		form.data.code = '';
 		if (!form.valid) return fail(400, { form });
-		const outcome = await confirmEnrolment(user, form.data.code, event.locals.sessionId, clientAddress(event));
+		const outcome = await confirmEnrolment(user, { password, code }, event.locals.sessionId, clientAddress(event));
 		if (outcome === 'done') redirect(303, `${HERE}?changed=on`);
 		const { text, status } = refusal(outcome, WRONG_CODE);
-		form.data.code = '';
 		return message(form, text, { status });
 	},
 
