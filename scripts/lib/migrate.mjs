@@ -1,5 +1,7 @@
-// Applies the committed SQL migrations in drizzle/ (a second run does nothing), then the app role's
-// grants (scripts/lib/roles.mjs). Run it as the owner role, so the tables it creates are the owner's.
+// Applies the committed SQL migrations in drizzle/ (a second run does nothing), then graphile-worker's
+// own migrations (its schema graphile_worker holds the mail outbox's jobs), then the app role's grants
+// (scripts/lib/roles.mjs). Run it as the owner role, so the tables and the schema it creates are the
+// owner's: the app role cannot create schemas, and the worker in the app only checks they are current.
 import { join } from 'node:path';
 import { grantAppRole } from './roles.mjs';
 
@@ -14,5 +16,10 @@ export async function migrateDatabase(databaseUrl, root) {
 	} finally {
 		await pool.end();
 	}
+	const { runMigrations, Logger } = await import('graphile-worker');
+	const quiet = new Logger(() => (level, message) => {
+		if (level === 'error') console.error(message);
+	});
+	await runMigrations({ connectionString: databaseUrl, maxPoolSize: 1, logger: quiet });
 	await grantAppRole(databaseUrl);
 }

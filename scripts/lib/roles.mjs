@@ -54,7 +54,8 @@ export async function roleExists(url, role) {
 /**
  * Make OWNER_ROLE the owner of a database made before the roles existed (an older `npm start`
  * cluster or a restored backup): the database, the migration bookkeeping and every object in
- * `public`. Needs a superuser URL of that database. Does nothing when all is already owned.
+ * `public` and in graphile-worker's schema. Needs a superuser URL of that database. Does nothing
+ * when all is already owned.
  */
 export async function handOverToOwner(superDbUrl) {
 	await withClient(superDbUrl, async (client) => {
@@ -65,25 +66,26 @@ export async function handOverToOwner(superDbUrl) {
 				r record;
 			begin
 				execute format('alter database %I owner to %I', current_database(), owner);
-				for r in select n.nspname from pg_namespace n where n.nspname = 'drizzle' and pg_get_userbyid(n.nspowner) <> owner loop
+				for r in select n.nspname from pg_namespace n where n.nspname in ('drizzle', 'graphile_worker') and pg_get_userbyid(n.nspowner) <> owner loop
 					execute format('alter schema %I owner to %I', r.nspname, owner);
 				end loop;
 				-- Tables first: their serial and identity sequences follow them.
 				for r in select n.nspname, c.relname, c.relkind from pg_class c join pg_namespace n on n.oid = c.relnamespace
-					where n.nspname in ('public', 'drizzle') and c.relkind in ('r', 'p', 'v', 'm', 'f') and pg_get_userbyid(c.relowner) <> owner loop
+					where n.nspname in ('public', 'drizzle', 'graphile_worker') and c.relkind in ('r', 'p', 'v', 'm', 'f') and pg_get_userbyid(c.relowner) <> owner loop
 					execute format('alter %s %I.%I owner to %I', case r.relkind when 'v' then 'view' when 'm' then 'materialized view' when 'f' then 'foreign table' else 'table' end, r.nspname, r.relname, owner);
 				end loop;
 				for r in select n.nspname, c.relname from pg_class c join pg_namespace n on n.oid = c.relnamespace
-					where n.nspname in ('public', 'drizzle') and c.relkind = 'S' and pg_get_userbyid(c.relowner) <> owner loop
+					where n.nspname in ('public', 'drizzle', 'graphile_worker') and c.relkind = 'S' and pg_get_userbyid(c.relowner) <> owner loop
 					execute format('alter sequence %I.%I owner to %I', r.nspname, r.relname, owner);
 				end loop;
 				for r in select p.oid::regprocedure as signature from pg_proc p join pg_namespace n on n.oid = p.pronamespace
-					where n.nspname = 'public' and pg_get_userbyid(p.proowner) <> owner
+					where n.nspname in ('public', 'graphile_worker') and pg_get_userbyid(p.proowner) <> owner
 						and not exists (select 1 from pg_depend d where d.objid = p.oid and d.deptype = 'e') loop
 					execute format('alter routine %s owner to %I', r.signature, owner);
 				end loop;
 				for r in select n.nspname, t.typname from pg_type t join pg_namespace n on n.oid = t.typnamespace
-					where n.nspname = 'public' and t.typtype in ('e', 'd') and pg_get_userbyid(t.typowner) <> owner loop
+					where n.nspname in ('public', 'graphile_worker') and pg_get_userbyid(t.typowner) <> owner
+						and (t.typtype in ('e', 'd') or (t.typtype = 'c' and (select relkind from pg_class where oid = t.typrelid) = 'c')) loop
 					execute format('alter type %I.%I owner to %I', r.nspname, r.typname, owner);
 				end loop;
 			end $$`);
@@ -108,6 +110,7 @@ export async function grantAppRole(dbUrl) {
 		for (const table of APPEND_ONLY_TABLES) {
 			await client.query(`revoke update, delete, truncate, references, trigger on ${ident(table)} from ${app}`);
 		}
+		await grantJobQueue(client, app);
 		const { rows } = await client.query('select current_user as me, (select rolsuper from pg_roles where rolname = current_user) as super');
 		// Default privileges belong to the role that will create the tables: OWNER_ROLE.
 		if (rows[0].me === OWNER_ROLE || rows[0].super) {
@@ -116,6 +119,27 @@ export async function grantAppRole(dbUrl) {
 			await client.query(`${forOwner} grant usage, select on sequences to ${app}`);
 		}
 	});
+}
+
+/**
+ * graphile-worker's schema (installed by migrateDatabase as the owner): the app adds jobs through
+ * its functions (which write as the caller), runs them, and checks the schema version at start.
+ */
+async function grantJobQueue(client, app) {
+	const { rowCount } = await client.query(`select 1 from pg_namespace where nspname = 'graphile_worker'`);
+	if (rowCount === 0) return;
+	await client.query(`grant usage on schema graphile_worker to ${app}`);
+	await client.query(`grant select, insert, update, delete on all tables in schema graphile_worker to ${app}`);
+	await client.query(`grant usage, select, update on all sequences in schema graphile_worker to ${app}`);
+	await client.query(`grant execute on all functions in schema graphile_worker to ${app}`);
+	// Its tables have row-level security switched on with no policy, which only their owner passes.
+	const { rows } = await client.query(`
+		select c.relname from pg_class c join pg_namespace n on n.oid = c.relnamespace
+		where n.nspname = 'graphile_worker' and c.relkind = 'r' and c.relrowsecurity
+			and not exists (select 1 from pg_policy p where p.polrelid = c.oid and p.polname = 'restvolt_app_rows')`);
+	for (const { relname } of rows) {
+		await client.query(`create policy restvolt_app_rows on graphile_worker.${ident(relname)} to ${app} using (true) with check (true)`);
+	}
 }
 
 /**

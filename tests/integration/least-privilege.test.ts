@@ -45,6 +45,8 @@ describe('the app role', () => {
 		['TRUNCATE audit_events', 'truncate audit_events'],
 		['TRUNCATE a business table', 'truncate lots cascade'],
 		['CREATE TABLE', 'create table smuggled (id int)'],
+		['CREATE SCHEMA', 'create schema smuggled'],
+		['change the job queue', 'alter table graphile_worker._private_jobs add column smuggled text'],
 		['replica mode (skips triggers)', 'set session_replication_role = replica'],
 		['CREATE ROLE', 'create role smuggled'],
 		['change its own role', `alter role ${APP_ROLE} superuser`]
@@ -122,8 +124,9 @@ describe('a database made before the roles existed (an older npm start cluster)'
 			const owners = await withClient(urls.superUrl, async (c) => {
 				const { rows } = await c.query(`
 					select distinct pg_get_userbyid(relowner) as owner from pg_class c join pg_namespace n on n.oid = c.relnamespace
-					where n.nspname in ('public', 'drizzle') and relkind in ('r', 'S', 'v')
-					union select distinct pg_get_userbyid(proowner) from pg_proc p join pg_namespace n on n.oid = p.pronamespace where n.nspname = 'public'
+					where n.nspname in ('public', 'drizzle', 'graphile_worker') and relkind in ('r', 'S', 'v')
+					union select distinct pg_get_userbyid(proowner) from pg_proc p join pg_namespace n on n.oid = p.pronamespace where n.nspname in ('public', 'graphile_worker')
+					union select pg_get_userbyid(nspowner) from pg_namespace where nspname = 'graphile_worker'
 					union select pg_get_userbyid(datdba) from pg_database where datname = current_database()`);
 				return rows.map((r) => r.owner as string);
 			});
@@ -131,6 +134,7 @@ describe('a database made before the roles existed (an older npm start cluster)'
 			expect(await outcome(urls.appUrl, `insert into audit_events (action, details) values ('test.handover', '{}')`)).toBe('ok');
 			expect(await outcome(urls.appUrl, 'delete from audit_events')).toBe(INSUFFICIENT_PRIVILEGE);
 			expect(await outcome(urls.appUrl, 'drop table lots')).toBe(INSUFFICIENT_PRIVILEGE);
+			expect(await outcome(urls.appUrl, `select graphile_worker.add_job('test_handover', '{}'::json)`)).toBe('ok');
 		} finally {
 			await withClient(`${pgUrl}/postgres`, (c) => c.query(`drop database if exists "${name}" with (force)`));
 		}

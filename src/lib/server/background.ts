@@ -1,6 +1,6 @@
 /**
- * Background work that runs inside every app process (e.g. the mail outbox worker). Workers claim
- * rows in PostgreSQL with FOR UPDATE SKIP LOCKED, so running several processes is safe.
+ * Background work that runs inside every app process (the mail outbox's graphile-worker runner).
+ * Jobs are claimed in PostgreSQL with SKIP LOCKED, so running several processes is safe.
  * Registered workers are started once per process; tests can switch them off with WORKERS=off.
  */
 import { startOutboxWorker } from './mail/worker';

@@ -1,7 +1,7 @@
 /** Notice bodies and the outbox retry schedule (pure functions, no database). */
 import { describe, expect, it } from 'vitest';
 import { renderNotice, noticeCautions, type NoticeInput } from '../../../src/lib/server/mail/templates';
-import { backoffDelayMs, noticeMessageId, outboxOptionsFromEnv } from '../../../src/lib/server/mail/outbox';
+import { noticeMessageId, outboxOptionsFromEnv } from '../../../src/lib/server/mail/outbox';
 
 const base: NoticeInput = {
 	kind: 'hold',
@@ -51,15 +51,11 @@ describe('notice templates', () => {
 	});
 });
 
-describe('outbox schedule', () => {
-	it('doubles the pause after each failed attempt, up to the cap', () => {
-		const o = { backoffMs: 5000, backoffMaxMs: 60_000 };
-		expect([1, 2, 3, 4, 5, 6].map((n) => backoffDelayMs(n, o))).toEqual([5000, 10_000, 20_000, 40_000, 60_000, 60_000]);
-	});
-
-	it('reads its settings from the environment with safe defaults', () => {
-		expect(outboxOptionsFromEnv({})).toMatchObject({ pollMs: 2000, maxAttempts: 8, leaseMs: 120_000 });
-		expect(outboxOptionsFromEnv({ OUTBOX_POLL_MS: '150', OUTBOX_MAX_ATTEMPTS: 'nonsense' })).toMatchObject({ pollMs: 150, maxAttempts: 8 });
+describe('outbox settings', () => {
+	it('reads its poll interval from the environment with a safe default', () => {
+		expect(outboxOptionsFromEnv({})).toMatchObject({ pollMs: 2000 });
+		expect(outboxOptionsFromEnv({ OUTBOX_POLL_MS: '150' })).toMatchObject({ pollMs: 150 });
+		expect(outboxOptionsFromEnv({ OUTBOX_POLL_MS: 'nonsense' })).toMatchObject({ pollMs: 2000 });
 	});
 
 	it('gives every notice one deterministic Message-ID', () => {

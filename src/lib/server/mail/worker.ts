@@ -1,33 +1,30 @@
 /**
- * The outbox worker: every OUTBOX_POLL_MS it claims due notices (see outbox.ts for the states and
- * the at-least-once boundary), attaches the PDF inspection report and sends them over SMTP.
- * All state lives in this closure; background.ts starts it once per process, and it stops on
- * adapter-node's 'sveltekit:shutdown' after the batch in flight has finished.
+ * The outbox worker: a graphile-worker runner in every app process with the one task
+ * 'send_notice' (see outbox.ts for the states and the at-least-once boundary). The task renders the
+ * PDF inspection report, sends the notice over SMTP and records the attempt on the notice row; a
+ * thrown error makes graphile-worker retry the job later. The runner's schema is installed by
+ * `npm run migrate` as the owner role (scripts/lib/migrate.mjs); at start it only checks that the
+ * schema is current, which the app role may do. It stops on adapter-node's 'sveltekit:shutdown',
+ * after the jobs in flight have finished.
  */
-import { getDb } from '../db';
+import { Logger, run, type Runner, type Task } from 'graphile-worker';
+import { eq } from 'drizzle-orm';
+import { databaseUrl, getDb } from '../db';
+import { notices } from '../db/schema';
 import { renderInspectionReport } from '../reports';
 import { buildReportData } from '../services/report-data';
 import { createTransport, mailFrom } from './transport';
-import {
-	claimDueNotices,
-	markAttemptFailed,
-	markSent,
-	noticeMessageId,
-	outboxOptionsFromEnv,
-	type ClaimedNotice,
-	type OutboxOptions
-} from './outbox';
+import { markAttemptFailed, markSent, noticeMessageId, outboxOptionsFromEnv, SEND_NOTICE_TASK, type OutboxNotice, type OutboxOptions } from './outbox';
 
-type Transport = ReturnType<typeof createTransport>;
-
-async function reportAttachment(notice: ClaimedNotice) {
+async function reportAttachment(notice: OutboxNotice) {
 	// The report as of the notice's own decision, even when the mail goes out after a later one.
 	const data = await buildReportData(getDb(), notice.lotId, { decisionId: notice.decisionId });
 	const pdf = await renderInspectionReport(data);
 	return { filename: `inspection-report-${data.lot.lot_code}.pdf`, content: Buffer.from(pdf), contentType: 'application/pdf' };
 }
 
-async function deliver(transport: Transport, notice: ClaimedNotice, o: OutboxOptions): Promise<void> {
+async function sendNotice(notice: OutboxNotice): Promise<{ messageId: string; response: string }> {
+	const transport = createTransport();
 	try {
 		const messageId = noticeMessageId(notice.id);
 		const info = await transport.sendMail({
@@ -40,43 +37,65 @@ async function deliver(transport: Transport, notice: ClaimedNotice, o: OutboxOpt
 			headers: { 'X-Restvolt-Notice': notice.id },
 			attachments: [await reportAttachment(notice)]
 		});
-		await markSent(getDb(), notice, info.messageId ?? messageId, String(info.response ?? ''));
-	} catch (error) {
-		const message = error instanceof Error ? error.message : String(error);
-		const outcome = await markAttemptFailed(getDb(), notice, message.slice(0, 500), o);
-		console.warn(`[outbox] notice ${notice.id} attempt ${notice.attempts} failed (${outcome}): ${message}`);
-	}
-}
-
-/** One poll: claim a batch and send it, one notice after another. Returns how many were claimed. */
-export async function runOutboxOnce(o: OutboxOptions = outboxOptionsFromEnv()): Promise<number> {
-	const claimed = await claimDueNotices(getDb(), o);
-	if (claimed.length === 0) return 0;
-	const transport = createTransport();
-	try {
-		for (const notice of claimed) await deliver(transport, notice, o);
+		return { messageId: info.messageId ?? messageId, response: String(info.response ?? '') };
 	} finally {
 		transport.close();
 	}
-	return claimed.length;
 }
+
+const sendNoticeTask: Task = async (payload, helpers) => {
+	const { noticeId } = payload as { noticeId: string };
+	const [notice] = await getDb().select().from(notices).where(eq(notices.id, noticeId));
+	// Sent already (a job run again after its lock expired) or deleted with its lot: nothing to do.
+	if (!notice || notice.status !== 'pending') return;
+	const { attempts, max_attempts } = helpers.job; // attempts counts this one
+	let sent: { messageId: string; response: string };
+	try {
+		sent = await sendNotice(notice);
+	} catch (error) {
+		const message = (error instanceof Error ? error.message : String(error)).slice(0, 500);
+		await markAttemptFailed(getDb(), notice, attempts, attempts >= max_attempts, message);
+		throw error;
+	}
+	await markSent(getDb(), notice, attempts, sent.messageId, sent.response);
+};
+
+// graphile-worker's own info lines (connected, job completed) would fill the app's log, and its
+// failure lines carry the whole stack: one line per failed attempt is enough.
+const logger = new Logger(() => (level, message) => {
+	if (level === 'error' || level === 'warning') console.warn(`[outbox] ${message.split('\n')[0]}`);
+});
 
 export function startOutboxWorker(o: OutboxOptions = outboxOptionsFromEnv()): () => Promise<void> {
 	let stopped = false;
-	let timer: ReturnType<typeof setTimeout> | undefined;
-	let inFlight: Promise<unknown> = Promise.resolve();
+	let runner: Runner | undefined;
+	let retry: ReturnType<typeof setTimeout> | undefined;
 
-	const tick = async () => {
-		inFlight = runOutboxOnce(o).catch((error) => console.error('[outbox] poll failed', error));
-		await inFlight;
-		if (!stopped) timer = setTimeout(tick, o.pollMs);
+	// The database may be down when the process starts: try again until it is up.
+	const start = async () => {
+		try {
+			const started = await run({
+				connectionString: databaseUrl(),
+				maxPoolSize: o.concurrency + 2,
+				concurrency: o.concurrency,
+				pollInterval: o.pollMs,
+				noHandleSignals: true,
+				logger,
+				taskList: { [SEND_NOTICE_TASK]: sendNoticeTask }
+			});
+			if (stopped) await started.stop();
+			else runner = started;
+		} catch (error) {
+			console.error('[outbox] the worker could not start, trying again shortly:', error instanceof Error ? error.message : error);
+			if (!stopped) retry = setTimeout(start, Math.max(o.pollMs, 5000));
+		}
 	};
 	const stop = async () => {
 		stopped = true;
-		clearTimeout(timer);
-		await inFlight;
+		clearTimeout(retry);
+		await runner?.stop();
 	};
-	timer = setTimeout(tick, Math.min(o.pollMs, 500));
+	void start();
 	process.once('sveltekit:shutdown', () => void stop());
 	return stop;
 }

@@ -1,11 +1,13 @@
 /**
  * Supplier notices: queued in the decision's transaction (the outbox row), listed for staff and
- * suppliers, acknowledged by suppliers. Sending is the worker's job (mail/worker.ts).
+ * suppliers, acknowledged by suppliers. Sending is the worker's job (mail/worker.ts), whose job is
+ * added in the same transaction.
  */
 import { and, desc, eq } from 'drizzle-orm';
 import type { Database, Tx } from '../db';
 import { lots, notices, organisations, parts, supplierContacts, users } from '../db/schema';
 import { renderNotice, type FinalStatus, type NoticeKind } from '../mail/templates';
+import { enqueueNoticeSend } from '../mail/outbox';
 import { NotFound } from '../errors';
 import { recordAudit } from './audit';
 import { appOrigin } from '../origin';
@@ -88,6 +90,7 @@ export async function queueNotice(tx: Tx, input: QueueNoticeInput): Promise<stri
 			bodyHtml: body.html
 		})
 		.returning({ id: notices.id });
+	await enqueueNoticeSend(tx, notice.id);
 	await recordAudit(tx, {
 		action: 'notice.queued',
 		entityType: 'notice',

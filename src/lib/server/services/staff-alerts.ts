@@ -9,6 +9,7 @@ import type { Tx } from '../db';
 import { lots, notices, organisations, parts, users } from '../db/schema';
 import type { SeverityView } from './switching';
 import { recordAudit } from './audit';
+import { enqueueNoticeSend } from '../mail/outbox';
 import { appOrigin } from '../origin';
 
 async function staffRecipients(tx: Tx): Promise<string[]> {
@@ -52,6 +53,7 @@ export async function alertInspectionDiscontinued(tx: Tx, lotId: string, view: S
 		.insert(notices)
 		.values({ lotId, organisationId: own.id, kind: 'alert', recipients, subject, bodyText: text, bodyHtml: html })
 		.returning({ id: notices.id });
+	await enqueueNoticeSend(tx, notice.id);
 	await recordAudit(tx, {
 		action: 'inspection.discontinued',
 		entityType: 'part',
