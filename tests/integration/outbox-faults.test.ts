@@ -2,7 +2,9 @@
  * The mail outbox under faults, with a private SMTP peer the test stops and starts:
  *  - the relay is down while decisions are made → every notice arrives exactly once after it is back;
  *  - the app is killed (SIGKILL) with notices pending and restarted → each is sent exactly once;
- *  - two quality managers override the same held lot at once → exactly one wins, the other gets 409.
+ *  - two app processes poll the same job queue → each notice is sent exactly once;
+ *  - two quality managers override the same held lot at once → exactly one wins, the other gets 409;
+ *  - a notice that used up its attempts is 'failed' on the admin outbox page, and "retry now" sends it once.
  * "Exactly once" is checked by counting the deterministic Message-ID <notice-{id}@restvolt.local>.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -23,10 +25,10 @@ let mailDir: string;
 let peer: PrivatePeer | null = null;
 let app: RunningApp | null = null;
 
-// Short backoff and lease so retries happen within the test's time; same code paths as production.
-const OUTBOX_ENV = { OUTBOX_POLL_MS: '150', OUTBOX_BACKOFF_MS: '200', OUTBOX_BACKOFF_MAX_MS: '1000', OUTBOX_LEASE_MS: '3000', OUTBOX_MAX_ATTEMPTS: '50' };
+// A short poll; the retries wait graphile-worker's own backoff (exp(attempts) seconds), as in production.
+const OUTBOX_ENV = { OUTBOX_POLL_MS: '150', OUTBOX_MAX_ATTEMPTS: '50' };
 
-const start = () => startApp({ databaseUrl: db.url, smtpPort, env: OUTBOX_ENV });
+const start = (env: Record<string, string> = {}) => startApp({ databaseUrl: db.url, smtpPort, env: { ...OUTBOX_ENV, ...env } });
 const startPeer = async () => (peer = await startPrivatePeer(smtpPort, httpPort, mailDir));
 const stopPeer = async () => {
 	await peer?.stop();
@@ -102,6 +104,21 @@ describe('outbox faults', () => {
 		for (const id of ids) expect((await mailsForNotice(id, peer!.httpUrl)).length).toBe(1);
 	});
 
+	it('sends each notice exactly once with two app processes working the same queue', async () => {
+		const second = await start();
+		try {
+			const ids: string[] = [];
+			for (const [i, scenario] of (['accept', 'hold', 'accept', 'safety'] as const).entries()) {
+				const { buyer, inspector } = await callers((i % 2 === 0 ? app! : second).url);
+				const lot = await measuredLot(buyer, inspector, scenario);
+				ids.push((await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).json.noticeId);
+			}
+			await expectEachDeliveredOnce(ids, peer!.httpUrl);
+		} finally {
+			await second.stop();
+		}
+	});
+
 	it('lets exactly one of two simultaneous overrides win; the other gets 409', async () => {
 		const { buyer, inspector } = await callers(app!.url);
 		const lot = await measuredLot(buyer, inspector, 'hold');
@@ -135,5 +152,30 @@ describe('outbox faults', () => {
 		expect(state.lot).toBe(winner.json.status);
 		expect(state.overrides).toBe(1);
 		expect(state.notices).toBe(1);
+	});
+
+	it('marks a notice failed after its last attempt, shows it to the admin, and sends it once on "retry now"', async () => {
+		await stopPeer();
+		await app!.stop();
+		app = await start({ OUTBOX_MAX_ATTEMPTS: '1' });
+		const { buyer, inspector } = await callers(app.url);
+		const lot = await measuredLot(buyer, inspector, 'accept');
+		const id = (await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).json.noticeId as string;
+		await waitUntil(async () => (await noticeRows([id]))[0].status === 'failed', 20_000, 'the notice failed');
+		expect((await noticeRows([id]))[0]).toMatchObject({ attempts: 1, message_id: null });
+		const admin = await signInApi(app.url, 'admin@kestrel-mobility.example');
+		const page = await fetch(`${app.url}/admin/outbox`, { headers: { cookie: admin } });
+		expect(page.status).toBe(200);
+		expect(await page.text()).toContain(`data-notice-id="${id}"`);
+		await startPeer();
+		const retry = () =>
+			fetch(`${app!.url}/admin/outbox?/retry`, {
+				method: 'POST',
+				headers: { cookie: admin, origin: app!.url, accept: 'application/json', 'content-type': 'application/x-www-form-urlencoded' },
+				body: new URLSearchParams({ noticeId: id })
+			}).then((r) => r.json());
+		expect(await retry()).toMatchObject({ type: 'success', status: 200 });
+		await expectEachDeliveredOnce([id], peer!.httpUrl);
+		expect(await retry()).toMatchObject({ type: 'failure', status: 409 }); // sent: nothing left to retry
 	});
 });

@@ -7,7 +7,7 @@
  * expires (4 hours); worker.ts records each attempt on the notice row.
  *
  *   pending ──SMTP accepted──► sent (message_id, sent_at)
- *   pending ──SMTP error──► pending, attempts+1, last_error   (or 'failed' after NOTICE_MAX_ATTEMPTS)
+ *   pending ──SMTP error──► pending, attempts+1, last_error   (or 'failed' after OUTBOX_MAX_ATTEMPTS)
  *   failed ──admin "retry now"──► pending, attempts 0, a new job
  *
  * Delivery is at-least-once: if the process dies after the SMTP server accepted a message and
@@ -22,17 +22,19 @@ import { recordAudit } from '../services/audit';
 
 export const SEND_NOTICE_TASK = 'send_notice';
 
-/** exp(1) + … + exp(10) seconds ≈ 9.7 h, then one more wait of exp(10) s: a relay may be down for ~16 h. */
-export const NOTICE_MAX_ATTEMPTS = 12;
-
 export interface OutboxOptions {
 	pollMs: number;
 	concurrency: number;
+	/** Attempts before a notice is 'failed'. 12: exp(1) + … + exp(11) s ≈ 16 h of a relay being down. */
+	maxAttempts: number;
 }
 
 export function outboxOptionsFromEnv(env: Record<string, string | undefined> = process.env): OutboxOptions {
-	const value = Number(env.OUTBOX_POLL_MS);
-	return { pollMs: Number.isFinite(value) && value > 0 ? value : 2000, concurrency: 2 };
+	const num = (name: string, fallback: number) => {
+		const value = Number(env[name]);
+		return Number.isInteger(value) && value > 0 ? value : fallback;
+	};
+	return { pollMs: num('OUTBOX_POLL_MS', 2000), concurrency: 2, maxAttempts: Math.min(num('OUTBOX_MAX_ATTEMPTS', 12), 32767) };
 }
 
 export const noticeMessageId = (id: string) => `<notice-${id}@restvolt.local>`;
@@ -44,7 +46,7 @@ const noticeJobKey = (id: string) => `notice:${id}`;
  */
 export async function enqueueNoticeSend(tx: Database | Tx, noticeId: string): Promise<void> {
 	await tx.execute(
-		sql`select graphile_worker.add_job(${SEND_NOTICE_TASK}, json_build_object('noticeId', ${noticeId}::text), job_key => ${noticeJobKey(noticeId)}, max_attempts => ${NOTICE_MAX_ATTEMPTS})`
+		sql`select graphile_worker.add_job(${SEND_NOTICE_TASK}, json_build_object('noticeId', ${noticeId}::text), job_key => ${noticeJobKey(noticeId)}, max_attempts => ${outboxOptionsFromEnv().maxAttempts}::int)`
 	);
 }
 
