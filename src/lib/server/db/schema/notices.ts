@@ -7,8 +7,8 @@ import { organisations } from './organisations';
 import { users } from './users';
 
 /**
- * The mail outbox: a notice row is written in the same transaction as the decision and sent later
- * by a worker that claims rows with FOR UPDATE SKIP LOCKED, so several app processes can share it.
+ * The mail outbox: a notice row is written in the same transaction as the decision, together with
+ * the graphile-worker job that sends it (mail/outbox.ts); the row keeps the state people see.
  */
 export const notices = pgTable(
 	'notices',
@@ -29,7 +29,6 @@ export const notices = pgTable(
 		bodyHtml: text('body_html').notNull(),
 		status: noticeStatusEnum('status').notNull().default('pending'),
 		attempts: integer('attempts').notNull().default(0),
-		nextAttemptAt: timestamp('next_attempt_at', { withTimezone: true }).notNull().defaultNow(),
 		lastError: text('last_error'),
 		messageId: text('message_id'),
 		sentAt: timestamp('sent_at', { withTimezone: true }),
@@ -38,7 +37,7 @@ export const notices = pgTable(
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 	},
 	(t) => [
-		index('notices_outbox_idx').on(t.status, t.nextAttemptAt),
+		index('notices_status_idx').on(t.status, t.createdAt),
 		index('notices_lot_idx').on(t.lotId),
 		index('notices_org_idx').on(t.organisationId, t.createdAt)
 	]
