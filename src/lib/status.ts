@@ -86,6 +86,12 @@ export const NOTICE_DELIVERY: Record<'pending' | 'sent' | 'failed', Look> = {
 	failed: { word: 'Delivery failed', shape: 'alert', tone: 'hold' }
 };
 
+/** An OCV model version: library and fitted versions are used only once a quality manager approves them. */
+export const MODEL_STATUS: Record<'approved' | 'awaiting_approval', Look> = {
+	approved: { word: 'Approved', shape: 'check', tone: 'accept' },
+	awaiting_approval: { word: 'Awaiting approval', shape: 'dashed', tone: 'pending' }
+};
+
 /** Who decided: the rules, or a quality manager overriding them with an e-signature. */
 export const DECISION_KIND: Record<'automatic' | 'override', string> = {
 	automatic: 'By the rules',

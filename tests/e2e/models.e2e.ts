@@ -104,12 +104,12 @@ test('a quality manager saves a fitted NMC version and approves it; a non-monoto
 
 	await page.getByRole('button', { name: /^Approve NMC fit-/ }).click();
 	await expect(page.getByText('Approved. Parts may now use this version.')).toBeVisible();
-	await expect(page.locator('header').getByText('approved', { exact: true })).toBeVisible();
+	await expect(page.locator('header').getByText('Approved', { exact: true })).toBeVisible(); // src/lib/status.ts MODEL_STATUS
 	await shot(page, 'nmc-approved');
 
 	await page.goto(`${app.url}/models`);
 	const row = page.getByRole('row', { name: /fit-1/ });
-	await expect(row).toContainText('approved');
+	await expect(row).toContainText('Approved');
 	await expect(row).toContainText('quality@kestrel-mobility.example');
 	await shot(page, 'model-list-with-fitted');
 });

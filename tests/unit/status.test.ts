@@ -8,6 +8,7 @@ import {
 	DECISION_KIND,
 	INSPECTION_SEVERITY,
 	LOT_STATUS,
+	MODEL_STATUS,
 	NOTICE_DELIVERY,
 	REASON_SEVERITY,
 	TRANSPORT,
@@ -41,7 +42,8 @@ describe('states are told apart without colour', () => {
 		['reason severities', REASON_SEVERITY],
 		['inspection severities', INSPECTION_SEVERITY],
 		['notice deliveries', NOTICE_DELIVERY],
-		['variables results', VARIABLES_RESULT]
+		['variables results', VARIABLES_RESULT],
+		['model versions', MODEL_STATUS]
 	];
 
 	it.each(sets)('gives each of the %s its own word and its own shape', (_name, set) => {
@@ -88,7 +90,7 @@ describe('one vocabulary in the code', () => {
 		});
 
 	it('spells state words only in src/lib/status.ts', () => {
-		const words = [...Object.values(LOT_STATUS), ...Object.values(VERDICT), ...Object.values(NOTICE_DELIVERY)]
+		const words = [...Object.values(LOT_STATUS), ...Object.values(VERDICT), ...Object.values(NOTICE_DELIVERY), ...Object.values(MODEL_STATUS)]
 			.map((look) => look.word)
 			.filter((word) => word.includes(' ')) // single words (Accepted, Hold…) also occur in ordinary sentences
 			.concat(['In inspection', 'In progress']); // wordings an earlier version used for the same states
