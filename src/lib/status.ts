@@ -100,6 +100,9 @@ export const DECISION_KIND: Record<'automatic' | 'override', string> = {
 
 export const TRANSPORT: Record<TransportMode, string> = { air: 'Air', sea: 'Sea', road: 'Road', rail: 'Rail' };
 
+/** A lot state's word inside a sentence: "The lot is on the bench". */
+export const lotStateInText = (code: string) => wordOf(LOT_STATUS, code).toLowerCase();
+
 /** A code's look, or a calm stand-in that still shows the code as words when the vocabulary lacks it. */
 export function lookOf<K extends string>(vocabulary: Record<K, Look>, code: string): Look {
 	const known = (vocabulary as Record<string, Look>)[code];

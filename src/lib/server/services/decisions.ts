@@ -8,6 +8,8 @@ import { and, desc, eq, sql } from 'drizzle-orm';
 import { getDb, type Tx } from '../db';
 import { decisions, evaluations, lots, users } from '../db/schema';
 import { Conflict, DomainError, Forbidden, Invalid, NotFound, Throttled } from '../errors';
+import { dateTime } from '$lib/format';
+import { lotStateInText } from '$lib/status';
 import { can } from '../policy';
 import { recordAudit } from './audit';
 import { evaluateLotNow, type LotEvaluation } from './evaluation';
@@ -121,7 +123,7 @@ export async function submitLot(user: SessionUser, lotId: string): Promise<Decis
 		const lot = await lockLot(tx, user, lotId);
 		if (!can(user, 'lot:submit', { supplierId: lot.supplierId })) throw new Forbidden('Your role may not submit lots');
 		if (!SUBMITTABLE.includes(lot.status)) {
-			throw new Conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a lot in inspection can be submitted for decision`);
+			throw new Conflict(`The lot is ${lotStateInText(lot.status)}; only a lot on the bench or awaiting decision can be submitted for decision`);
 		}
 		const evaluation = await evaluateLotNow(tx, lotId);
 		assertSampleComplete(evaluation);
@@ -139,7 +141,7 @@ export async function reevaluateLot(user: SessionUser, lotId: string): Promise<D
 	return getDb().transaction(async (tx) => {
 		const lot = await lockLot(tx, user, lotId);
 		if (!can(user, 'lot:decide', { supplierId: lot.supplierId })) throw new Forbidden('Only quality may re-evaluate a held lot');
-		if (lot.status !== 'on_hold') throw new Conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a held lot can be re-evaluated`);
+		if (lot.status !== 'on_hold') throw new Conflict(`The lot is ${lotStateInText(lot.status)}; only a held lot can be re-evaluated`);
 		const evaluation = await evaluateLotNow(tx, lotId);
 		assertSampleComplete(evaluation);
 		const evaluationId = await storeEvaluation(tx, user, evaluation);
@@ -195,8 +197,8 @@ async function alreadyDecided(tx: Tx, lotId: string, status: LotStatus): Promise
 		.where(eq(decisions.lotId, lotId))
 		.orderBy(desc(decisions.decidedAt))
 		.limit(1);
-	const who = last ? ` by ${last.by ?? last.email ?? 'someone else'} at ${last.at.toISOString()}` : '';
-	return new Conflict(`Another decision was recorded first: the lot is now ${status.replaceAll('_', ' ')}${who}. Nothing was changed.`);
+	const who = last ? ` by ${last.by ?? last.email ?? 'someone else'} at ${dateTime(last.at, { seconds: true })}` : '';
+	return new Conflict(`Another decision was recorded first: the lot is now ${lotStateInText(status)}${who}. Nothing was changed.`);
 }
 
 /**

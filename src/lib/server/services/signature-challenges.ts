@@ -6,6 +6,7 @@
  */
 import { and, eq, isNull, sql } from 'drizzle-orm';
 import type { SessionUser } from '$lib/roles';
+import { lotStateInText } from '$lib/status';
 import type { Database, Tx } from '../db';
 import { lots, signatureChallenges } from '../db/schema';
 import { Conflict, DomainError, Forbidden, Invalid, NotFound } from '../errors';
@@ -31,7 +32,7 @@ async function decidableLot(db: Database | Tx, user: SessionUser, lotId: string)
 	const [lot] = await db.select({ id: lots.id, lotCode: lots.lotCode, status: lots.status, revision: lots.revision, supplierId: lots.supplierId }).from(lots).where(eq(lots.id, lotId));
 	if (!lot || !can(user, 'lot:read', { supplierId: lot.supplierId })) throw new NotFound('lot');
 	if (!can(user, 'lot:decide', { supplierId: lot.supplierId })) throw new Forbidden('Only quality managers decide held lots');
-	if (lot.status !== 'on_hold') throw new Conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; only a lot on hold can be released or rejected`);
+	if (lot.status !== 'on_hold') throw new Conflict(`The lot is ${lotStateInText(lot.status)}; only a lot on hold can be released or rejected`);
 	return lot;
 }
 

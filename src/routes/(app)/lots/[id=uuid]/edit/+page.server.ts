@@ -7,6 +7,7 @@ import { getDb } from '$lib/server/db';
 import { refuseForm } from '$lib/server/action-errors';
 import { BEFORE_INSPECTION, getLotForUser, LotConflictError, updateLot } from '$lib/server/services/lots';
 import { lotFormSchema, lotInputFromForm, type LotForm } from '$lib/schemas/lot';
+import { lotStateInText } from '$lib/status';
 import { formField, lotFormChoices } from '../../lot-form.server';
 import type { Actions, PageServerLoad } from './$types';
 
@@ -17,7 +18,7 @@ async function editableLot(user: App.Locals['user'], lotId: string) {
 	if (!can(user, 'lot:edit')) error(403, 'Only buyers edit lots');
 	const lot = await getLotForUser(getDb(), user!, lotId);
 	if (!lot) error(404, 'No such lot');
-	if (!BEFORE_INSPECTION.includes(lot.status)) error(409, `This lot is ${lot.status.replaceAll('_', ' ')}: its purchase facts can no longer change`);
+	if (!BEFORE_INSPECTION.includes(lot.status)) error(409, `This lot is ${lotStateInText(lot.status)}: its purchase facts can no longer change`);
 	return lot;
 }
 

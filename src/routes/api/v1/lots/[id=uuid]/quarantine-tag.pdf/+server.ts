@@ -3,6 +3,7 @@ import { getDb } from '$lib/server/db';
 import { renderQuarantineTag } from '$lib/server/reports';
 import { buildReportData, fileHeaders, tagDataFrom } from '$lib/server/services/report-data';
 import { requireLot } from '$lib/server/route-helpers';
+import { lotStateInText } from '$lib/status';
 
 import type { RequestHandler } from './$types';
 
@@ -10,7 +11,7 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = api(async (event) => {
 	const { lot } = await requireLot(event, event.params.id, 'report:read');
 	const tag = tagDataFrom(await buildReportData(getDb(), lot.id));
-	if (!tag) throw conflict(`The lot is ${lot.status.replaceAll('_', ' ')}; a quarantine tag exists only for held or rejected lots`);
+	if (!tag) throw conflict(`The lot is ${lotStateInText(lot.status)}; a quarantine tag exists only for held or rejected lots`);
 	const pdf = await renderQuarantineTag(tag);
 	return new Response(new Uint8Array(pdf), { headers: fileHeaders(`quarantine-tag-${lot.lotCode}.pdf`, 'application/pdf', event.url) });
 });
