@@ -15,6 +15,7 @@ import {
 	VARIABLES_RESULT,
 	VERDICT,
 	lookOf,
+	lotStateInText,
 	wordOf,
 	type Look
 } from '$lib/status';
@@ -78,6 +79,7 @@ describe('codes outside the vocabulary', () => {
 		expect(wordOf(TRANSPORT, 'pipeline')).toBe('Pipeline');
 		expect(wordOf(LOT_STATUS, 'in_inspection')).toBe('On the bench');
 		expect(wordOf(TRANSPORT, 'sea')).toBe('Sea');
+		expect(lotStateInText('in_inspection')).toBe('on the bench');
 	});
 });
 
@@ -101,5 +103,10 @@ describe('one vocabulary in the code', () => {
 				return words.filter((word) => new RegExp(`['"\`>]${word}['"\`<]`).test(text)).map((word) => `${relative(root, path)}: ${word}`);
 			});
 		expect(offenders).toEqual([]);
+	});
+
+	it('never turns a state code into words by replacing its underscores', () => {
+		const offenders = files(root).filter((path) => /(status|severity|disposition)\.replace(All)?\(\s*['"/]_/.test(readFileSync(path, 'utf8')));
+		expect(offenders.map((path) => relative(root, path))).toEqual([]);
 	});
 });

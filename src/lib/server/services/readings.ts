@@ -7,6 +7,7 @@ import { and, asc, eq, sql } from 'drizzle-orm';
 import type { z } from 'zod';
 import type { SessionUser } from '$lib/roles';
 import { MAX_READINGS_PER_CALL, readingSchema, type ReadingCorrection, type ReadingInputRow } from '$lib/schemas/readings';
+import { lotStateInText } from '$lib/status';
 import type { Database, Tx } from '../db';
 import { readings } from '../db/schema';
 import { Conflict, Invalid, NotFound, TooLarge, type Issue } from '../errors';
@@ -107,7 +108,7 @@ export async function addReadingsTx(
 ): Promise<AddReadingsResult> {
 	const lot = await lockLot(tx, lotId);
 	if (!(OPEN_STATUSES as readonly string[]).includes(lot.status)) {
-		throw new Conflict(`This lot is ${lot.status.replace('_', ' ')}; readings can only be added while it awaits arrival or is in inspection`);
+		throw new Conflict(`This lot is ${lotStateInText(lot.status)}; readings can only be added while it is awaiting arrival, on the bench or awaiting decision`);
 	}
 	const arrived = lot.status === 'awaiting_arrival';
 	if (arrived) await recordArrival(tx, user, lotId);
@@ -204,7 +205,7 @@ export async function listReadings(db: Database | Tx, lotId: string): Promise<St
 export async function correctReading(db: Database, user: SessionUser, lotId: string, readingId: number, change: ReadingCorrection): Promise<StoredReading> {
 	return db.transaction(async (tx) => {
 		const lot = await lockLot(tx, lotId);
-		if (!CORRECTABLE.includes(lot.status)) throw new Conflict(`Readings can only be corrected before a final decision or while the lot is on hold (it is ${lot.status.replace('_', ' ')})`);
+		if (!CORRECTABLE.includes(lot.status)) throw new Conflict(`Readings can only be corrected before a final decision or while the lot is on hold (it is ${lotStateInText(lot.status)})`);
 		const [before] = await tx.select(selectColumns).from(readings).where(and(eq(readings.id, readingId), eq(readings.lotId, lotId)));
 		if (!before) throw new NotFound('reading');
 		const patch = {
