@@ -21,7 +21,7 @@ import { writeFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { startApp, type RunningApp } from '../helpers/app';
-import { DEMO_PASSWORD, signInPage, signInSupplierByLink } from '../helpers/auth';
+import { signInPage, signInSupplierByLink } from '../helpers/auth';
 import { freshDatabase } from '../helpers/db';
 import { waitForMail, type ReceivedMail } from '../helpers/mail';
 import { screens } from '../helpers/screens';
@@ -72,6 +72,7 @@ test.beforeAll(async () => {
 	app = await startApp({ databaseUrl: db.url });
 });
 
+// eslint-disable-next-line no-empty-pattern -- Playwright passes fixtures first; this hook needs none
 test.afterEach(async ({}, info) => {
 	// A failed step shows what the server said (a 500 page alone says little).
 	if (info.status !== info.expectedStatus && app) console.error(`--- app output (tail) ---\n${app.output().slice(-4000)}`);

@@ -28,7 +28,7 @@ test.afterAll(async () => {
  * A reference curve as a datasheet would give it: SOC in %, every 5 %, 4 decimals of volts, with a
  * deterministic ±0.8 mV ripple standing in for measurement noise (invented data).
  */
-function referenceCsv(code: ChemistryCode, temperatureC = 25, distort = (soc: number) => 0): string {
+function referenceCsv(code: ChemistryCode, temperatureC = 25, distort = (_soc: number) => 0): string {
 	const points = curve(getLibraryModel(code), temperatureC, 21);
 	const lines = points.map((p, i) => {
 		const ripple = 0.0008 * (i % 2 === 0 ? 1 : -1);

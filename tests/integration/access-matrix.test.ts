@@ -149,14 +149,20 @@ const ORDER: RoleKey[] = ['anonymous', 'admin', 'supplierB', 'buyer', 'supplierA
 async function callApi(c: ApiCase, role: RoleKey) {
 	const headers: Record<string, string> = {};
 	if (role !== 'anonymous') {
-		if (c.session) (headers.cookie = cookies[role]), (headers.origin = app.url);
+		if (c.session) {
+			headers.cookie = cookies[role];
+			headers.origin = app.url;
+		}
 		else headers.authorization = `Bearer ${tokens[role]}`;
 	}
 	let body: BodyInit | undefined;
 	// Anonymous uploads come from the same site (a browser without a session): else the cross-site check answers 403 first.
 	if (c.form && role === 'anonymous') headers.origin = app.url;
 	if (c.form) body = c.form(role);
-	else if (c.body) (body = JSON.stringify(await c.body(role))), (headers['content-type'] = 'application/json');
+	else if (c.body) {
+		body = JSON.stringify(await c.body(role));
+		headers['content-type'] = 'application/json';
+	}
 	// Quality's submit goes to its own ready lot (the inspector's lot is submitted by then).
 	const path = c.name === 'POST lots/[id=uuid]/submit' && role === 'quality' ? `/api/v1/lots/${L.submitByQuality}/submit` : c.path();
 	const res = await fetch(`${app.url}${path}`, { method: c.method ?? (body ? 'POST' : c.name.startsWith('POST') ? 'POST' : 'GET'), headers, body, redirect: 'manual' });

@@ -111,6 +111,7 @@ describe('GET /api/v1/lots/{id}/evaluation cache', () => {
 			const served = JSON.parse(new TextDecoder('utf-8', { fatal: true }).decode(await res.arrayBuffer()));
 			// The NMC model's source note is written with U+2212, U+00B7, U+03B5 and °.
 			const source = getLibraryModel('NMC').source;
+			// eslint-disable-next-line no-control-regex -- any character outside ASCII
 			expect(source).toMatch(/[^\x00-\x7f]/);
 			expect(served.inputs.model.source).toBe(source);
 		}

@@ -12,8 +12,10 @@
 import { z } from 'zod';
 
 /** C0 controls, DEL and C1 controls, and invisible direction overrides (they reorder what is shown). */
+// eslint-disable-next-line no-control-regex -- finding control characters is what this pattern is for
 const CONTROL_SINGLE_LINE = /[\u0000-\u001F\u007F-\u009F\u2028\u2029\u202A-\u202E\u2066-\u2069]/;
 /** The same, but tab, line feed and carriage return are fine in multi-line free text. */
+// eslint-disable-next-line no-control-regex -- finding control characters is what this pattern is for
 const CONTROL_MULTI_LINE = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F\u202A-\u202E\u2066-\u2069]/;
 
 const SINGLE_LINE_MESSAGE = 'Remove control characters (such as NUL, or a line break in a one-line field)';

@@ -8,6 +8,7 @@ import { FILE_TYPES, type FileType } from './file-types';
 export const MAX_FILE_NAME_LENGTH = 120;
 
 // C0 and C1 controls, DEL, zero-width and bidirectional controls (which can disguise "txt.exe"), BOM.
+// eslint-disable-next-line no-control-regex -- finding control characters is what this pattern is for
 const INVISIBLE = /[\u0000-\u001f\u007f-\u009f\u200b-\u200f\u202a-\u202e\u2066-\u2069\ufeff]/g;
 // Reserved in Windows names, or special in a header parameter.
 const RESERVED = /[<>:"|?*;\\]/g;

@@ -64,6 +64,7 @@ const SNIFFED_WORDS: Record<Sniffed, string> = {
 
 /** The display form of the client's name for messages: its last segment, printable, short. */
 const shown = (name: string) => {
+	// eslint-disable-next-line no-control-regex -- finding control characters is what this pattern is for
 	const segment = (name.split(/[\\/]/).pop() ?? '').replace(/[\u0000-\u001f\u007f-\u009f]/g, '').trim();
 	return Array.from(segment || 'the file').slice(0, 80).join('');
 };

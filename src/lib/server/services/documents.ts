@@ -53,6 +53,7 @@ const SERVABLE = new Set<string>(Object.values(FILE_TYPES).map((t) => t.mime));
  * script (CSP sandbox), and a name that cannot break out of the header or name a folder.
  */
 export function downloadHeaders(doc: { fileName: string; mime: string; sizeBytes: number }): Record<string, string> {
+	// eslint-disable-next-line no-control-regex -- finding control characters is what this pattern is for
 	const name = (doc.fileName.split(/[\\/]/).pop() || 'file').replace(/[\u0000-\u001f\u007f]/g, '');
 	const ascii = name.replace(/[^\x20-\x7e]/g, '_').replace(/["\\;]/g, '_');
 	return {

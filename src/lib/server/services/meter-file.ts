@@ -171,7 +171,10 @@ export function mapTable(table: Table, mapping: ImportMapping): MappedRows {
 			continue;
 		}
 		const mapped = mapRow(row, mapping, i + 1, out.errors);
-		if (mapped) out.rows.push(mapped), out.fileRows.push(i + 1);
+		if (mapped) {
+			out.rows.push(mapped);
+			out.fileRows.push(i + 1);
+		}
 	}
 	return out;
 }

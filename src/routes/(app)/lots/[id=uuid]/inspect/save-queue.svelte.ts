@@ -51,6 +51,7 @@ export class SaveQueue {
 	}
 
 	add(row: Omit<BenchRow, 'client_key' | 'state' | 'measured_at'>): void {
+		// eslint-disable-next-line svelte/prefer-svelte-reactivity -- a local value, not reactive state
 		this.rows = [...this.rows, { ...row, client_key: crypto.randomUUID(), measured_at: new Date().toISOString(), state: 'saving' }];
 		this.#persist();
 		this.flush();
@@ -69,6 +70,7 @@ export class SaveQueue {
 
 	/** The ids the server gave the saved rows (201 body `stored: [{client_key, id}]`). */
 	#noteIds(body: { stored?: Array<{ client_key: string; id: number }> } | null): void {
+		// eslint-disable-next-line svelte/prefer-svelte-reactivity -- a local value, not reactive state
 		const ids = new Map((body?.stored ?? []).map((s) => [s.client_key, s.id]));
 		if (ids.size > 0) this.rows = this.rows.map((r) => (ids.has(r.client_key) ? { ...r, id: ids.get(r.client_key) } : r));
 	}
@@ -87,6 +89,7 @@ export class SaveQueue {
 		const batch = this.unsaved;
 		if (batch.length === 0) return;
 		this.#inFlight = true;
+		// eslint-disable-next-line svelte/prefer-svelte-reactivity -- a local value, not reactive state
 		const keys = new Set(batch.map((r) => r.client_key));
 		try {
 			const res = await fetch(`/api/v1/lots/${this.lotId}/readings`, {

@@ -1,6 +1,7 @@
 // Multipart upload with progress (fetch has no upload progress in browsers; XMLHttpRequest does).
 export interface UploadAnswer {
 	status: number;
+	// eslint-disable-next-line @typescript-eslint/no-explicit-any -- the JSON answer of whichever endpoint was called; callers narrow it
 	body: any;
 }
 
