@@ -92,7 +92,12 @@ describe('one vocabulary in the code', () => {
 		});
 
 	it('spells state words only in src/lib/status.ts', () => {
-		const words = [...Object.values(LOT_STATUS), ...Object.values(VERDICT), ...Object.values(NOTICE_DELIVERY), ...Object.values(MODEL_STATUS)]
+		const words = [
+			...Object.values(LOT_STATUS),
+			...Object.values(VERDICT),
+			...Object.values(NOTICE_DELIVERY),
+			...Object.values(MODEL_STATUS)
+		]
 			.map((look) => look.word)
 			.filter((word) => word.includes(' ')) // single words (Accepted, Hold…) also occur in ordinary sentences
 			.concat(['In inspection', 'In progress']); // wordings an earlier version used for the same states
@@ -106,7 +111,9 @@ describe('one vocabulary in the code', () => {
 	});
 
 	it('never turns a state code into words by replacing its underscores', () => {
-		const offenders = files(root).filter((path) => /(status|severity|disposition)\.replace(All)?\(\s*['"/]_/.test(readFileSync(path, 'utf8')));
+		const offenders = files(root).filter((path) =>
+			/(status|severity|disposition)\.replace(All)?\(\s*['"/]_/.test(readFileSync(path, 'utf8'))
+		);
 		expect(offenders.map((path) => relative(root, path))).toEqual([]);
 	});
 });

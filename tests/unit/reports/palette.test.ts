@@ -18,7 +18,13 @@ function themeColours(onlyStatic = false): Map<string, string> {
 }
 
 const hexOf = ({ red, green, blue }: { red: number; green: number; blue: number }) =>
-	`#${[red, green, blue].map((c) => Math.round(c * 255).toString(16).padStart(2, '0')).join('')}`;
+	`#${[red, green, blue]
+		.map((c) =>
+			Math.round(c * 255)
+				.toString(16)
+				.padStart(2, '0')
+		)
+		.join('')}`;
 
 describe('one palette for the web and the documents', () => {
 	const theme = themeColours();
