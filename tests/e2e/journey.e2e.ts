@@ -442,7 +442,7 @@ test('7. the buyer sees the acknowledgements and the reply on the lot page', asy
 	await expect(page.locator('h1 + [data-status]')).toHaveText('Accepted');
 	const panel = page.getByRole('region', { name: 'Disposition and paper trail' });
 	await expect(panel).toContainText('Quality decision');
-	await expect(panel.getByText(/^✓ Acknowledged \d{1,2} \w{3,4} \d{4}, \d{2}:\d{2}:\d{2} by Mira Okonkwo$/)).toHaveCount(2);
+	await expect(panel.getByText(/^✓ Acknowledged \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} UTC by Mira Okonkwo$/)).toHaveCount(2);
 	await expect(panel).toContainText('from the next shipment on we set the SOC to 30 % before air freight');
 	await expect(panel.getByRole('link', { name: 'charge-record-vc42j.pdf' })).toBeVisible();
 	await shot(page, 'buyer-lot-acknowledged');
