@@ -3,6 +3,7 @@
  * from the latest stored evaluation (or, before any decision, a preliminary evaluation computed now).
  */
 import { and, desc, eq, lte } from 'drizzle-orm';
+import { dateTime, fixed } from '$lib/format';
 import type { Database, Tx } from '../db';
 import { decisions, evaluations, lots, organisations, parts, readings, users } from '../db/schema';
 import { NotFound } from '../errors';
@@ -83,7 +84,7 @@ function statsOf(s: StoredResult['stats']): ReportData['stats'] {
 
 function variablesOf(v: StoredResult['variables']): ReportData['variables'] {
 	if (!v || v.status === 'not_applicable') return null;
-	const detail = [v.reason, v.k !== null ? `k = ${v.k.toFixed(3)}` : null, v.normality_warning ? 'normality doubtful' : null].filter(Boolean).join('; ');
+	const detail = [v.reason, v.k !== null ? `k = ${fixed(v.k, 3)}` : null, v.normality_warning ? 'normality doubtful' : null].filter(Boolean).join('; ');
 	return { method: 's-method (variables, advisory)', result: v.status, detail };
 }
 
@@ -197,7 +198,7 @@ export function tagDataFrom(report: ReportData): TagData | null {
 		quantity: report.lot.quantity,
 		reason,
 		safety: report.disposition.safety,
-		date: `${(report.decision?.at ?? report.generated_at).slice(0, 16).replace('T', ' ')} UTC`,
+		date: dateTime(report.decision?.at ?? report.generated_at),
 		url: `${appOrigin()}/lots/${report.lot.id}`
 	};
 }
