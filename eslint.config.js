@@ -9,7 +9,18 @@ import svelteConfig from './svelte.config.js';
 
 export default ts.config(
 	{
-		ignores: ['build/', 'build-*/', '.svelte-kit/', '.svelte-kit-*/', '.data/', 'node_modules/', 'drizzle/', 'tests/artifacts/', 'test-results/', 'playwright-report/']
+		ignores: [
+			'build/',
+			'build-*/',
+			'.svelte-kit/',
+			'.svelte-kit-*/',
+			'.data/',
+			'node_modules/',
+			'drizzle/',
+			'tests/artifacts/',
+			'test-results/',
+			'playwright-report/'
+		]
 	},
 	js.configs.recommended,
 	...ts.configs.recommended,

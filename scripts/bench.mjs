@@ -28,7 +28,12 @@ async function ensureBuildIn(dir) {
 	if (process.env.BENCH_SKIP_BUILD === '1' && existsSync(join(root, dir, 'handler.js'))) return; // measure the build as it is
 	const handler = join(root, dir, 'handler.js');
 	const inputs = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'package-lock.json'];
-	const sourcesTime = Math.max(...inputs.map((p) => join(root, p)).filter(existsSync).map(newestMtime));
+	const sourcesTime = Math.max(
+		...inputs
+			.map((p) => join(root, p))
+			.filter(existsSync)
+			.map(newestMtime)
+	);
 	if (existsSync(handler) && statSync(handler).mtimeMs > sourcesTime) return;
 	console.log(`[bench] building the app into ${dir}/ (vite build)…`);
 	const code = await runInherit('npx', ['vite', 'build', '--logLevel', 'error'], { cwd: root });

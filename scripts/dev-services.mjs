@@ -23,20 +23,38 @@ const pg = await ensurePostgres({ dataDir: join(scratch, 'pg'), preferredPort: a
 const smtpPort = await freePort();
 const httpPort = await freePort();
 const peer = await startMailPeer({ smtpPort, httpPort, dir: join(scratch, 'mail') });
-for (const [name, seedLots] of [['restvolt_template', 'on'], ['restvolt_base', 'off']]) {
+for (const [name, seedLots] of [
+	['restvolt_template', 'on'],
+	['restvolt_base', 'off']
+]) {
 	// Migrated and seeded as the owner role; the app connects as the app role (scripts/lib/roles.mjs).
 	const { ownerUrl } = await ownedDatabase(pg.url, name);
 	await migrateDatabase(ownerUrl, root);
-	const code = await runInherit('npx', ['tsx', 'seed/index.ts'], { cwd: root, env: { ...process.env, DATABASE_URL: ownerUrl, SEED_LOTS: seedLots } });
+	const code = await runInherit('npx', ['tsx', 'seed/index.ts'], {
+		cwd: root,
+		env: { ...process.env, DATABASE_URL: ownerUrl, SEED_LOTS: seedLots }
+	});
 	if (code !== 0) console.error(`[dev-services] seeding ${name} failed`);
 }
 const dbUrl = (await ownedDatabase(pg.url, 'restvolt_test', 'restvolt_template')).superUrl;
 const vars = {
-	TEST_PG_URL: pg.url, TEST_PG_BIN: pg.bin, TEST_PG_DATA: pg.dataDir, TEST_TEMPLATE_DB: 'restvolt_template', TEST_BASE_DB: 'restvolt_base',
-	TEST_SMTP_PORT: smtpPort, TEST_MAIL_HTTP_URL: `http://127.0.0.1:${httpPort}`, TEST_SCRATCH: scratch, DATABASE_URL: dbUrl
+	TEST_PG_URL: pg.url,
+	TEST_PG_BIN: pg.bin,
+	TEST_PG_DATA: pg.dataDir,
+	TEST_TEMPLATE_DB: 'restvolt_template',
+	TEST_BASE_DB: 'restvolt_base',
+	TEST_SMTP_PORT: smtpPort,
+	TEST_MAIL_HTTP_URL: `http://127.0.0.1:${httpPort}`,
+	TEST_SCRATCH: scratch,
+	DATABASE_URL: dbUrl
 };
 mkdirSync(dirname(envFile), { recursive: true });
-writeFileSync(envFile, Object.entries(vars).map(([k, v]) => `export ${k}='${v}'`).join('\n') + '\n');
+writeFileSync(
+	envFile,
+	Object.entries(vars)
+		.map(([k, v]) => `export ${k}='${v}'`)
+		.join('\n') + '\n'
+);
 console.log(`[dev-services] ready; source ${envFile}`);
 const stop = async () => {
 	await peer.stop();

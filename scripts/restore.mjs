@@ -19,7 +19,17 @@ const url = projectDatabaseUrl(root);
 // The restored tables belong to the owner role (scripts/lib/roles.mjs), as migrations made them.
 const asOwner = (await roleExists(url, OWNER_ROLE)) ? [`--role=${OWNER_ROLE}`] : [];
 // --clean --if-exists drops what the dump contains before recreating it, in one transaction.
-run(`${bin}/pg_restore`, ['--clean', '--if-exists', '--no-owner', ...asOwner, '--single-transaction', '--exit-on-error', '--dbname', url, resolve(file)]);
+run(`${bin}/pg_restore`, [
+	'--clean',
+	'--if-exists',
+	'--no-owner',
+	...asOwner,
+	'--single-transaction',
+	'--exit-on-error',
+	'--dbname',
+	url,
+	resolve(file)
+]);
 // A backup from before the app role existed carries no grants for it.
 await grantAppRole(url);
 console.log(`restored ${resolve(file)}`);

@@ -66,10 +66,22 @@ async function backdate(db: Database, lotId: string, when: Date) {
 			decidedAt: sql`case when ${lots.decidedAt} is null then null else ${later(1)} end`
 		})
 		.where(eq(lots.id, lotId));
-	await db.update(decisions).set({ decidedAt: at(1) }).where(eq(decisions.lotId, lotId));
-	await db.update(evaluations).set({ createdAt: at(1) }).where(eq(evaluations.lotId, lotId));
-	await db.update(documents).set({ uploadedAt: at(0, 1) }).where(eq(documents.lotId, lotId));
-	await db.update(notices).set({ createdAt: at(1, 1) }).where(eq(notices.lotId, lotId));
+	await db
+		.update(decisions)
+		.set({ decidedAt: at(1) })
+		.where(eq(decisions.lotId, lotId));
+	await db
+		.update(evaluations)
+		.set({ createdAt: at(1) })
+		.where(eq(evaluations.lotId, lotId));
+	await db
+		.update(documents)
+		.set({ uploadedAt: at(0, 1) })
+		.where(eq(documents.lotId, lotId));
+	await db
+		.update(notices)
+		.set({ createdAt: at(1, 1) })
+		.where(eq(notices.lotId, lotId));
 	await backdateTrail(db, lotId, at);
 }
 
@@ -85,9 +97,16 @@ async function backdateTrail(db: Database, lotId: string, at: (days: number, ste
 		await db.transaction(async (tx) => {
 			// DDL is transactional: if anything below fails, the rollback switches the trigger back on too.
 			await tx.execute(sql`alter table audit_events disable trigger audit_events_no_update_delete`);
-			const events = await tx.select({ id: auditEvents.id, action: auditEvents.action }).from(auditEvents).where(eq(auditEvents.lotId, lotId)).orderBy(asc(auditEvents.id));
+			const events = await tx
+				.select({ id: auditEvents.id, action: auditEvents.action })
+				.from(auditEvents)
+				.where(eq(auditEvents.lotId, lotId))
+				.orderBy(asc(auditEvents.id));
 			for (const [i, event] of events.entries()) {
-				await tx.update(auditEvents).set({ at: at(historyDay(event.action), i + 1) }).where(eq(auditEvents.id, event.id));
+				await tx
+					.update(auditEvents)
+					.set({ at: at(historyDay(event.action), i + 1) })
+					.where(eq(auditEvents.id, event.id));
 			}
 			await tx.execute(sql`alter table audit_events enable trigger audit_events_no_update_delete`);
 		});

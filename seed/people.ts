@@ -19,11 +19,20 @@ async function upsertOrganisation(db: Database, name: string, kind: 'own' | 'sup
 
 async function upsertUser(
 	db: Database,
-	values: { email: string; name: string; role: 'buyer' | 'inspector' | 'quality' | 'supplier' | 'admin'; organisationId: string; passwordHash: string | null }
+	values: {
+		email: string;
+		name: string;
+		role: 'buyer' | 'inspector' | 'quality' | 'supplier' | 'admin';
+		organisationId: string;
+		passwordHash: string | null;
+	}
 ) {
 	const found = await db.query.users.findFirst({ where: eq(users.email, values.email) });
 	if (found) return found.id;
-	const [row] = await db.insert(users).values({ ...values, emailVerified: new Date() }).returning({ id: users.id });
+	const [row] = await db
+		.insert(users)
+		.values({ ...values, emailVerified: new Date() })
+		.returning({ id: users.id });
 	return row.id;
 }
 

@@ -13,7 +13,12 @@ function newestMtime(path) {
 export async function ensureBuild(root, { force = false, logFile, log = console.log } = {}) {
 	const handler = join(root, 'build', 'handler.js');
 	const inputs = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'package-lock.json'];
-	const sourcesTime = Math.max(...inputs.map((p) => join(root, p)).filter(existsSync).map(newestMtime));
+	const sourcesTime = Math.max(
+		...inputs
+			.map((p) => join(root, p))
+			.filter(existsSync)
+			.map(newestMtime)
+	);
 	if (!force && existsSync(handler) && statSync(handler).mtimeMs > sourcesTime) return;
 	log('[restvolt] building the app (vite build, about a minute)…');
 	const args = ['vite', 'build', '--logLevel', 'warn'];

@@ -21,9 +21,7 @@ export function ensureDebianPackages(packages, commands) {
 	const missing = commands.filter((cmd) => !commandExists(cmd));
 	if (missing.length === 0) return;
 	if (!isRoot()) {
-		throw new Error(
-			`Missing ${missing.join(', ')}. Install the Debian packages: sudo apt-get install -y ${packages.join(' ')}`
-		);
+		throw new Error(`Missing ${missing.join(', ')}. Install the Debian packages: sudo apt-get install -y ${packages.join(' ')}`);
 	}
 	console.log(`[restvolt] installing Debian packages: ${packages.join(' ')}…`);
 	run('apt-get', ['update', '-qq'], { stdio: 'ignore' });
@@ -36,6 +34,8 @@ export function ensureDebianPackages(packages, commands) {
 /** Generate .svelte-kit/ (tsconfig paths for $lib), which the seed and scripts run through tsx rely on. */
 export async function ensureKitSync(root, { logFile } = {}) {
 	const opts = { cwd: root, env: { ...process.env, RESTVOLT_KIT_DIR: '' } };
-	const code = logFile ? await runLogged('npx', ['svelte-kit', 'sync'], { ...opts, logFile }) : await runInherit('npx', ['svelte-kit', 'sync'], opts);
+	const code = logFile
+		? await runLogged('npx', ['svelte-kit', 'sync'], { ...opts, logFile })
+		: await runInherit('npx', ['svelte-kit', 'sync'], opts);
 	if (code !== 0) throw new Error('svelte-kit sync failed');
 }

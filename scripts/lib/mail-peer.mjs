@@ -66,7 +66,12 @@ async function parseMessage(dir, id) {
 		envelope,
 		messageId: parsed.messageId ?? null,
 		from: parsed.from?.text ?? '',
-		to: parsed.to ? [parsed.to].flat().map((a) => a.text).join(', ') : '',
+		to: parsed.to
+			? [parsed.to]
+					.flat()
+					.map((a) => a.text)
+					.join(', ')
+			: '',
 		subject: parsed.subject ?? '',
 		date: parsed.date?.toISOString() ?? null,
 		text: parsed.text ?? '',

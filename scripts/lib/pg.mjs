@@ -48,9 +48,7 @@ function isRunning(bin, dataDir) {
 	if (!existsSync(join(dataDir, 'postmaster.pid'))) return false;
 	const cmd = join(bin, 'pg_ctl');
 	const args = ['-D', dataDir, 'status'];
-	const res = isRoot()
-		? spawnSync('runuser', ['-u', 'postgres', '--', cmd, ...args])
-		: spawnSync(cmd, args);
+	const res = isRoot() ? spawnSync('runuser', ['-u', 'postgres', '--', cmd, ...args]) : spawnSync(cmd, args);
 	return res.status === 0;
 }
 
@@ -122,7 +120,9 @@ export async function ensureDatabase(serverUrl, name, template, { owner } = {}) 
 		const { rowCount } = await client.query('select 1 from pg_database where datname = $1', [name]);
 		if (rowCount === 0) {
 			const ident = (s) => `"${s.replaceAll('"', '""')}"`;
-			await client.query(`create database ${ident(name)}${template ? ` template ${ident(template)}` : ''}${owner ? ` owner ${ident(owner)}` : ''}`);
+			await client.query(
+				`create database ${ident(name)}${template ? ` template ${ident(template)}` : ''}${owner ? ` owner ${ident(owner)}` : ''}`
+			);
 		}
 	} finally {
 		await client.end();

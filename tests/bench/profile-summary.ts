@@ -35,7 +35,9 @@ const byPackage = new Map<string, number>();
 for (const [key, us] of byFunction) {
 	if (key.startsWith('(idle)') || key.startsWith('(program)')) continue;
 	const where = key.split(' ').at(-1) ?? '';
-	const pkg = /node_modules\/((@[^/]+\/)?[^/]+)/.exec(where)?.[1] ?? (where.startsWith('node:') ? 'node' : where.startsWith('build') ? 'app' : where.startsWith(':') ? key.split(' ')[0] : 'other');
+	const pkg =
+		/node_modules\/((@[^/]+\/)?[^/]+)/.exec(where)?.[1] ??
+		(where.startsWith('node:') ? 'node' : where.startsWith('build') ? 'app' : where.startsWith(':') ? key.split(' ')[0] : 'other');
 	byPackage.set(pkg, (byPackage.get(pkg) ?? 0) + us);
 }
 const busy = [...byPackage.values()].reduce((a, b) => a + b, 0);

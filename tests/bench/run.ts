@@ -32,7 +32,9 @@ const seconds = (since: number) => `${((performance.now() - since) / 1000).toFix
 async function printMachine(databaseUrl: string) {
 	const pgVersion = await withClient(databaseUrl, async (c) => (await c.query('show server_version')).rows[0].server_version as string);
 	const cpu = cpus();
-	console.log(`machine cores=${cpu.length} cpu="${cpu[0]?.model.trim() ?? 'unknown'}" memory=${(totalmem() / 1024 ** 3).toFixed(1)}GB node=${process.version} postgres=${pgVersion} platform=${process.platform}-${process.arch} cpus=${placement()}`);
+	console.log(
+		`machine cores=${cpu.length} cpu="${cpu[0]?.model.trim() ?? 'unknown'}" memory=${(totalmem() / 1024 ** 3).toFixed(1)}GB node=${process.version} postgres=${pgVersion} platform=${process.platform}-${process.arch} cpus=${placement()}`
+	);
 }
 
 /** Lines that were measured; `false` entries mark operations that could not run. */
@@ -74,7 +76,9 @@ async function prepare(databaseUrl: string) {
 		const part = await benchPart(client);
 		let t = performance.now();
 		const scale = await loadScaleData(client, (text) => log(`data set: ${text} (${seconds(t)})`));
-		log(`data set: ${scale.lots.toLocaleString('en')} lots, ${scale.readings.toLocaleString('en')} readings (${seconds(t)}${scale.reused ? ', already loaded' : ''})`);
+		log(
+			`data set: ${scale.lots.toLocaleString('en')} lots, ${scale.readings.toLocaleString('en')} readings (${seconds(t)}${scale.reused ? ', already loaded' : ''})`
+		);
 		t = performance.now();
 		const bigLotId = await createBenchLot(client, part, 1_000_000, 'EVAL2000');
 		await insertReadings(client, bigLotId, syntheticReadings(2000, 1));
@@ -99,7 +103,16 @@ async function main() {
 	let app: BenchApp | undefined;
 	try {
 		app = await startBenchApp(databaseUrl, buildDir);
-		const ctx: BenchContext = { app, databaseUrl, pgBin: need('BENCH_PG_BIN'), scratch: need('BENCH_SCRATCH'), part, token, bigLotId, sampleLotId };
+		const ctx: BenchContext = {
+			app,
+			databaseUrl,
+			pgBin: need('BENCH_PG_BIN'),
+			scratch: need('BENCH_SCRATCH'),
+			part,
+			token,
+			bigLotId,
+			sampleLotId
+		};
 
 		await attempt(['evaluate-lot-2000'], 'app', async () => report(await benchEvaluateLot(ctx)));
 		await attempt(['ocv-evaluate-10000'], 'load', async () => report(await benchOcvEvaluate(ctx)));

@@ -38,7 +38,12 @@ async function typeRow(page: Page, r: { serial: string; ocv_v: number; temperatu
 
 test('keyboard entry, live feedback, retry after a network error, meter import and submit', async ({ page }) => {
 	// 5 units → MIL-STD-105E Table I letter A; at AQL 1.0 the plan is every unit (n 5, Ac 0, Re 1).
-	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary', 'sds'] });
+	const lot = await createLot(buyer, {
+		partNumber: 'VC-21700-50G',
+		quantity: 5,
+		declaredSoc: 0.3,
+		documents: ['coc', 'un38_3_summary', 'sds']
+	});
 	const rows = modelReadings('NMC', 5, 0.3, { prefix: 'VC50G' });
 
 	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
@@ -89,7 +94,13 @@ test('keyboard entry, live feedback, retry after a network error, meter import a
 	await page.unroute('**/api/v1/lots/*/readings');
 
 	// The last two units come from a meter file (semicolons, decimal commas, OCV in mV).
-	const csv = 'Serial;OCV (mV);Temp (°C);ACIR (mΩ)\n' + rows.slice(3).map((r) => `${r.serial};${(r.ocv_v * 1000).toFixed(1).replace('.', ',')};24,5;18,2`).join('\n') + '\n;;;\nBAD-1;oops;25;18\n';
+	const csv =
+		'Serial;OCV (mV);Temp (°C);ACIR (mΩ)\n' +
+		rows
+			.slice(3)
+			.map((r) => `${r.serial};${(r.ocv_v * 1000).toFixed(1).replace('.', ',')};24,5;18,2`)
+			.join('\n') +
+		'\n;;;\nBAD-1;oops;25;18\n';
 	await page.locator('input[type="file"]').setInputFiles({ name: 'bench-meter.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
 	await expect(page.getByTestId('import-summary')).toContainText('2 valid of 3 rows · 1 error(s)');
 	await expect(page.getByLabel('OCV unit')).toHaveValue('mV');
@@ -97,7 +108,9 @@ test('keyboard entry, live feedback, retry after a network error, meter import a
 	await shot(page, 'import-preview');
 	await page.getByText('Leave out rows with errors').click();
 	await page.getByRole('button', { name: 'Import 2 reading(s)' }).click();
-	await expect(page.getByTestId('import-message')).toContainText('Imported 2 reading(s) from bench-meter.csv; 1 row(s) with errors left out');
+	await expect(page.getByTestId('import-message')).toContainText(
+		'Imported 2 reading(s) from bench-meter.csv; 1 row(s) with errors left out'
+	);
 	await expect(page.getByTestId('server-evaluation')).toContainText('5 of 5');
 	await expect(page.getByTestId('server-status')).toHaveAttribute('data-status', 'accept');
 	await expect(page.getByTestId('stored-row')).toHaveCount(2);
@@ -111,7 +124,12 @@ test('keyboard entry, live feedback, retry after a network error, meter import a
 });
 
 test('a deep-discharged unit gets the quarantine caution at once, and the server rejects', async ({ page }) => {
-	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary', 'sds'] });
+	const lot = await createLot(buyer, {
+		partNumber: 'VC-21700-50G',
+		quantity: 5,
+		declaredSoc: 0.3,
+		documents: ['coc', 'un38_3_summary', 'sds']
+	});
 	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
 	await page.goto(`${app.url}/lots/${lot.id}/inspect`);
 	await expect(page.getByLabel('Serial')).toBeFocused();
@@ -128,7 +146,12 @@ test('a deep-discharged unit gets the quarantine caution at once, and the server
 });
 
 test('a mistyped stored reading is corrected in place with a reason, and the evaluation follows', async ({ page }) => {
-	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary', 'sds'] });
+	const lot = await createLot(buyer, {
+		partNumber: 'VC-21700-50G',
+		quantity: 5,
+		declaredSoc: 0.3,
+		documents: ['coc', 'un38_3_summary', 'sds']
+	});
 	const inspector: Caller = { base: app.url, token: await tokenFor(db.url, 'inspector@kestrel-mobility.example') };
 	const readings = modelReadings('NMC', 3, 0.3, { prefix: 'VC50G-FIX' });
 	readings[1] = { ...readings[1], ocv_v: 2.05 }; // typed wrong: reads as a deep discharge
@@ -158,7 +181,12 @@ test('a mistyped stored reading is corrected in place with a reason, and the eva
 });
 
 test('a row typed in this sitting can be corrected at once, without reloading the page', async ({ page }) => {
-	const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary', 'sds'] });
+	const lot = await createLot(buyer, {
+		partNumber: 'VC-21700-50G',
+		quantity: 5,
+		declaredSoc: 0.3,
+		documents: ['coc', 'un38_3_summary', 'sds']
+	});
 	const [row] = modelReadings('NMC', 1, 0.3, { prefix: 'VC50G-NOW' });
 	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
 	await page.goto(`${app.url}/lots/${lot.id}/inspect`);

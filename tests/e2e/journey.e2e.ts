@@ -38,8 +38,18 @@ const startedAt = Date.now() - 1000; // the shared mail peer keeps mail of earli
 
 const PEOPLE = {
 	buyer: { email: 'elin.varga@kestrel-mobility.example', name: 'Elin Varga', role: 'Buyer', password: 'copper kettle on the night bench' },
-	inspector: { email: 'teodor.lund@kestrel-mobility.example', name: 'Teodor Lund', role: 'Receiving inspector', password: 'seven cells wait in a quiet row' },
-	quality: { email: 'priya.halden@kestrel-mobility.example', name: 'Priya Halden', role: 'Quality manager', password: 'the amber light means look twice' }
+	inspector: {
+		email: 'teodor.lund@kestrel-mobility.example',
+		name: 'Teodor Lund',
+		role: 'Receiving inspector',
+		password: 'seven cells wait in a quiet row'
+	},
+	quality: {
+		email: 'priya.halden@kestrel-mobility.example',
+		name: 'Priya Halden',
+		role: 'Quality manager',
+		password: 'the amber light means look twice'
+	}
 } as const;
 const SUPPLIER = 'Voltaria Cells Co.';
 const SUPPLIER_USER = 'supplier@voltaria-cells.example';
@@ -106,7 +116,11 @@ test('the readings behind the journey: a hold by the air rule, not a reject', ()
 	// Guard for the data above (same library model as the server): every unit wholly above 30 % SOC,
 	// and within the part's default residual tolerance (60 mV) of the OCV expected at 30 % → hold.
 	for (const r of SAMPLE) {
-		const u = evaluateReading(NMC, { ocv_v: r.ocv_v, temperature_c: r.temperature_c }, { declared_soc: DECLARED_SOC, meter_accuracy_v: 0.002 });
+		const u = evaluateReading(
+			NMC,
+			{ ocv_v: r.ocv_v, temperature_c: r.temperature_c },
+			{ declared_soc: DECLARED_SOC, meter_accuracy_v: 0.002 }
+		);
 		expect(u.soc_low).toBeGreaterThan(AIR_SOC_LIMIT);
 		expect(Math.abs(u.residual_v!)).toBeLessThan(0.06);
 	}
@@ -211,8 +225,16 @@ test('2. the new buyer adds a part, registers a lot with its documents and relea
 		await page.getByRole('button', { name: 'Attach' }).click();
 		await expect(page.getByRole('link', { name })).toBeVisible();
 	};
-	await attach('Certificate of conformity', 'coc-po-0912.pdf', await pdf('Certificate of conformity', `${PART.number}, PO-2026-0912, ${QUANTITY} units`));
-	await attach('UN 38.3 test summary', 'un38-3-summary-vc42j.pdf', await pdf('UN 38.3 test summary', `${PART.number}, tests T.1–T.8 passed`));
+	await attach(
+		'Certificate of conformity',
+		'coc-po-0912.pdf',
+		await pdf('Certificate of conformity', `${PART.number}, PO-2026-0912, ${QUANTITY} units`)
+	);
+	await attach(
+		'UN 38.3 test summary',
+		'un38-3-summary-vc42j.pdf',
+		await pdf('UN 38.3 test summary', `${PART.number}, tests T.1–T.8 passed`)
+	);
 	await expect(page.getByText('All required documents are attached.')).toBeVisible();
 	await shot(page, 'buyer-lot-documents');
 
@@ -246,7 +268,11 @@ test('3. the new inspector records the sample by keyboard and from a meter file'
 
 	// First unit by keyboard, stopping before the final Enter to read the live feedback.
 	const first = KEYED[0];
-	const expected = evaluateReading(NMC, { ocv_v: first.ocv_v, temperature_c: first.temperature_c }, { declared_soc: DECLARED_SOC, meter_accuracy_v: 0.002 });
+	const expected = evaluateReading(
+		NMC,
+		{ ocv_v: first.ocv_v, temperature_c: first.temperature_c },
+		{ declared_soc: DECLARED_SOC, meter_accuracy_v: 0.002 }
+	);
 	await page.keyboard.type(first.serial);
 	await page.keyboard.press('Enter');
 	await expect(page.getByLabel('OCV in volts')).toBeFocused();
@@ -278,8 +304,13 @@ test('3. the new inspector records the sample by keyboard and from a meter file'
 	await shot(page, 'inspector-keyed-rows');
 
 	// The rest from the bench meter's CSV: its serial column has a name the guess does not know.
-	const csv = 'Cell;Reading (mV);Bench °C;Operator\n' + METER.map((r) => `${r.serial};${(r.ocv_v * 1000).toFixed(1)};${r.temperature_c};TL`).join('\n') + '\n';
-	await page.getByLabel('Meter file', { exact: true }).setInputFiles({ name: 'meter-vc42j.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+	const csv =
+		'Cell;Reading (mV);Bench °C;Operator\n' +
+		METER.map((r) => `${r.serial};${(r.ocv_v * 1000).toFixed(1)};${r.temperature_c};TL`).join('\n') +
+		'\n';
+	await page
+		.getByLabel('Meter file', { exact: true })
+		.setInputFiles({ name: 'meter-vc42j.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
 	await expect(page.getByLabel('Column for OCV')).toHaveValue('1');
 	await expect(page.getByLabel('OCV unit')).toHaveValue('mV');
 	await expect(page.getByTestId('import-summary')).toContainText(`0 valid of ${METER.length} rows`);
@@ -416,7 +447,9 @@ test('6. the supplier signs in by e-mailed link, reads the notices and the repor
 
 	await hold.getByRole('button', { name: 'Acknowledge this notice' }).click();
 	await expect(hold.getByText(/✓ Acknowledged/)).toBeVisible();
-	await hold.getByLabel(/^Reply to/).fill('Noted: from the next shipment on we set the SOC to 30 % before air freight. Our charge record is attached.');
+	await hold
+		.getByLabel(/^Reply to/)
+		.fill('Noted: from the next shipment on we set the SOC to 30 % before air freight. Our charge record is attached.');
 	await hold.getByLabel(/^Document/).setInputFiles({
 		name: 'charge-record-vc42j.pdf',
 		mimeType: 'application/pdf',

@@ -99,7 +99,9 @@ test('a buyer registers a lot with documents and releases it', async ({ page }) 
 	await expect(row.locator('[data-status]')).toHaveText('Awaiting arrival');
 	await shot(page, 'lots-list');
 
-	const rows = await withClient(db.url, (c) => c.query(`select status, declared_soc, un_number from lots where po_number = 'PO-2026-0417'`));
+	const rows = await withClient(db.url, (c) =>
+		c.query(`select status, declared_soc, un_number from lots where po_number = 'PO-2026-0417'`)
+	);
 	expect(rows.rows).toEqual([{ status: 'awaiting_arrival', declared_soc: 0.45, un_number: 'UN3480' }]);
 });
 
@@ -110,7 +112,14 @@ test('the lot list pages through many lots and filters by status', async ({ page
 			await c.query(
 				`insert into lots (lot_code, po_number, supplier_id, part_id, quantity, declared_soc, transport, status, created_at)
 				 values ($1, $2, $3, $4, 50, 0.9, 'road', $5, now() - ($6 || ' minutes')::interval)`,
-				[`L-1999-${String(i).padStart(5, '0')}`, `PO-LEAD-${i}`, part.supplier_id, part.id, i % 3 === 0 ? 'cancelled' : 'awaiting_arrival', String(i)]
+				[
+					`L-1999-${String(i).padStart(5, '0')}`,
+					`PO-LEAD-${i}`,
+					part.supplier_id,
+					part.id,
+					i % 3 === 0 ? 'cancelled' : 'awaiting_arrival',
+					String(i)
+				]
 			);
 		}
 	});
@@ -128,7 +137,9 @@ test('the lot list pages through many lots and filters by status', async ({ page
 
 	await page.getByRole('combobox', { name: 'Status' }).selectOption({ label: 'Cancelled' });
 	await page.getByRole('button', { name: 'Show lots' }).click();
-	const cancelled = await withClient(db.url, async (c) => Number((await c.query(`select count(*) from lots where status = 'cancelled'`)).rows[0].count));
+	const cancelled = await withClient(db.url, async (c) =>
+		Number((await c.query(`select count(*) from lots where status = 'cancelled'`)).rows[0].count)
+	);
 	expect(cancelled).toBeGreaterThanOrEqual(10);
 	await expect(table.locator('tbody tr')).toHaveCount(Math.min(25, cancelled));
 	await expect(table.locator('[data-status="cancelled"]')).toHaveCount(Math.min(25, cancelled));
@@ -192,12 +203,21 @@ test('a buyer adds a supplier contact who receives notices', async ({ page }) =>
 
 test('a buyer corrects a lot’s quantity before arrival and the sampling plan follows', async ({ page }) => {
 	const token = await tokenFor(db.url, 'buyer@kestrel-mobility.example');
-	const api = (path: string, init: RequestInit = {}) => fetch(`${app.url}${path}`, { ...init, headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' } });
+	const api = (path: string, init: RequestInit = {}) =>
+		fetch(`${app.url}${path}`, { ...init, headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' } });
 	const parts = await (await api('/api/v1/parts')).json();
 	const part = (parts.parts ?? parts).find((p: { part_number: string }) => p.part_number === 'VC-18650-35E');
 	const created = await api('/api/v1/lots', {
 		method: 'POST',
-		body: JSON.stringify({ po_number: 'PO-2026-0533', supplier_id: part.supplier_id, part_id: part.id, quantity: 1200, declared_soc: 0.3, transport: 'sea', un_number: 'UN3480' })
+		body: JSON.stringify({
+			po_number: 'PO-2026-0533',
+			supplier_id: part.supplier_id,
+			part_id: part.id,
+			quantity: 1200,
+			declared_soc: 0.3,
+			transport: 'sea',
+			un_number: 'UN3480'
+		})
 	});
 	expect(created.status).toBe(201);
 	const lot = await created.json();

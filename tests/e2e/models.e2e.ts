@@ -88,7 +88,10 @@ test('a quality manager saves a fitted NMC version and approves it; a non-monoto
 	await signInPage(page, app.url, 'quality@kestrel-mobility.example');
 	await page.goto(`${app.url}/models/NMC`);
 
-	await pasteReference(page, referenceCsv('NMC', 25, (soc) => -0.15 * Math.sin(2 * Math.PI * soc)));
+	await pasteReference(
+		page,
+		referenceCsv('NMC', 25, (soc) => -0.15 * Math.sin(2 * Math.PI * soc))
+	);
 	await expect(page.getByTestId('fit-verdict')).toContainText('Fit rejected');
 	await expect(page.getByRole('button', { name: 'Save as a new model version for NMC' })).toBeDisabled();
 	await shot(page, 'nmc-rejected-fit');

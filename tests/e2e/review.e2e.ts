@@ -81,7 +81,10 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	await page.getByRole('button', { name: 'Sign and record decision' }).click();
 	await expect(page.getByTestId('decision-message')).toContainText('The lot changed since the signing challenge was issued');
 	// The page reloads with fresh challenges for the lot's new revision before it signs again.
-	const revision = await withClient(db.url, async (c) => (await c.query('select revision from lots where id = $1', [held.id])).rows[0].revision);
+	const revision = await withClient(
+		db.url,
+		async (c) => (await c.query('select revision from lots where id = $1', [held.id])).rows[0].revision
+	);
 	await expect(page.getByText(`revision ${revision}; sign before`)).toBeVisible();
 	await shot(page, 'review-lot-changed');
 
@@ -114,10 +117,14 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 });
 
 test('the supplier reads the notice and the report, acknowledges and replies', async ({ page }) => {
-	await waitUntil(async () => {
-		const rows = await withClient(db.url, async (c) => (await c.query(`select status from notices where lot_id = $1`, [held.id])).rows);
-		return rows.length === 2 && rows.every((r) => r.status === 'sent');
-	}, 20_000, 'notices sent');
+	await waitUntil(
+		async () => {
+			const rows = await withClient(db.url, async (c) => (await c.query(`select status from notices where lot_id = $1`, [held.id])).rows);
+			return rows.length === 2 && rows.every((r) => r.status === 'sent');
+		},
+		20_000,
+		'notices sent'
+	);
 	await signInSupplierByLink(page, app.url, 'supplier@voltaria-cells.example');
 	await expect(page.getByRole('heading', { name: 'Your lots and notices' })).toBeVisible();
 	await shot(page, 'portal-home');
@@ -166,7 +173,10 @@ test('the buyer sees the decisions, notices and the reply on the lot page', asyn
 });
 
 test('the buyer reads the supplier scorecard, drawn from the API in the browser', async ({ page }) => {
-	const supplierId = await withClient(db.url, async (c) => (await c.query('select supplier_id from lots where id = $1', [held.id])).rows[0].supplier_id);
+	const supplierId = await withClient(
+		db.url,
+		async (c) => (await c.query('select supplier_id from lots where id = $1', [held.id])).rows[0].supplier_id
+	);
 	await signInPage(page, app.url, 'buyer@kestrel-mobility.example');
 	await page.goto(`${app.url}/suppliers/${supplierId}/scorecard`);
 	await expect(page.getByRole('heading', { name: 'Voltaria Cells Co.' })).toBeVisible();
@@ -187,8 +197,15 @@ test('the buyer reads the supplier scorecard, drawn from the API in the browser'
 });
 
 test('an administrator retries a notice that gave up', async ({ page }) => {
-	const [notice] = await withClient(db.url, async (c) =>
-		(await c.query(`update notices set status = 'failed', attempts = 8, last_error = 'relay refused (set by the test)' where lot_id = $1 and kind = 'reject' returning id`, [other.id])).rows
+	const [notice] = await withClient(
+		db.url,
+		async (c) =>
+			(
+				await c.query(
+					`update notices set status = 'failed', attempts = 8, last_error = 'relay refused (set by the test)' where lot_id = $1 and kind = 'reject' returning id`,
+					[other.id]
+				)
+			).rows
 	);
 	await signInPage(page, app.url, 'admin@kestrel-mobility.example');
 	await page.goto(`${app.url}/admin/outbox`);
@@ -197,10 +214,14 @@ test('an administrator retries a notice that gave up', async ({ page }) => {
 	await shot(page, 'outbox-failed');
 	await row.getByRole('button', { name: 'Retry now' }).click();
 	await expect(page.getByText('The notice is queued again')).toBeVisible();
-	await waitUntil(async () => {
-		const [r] = await withClient(db.url, async (c) => (await c.query('select status from notices where id = $1', [notice.id])).rows);
-		return r.status === 'sent';
-	}, 20_000, 'retried notice sent');
+	await waitUntil(
+		async () => {
+			const [r] = await withClient(db.url, async (c) => (await c.query('select status from notices where id = $1', [notice.id])).rows);
+			return r.status === 'sent';
+		},
+		20_000,
+		'retried notice sent'
+	);
 	await page.getByRole('button', { name: 'Refresh' }).click();
 	await expect(page.locator(`tr[data-notice-id="${notice.id}"]`)).toHaveCount(1); // now under "Recently sent"
 	await shot(page, 'outbox-after-retry');

@@ -165,7 +165,13 @@ export async function signInApiWithCode(baseUrl: string, email: string, code: st
 }
 
 /** Playwright: staff sign-in with a second factor; `code` is asked for when the code step shows. */
-export async function signInPageWithCode(page: Page, baseUrl: string, email: string, code: () => string, password = DEMO_PASSWORD): Promise<void> {
+export async function signInPageWithCode(
+	page: Page,
+	baseUrl: string,
+	email: string,
+	code: () => string,
+	password = DEMO_PASSWORD
+): Promise<void> {
 	await page.goto(`${baseUrl}/signin`);
 	await page.getByLabel('Work e-mail').fill(email);
 	await page.getByLabel('Password').fill(password);

@@ -30,7 +30,10 @@ export async function mailTo(address: string, baseUrl?: string): Promise<Receive
 	return (await readMail(baseUrl)).filter((m) => m.envelope.to.includes(address));
 }
 
-export async function waitForMail(predicate: (m: ReceivedMail) => boolean, { timeoutMs = 15_000, baseUrl }: { timeoutMs?: number; baseUrl?: string } = {}) {
+export async function waitForMail(
+	predicate: (m: ReceivedMail) => boolean,
+	{ timeoutMs = 15_000, baseUrl }: { timeoutMs?: number; baseUrl?: string } = {}
+) {
 	const deadline = Date.now() + timeoutMs;
 	while (Date.now() < deadline) {
 		const found = (await readMail(baseUrl)).filter(predicate);

@@ -36,7 +36,16 @@ let app: RunningApp;
 let db: Awaited<ReturnType<typeof freshDatabase>>;
 let ids: SeedIds;
 /** A's lots used by the matrix: read (on hold, with readings, documents, a notice), write targets. */
-let L: { read: string; open: string; decide: string; submitByInspector: string; submitByQuality: string; readingId: number; notice: string; document: string };
+let L: {
+	read: string;
+	open: string;
+	decide: string;
+	submitByInspector: string;
+	submitByQuality: string;
+	readingId: number;
+	notice: string;
+	document: string;
+};
 let tokens: Record<Exclude<RoleKey, 'anonymous'>, string>;
 let cookies: Record<Exclude<RoleKey, 'anonymous'>, string>;
 let fitPoints: Array<{ soc: number; ocv_v: number }>;
@@ -61,24 +70,64 @@ const row = (...e: Expect[]): Record<RoleKey, Expect> => Object.fromEntries(ROLE
 const pdf = (text: string) => new Blob([new TextEncoder().encode(`%PDF-1.4\n% ${text}\n%%EOF\n`)], { type: 'application/pdf' });
 
 function apiCases(): ApiCase[] {
-	const lot = (suffix = '') => () => `/api/v1/lots/${L.read}${suffix}`;
+	const lot =
+		(suffix = '') =>
+		() =>
+			`/api/v1/lots/${L.read}${suffix}`;
 	return [
 		//                                                                                       buyer inspector quality supA supB admin anon
 		{ name: 'GET health', path: () => '/api/v1/health', expect: row(ok, ok, ok, ok, ok, ok, ok) },
 		{ name: 'GET me', path: () => '/api/v1/me', expect: row(ok, ok, ok, ok, ok, ok, 401) },
 		{ name: 'GET chemistries', path: () => '/api/v1/chemistries', expect: row(ok, ok, ok, 403, 403, ok, 401) },
-		{ name: 'GET chemistries/[code]/curve', path: () => '/api/v1/chemistries/NMC/curve?points=11', expect: row(ok, ok, ok, 403, 403, ok, 401) },
-		{ name: 'POST electrochem/cell-potential', path: () => '/api/v1/electrochem/cell-potential', body: () => ({ e0_v: 1.1, n: 2, temperature_c: 25, q: 1 }), expect: row(ok, ok, ok, 403, 403, ok, 401) },
-		{ name: 'POST ocv/evaluate', path: () => '/api/v1/ocv/evaluate', body: () => ({ chemistry: 'NMC', readings: [{ ocv_v: 3.6, temperature_c: 25 }] }), expect: row(ok, ok, ok, 403, 403, ok, 401) },
-		{ name: 'POST ocv/fit', path: () => '/api/v1/ocv/fit', body: () => ({ chemistry: 'NMC', temperature_c: 25, points: fitPoints }), expect: row(ok, ok, ok, 403, 403, ok, 401) },
+		{
+			name: 'GET chemistries/[code]/curve',
+			path: () => '/api/v1/chemistries/NMC/curve?points=11',
+			expect: row(ok, ok, ok, 403, 403, ok, 401)
+		},
+		{
+			name: 'POST electrochem/cell-potential',
+			path: () => '/api/v1/electrochem/cell-potential',
+			body: () => ({ e0_v: 1.1, n: 2, temperature_c: 25, q: 1 }),
+			expect: row(ok, ok, ok, 403, 403, ok, 401)
+		},
+		{
+			name: 'POST ocv/evaluate',
+			path: () => '/api/v1/ocv/evaluate',
+			body: () => ({ chemistry: 'NMC', readings: [{ ocv_v: 3.6, temperature_c: 25 }] }),
+			expect: row(ok, ok, ok, 403, 403, ok, 401)
+		},
+		{
+			name: 'POST ocv/fit',
+			path: () => '/api/v1/ocv/fit',
+			body: () => ({ chemistry: 'NMC', temperature_c: 25, points: fitPoints }),
+			expect: row(ok, ok, ok, 403, 403, ok, 401)
+		},
 		{ name: 'GET models', path: () => '/api/v1/models', expect: row(ok, ok, ok, 403, 403, 403, 401) },
 		{ name: 'GET models/[id=uuid]', path: () => `/api/v1/models/${ids.libraryModel}`, expect: row(ok, ok, ok, 403, 403, 403, 401) },
-		{ name: 'POST models', path: () => '/api/v1/models', body: (r) => ({ chemistry: 'NMC', temperature_c: 25, points: fitPoints, label: `matrix ${r}` }), expect: row(403, 403, ok, 403, 403, 403, 401) },
-		{ name: 'POST models/[id=uuid]/approve', path: () => `/api/v1/models/${savedModelId}/approve`, expect: row(403, 403, ok, 403, 403, 403, 401) },
+		{
+			name: 'POST models',
+			path: () => '/api/v1/models',
+			body: (r) => ({ chemistry: 'NMC', temperature_c: 25, points: fitPoints, label: `matrix ${r}` }),
+			expect: row(403, 403, ok, 403, 403, 403, 401)
+		},
+		{
+			name: 'POST models/[id=uuid]/approve',
+			path: () => `/api/v1/models/${savedModelId}/approve`,
+			expect: row(403, 403, ok, 403, 403, 403, 401)
+		},
 		{ name: 'GET lots', path: () => '/api/v1/lots', expect: row(ok, ok, ok, ok, ok, 403, 401) },
 		{
-			name: 'POST lots', path: () => '/api/v1/lots',
-			body: (r) => ({ po_number: `PO-MATRIX-${r}`, supplier_id: ids.supplier.a, part_id: partIdA, quantity: 100, declared_soc: 0.3, transport: 'road', un_number: 'UN3480' }),
+			name: 'POST lots',
+			path: () => '/api/v1/lots',
+			body: (r) => ({
+				po_number: `PO-MATRIX-${r}`,
+				supplier_id: ids.supplier.a,
+				part_id: partIdA,
+				quantity: 100,
+				declared_soc: 0.3,
+				transport: 'road',
+				un_number: 'UN3480'
+			}),
 			expect: row(ok, 403, 403, 403, 403, 403, 401)
 		},
 		{ name: 'GET lots.xlsx', path: () => '/api/v1/lots.xlsx', expect: row(ok, ok, ok, ok, ok, 403, 401) },
@@ -90,9 +139,14 @@ function apiCases(): ApiCase[] {
 		{ name: 'GET lots/[id=uuid]/report.pdf', path: lot('/report.pdf'), expect: row(ok, ok, ok, ok, 404, 403, 401) },
 		{ name: 'GET lots/[id=uuid]/quarantine-tag.pdf', path: lot('/quarantine-tag.pdf'), expect: row(ok, ok, ok, ok, 404, 403, 401) },
 		{ name: 'GET lots/[id=uuid]/documents', path: lot('/documents'), expect: row(ok, ok, ok, ok, 404, 403, 401) },
-		{ name: 'GET lots/[id=uuid]/documents/[docId=uuid]', path: () => `/api/v1/lots/${L.read}/documents/${L.document}`, expect: row(ok, ok, ok, ok, 404, 403, 401) },
 		{
-			name: 'POST lots/[id=uuid]/documents', path: lot('/documents'),
+			name: 'GET lots/[id=uuid]/documents/[docId=uuid]',
+			path: () => `/api/v1/lots/${L.read}/documents/${L.document}`,
+			expect: row(ok, ok, ok, ok, 404, 403, 401)
+		},
+		{
+			name: 'POST lots/[id=uuid]/documents',
+			path: lot('/documents'),
 			form: (r) => {
 				const f = new FormData();
 				f.set('kind', 'other');
@@ -102,17 +156,21 @@ function apiCases(): ApiCase[] {
 			expect: row(ok, 403, 403, 403, 403, 403, 401)
 		},
 		{
-			name: 'POST lots/[id=uuid]/readings', path: () => `/api/v1/lots/${L.open}/readings`,
+			name: 'POST lots/[id=uuid]/readings',
+			path: () => `/api/v1/lots/${L.open}/readings`,
 			body: (r) => ({ readings: [{ serial: `MX-${r}`, ocv_v: 3.6, temperature_c: 25 }] }),
 			expect: row(403, ok, 403, 403, 403, 403, 401)
 		},
 		{
-			name: 'PATCH lots/[id=uuid]/readings/[readingId]', method: 'PATCH', path: () => `/api/v1/lots/${L.open}/readings/${L.readingId}`,
+			name: 'PATCH lots/[id=uuid]/readings/[readingId]',
+			method: 'PATCH',
+			path: () => `/api/v1/lots/${L.open}/readings/${L.readingId}`,
 			body: () => ({ temperature_c: 24.5, reason: 'matrix: thermometer misread' }),
 			expect: row(403, ok, 403, 403, 403, 403, 401)
 		},
 		{
-			name: 'POST lots/[id=uuid]/imports', path: () => `/api/v1/lots/${L.open}/imports`,
+			name: 'POST lots/[id=uuid]/imports',
+			path: () => `/api/v1/lots/${L.open}/imports`,
 			form: (r) => {
 				const f = new FormData();
 				f.set('file', new Blob([`serial,ocv,temp\nIMP-${r}-1,3.61,25\nIMP-${r}-2,3.62,25\n`], { type: 'text/csv' }), `meter-${r}.csv`);
@@ -121,25 +179,46 @@ function apiCases(): ApiCase[] {
 			},
 			expect: row(403, ok, 403, 403, 403, 403, 401)
 		},
-		{ name: 'POST lots/[id=uuid]/submit', path: () => `/api/v1/lots/${L.submitByInspector}/submit`, expect: row(403, ok, ok, 403, 403, 403, 401) },
 		{
-			name: 'POST lots/[id=uuid]/decision/challenge', path: () => `/api/v1/lots/${L.decide}/decision/challenge`, session: true,
+			name: 'POST lots/[id=uuid]/submit',
+			path: () => `/api/v1/lots/${L.submitByInspector}/submit`,
+			expect: row(403, ok, ok, 403, 403, 403, 401)
+		},
+		{
+			name: 'POST lots/[id=uuid]/decision/challenge',
+			path: () => `/api/v1/lots/${L.decide}/decision/challenge`,
+			session: true,
 			body: () => ({ decision: 'reject' }),
 			expect: row(403, 403, ok, 403, 403, 403, 401)
 		},
 		{
-			name: 'POST lots/[id=uuid]/decision', path: () => `/api/v1/lots/${L.decide}/decision`, session: true,
+			name: 'POST lots/[id=uuid]/decision',
+			path: () => `/api/v1/lots/${L.decide}/decision`,
+			session: true,
 			// Quality signs with a challenge of its own; the others are refused before the body is read.
-			body: async (r) => ({ decision: 'reject', reason: 'matrix: confirmed the hold', password: DEMO_PASSWORD, challenge_id: r === 'quality' ? await signingChallenge(L.decide, 'reject') : randomUUID() }),
+			body: async (r) => ({
+				decision: 'reject',
+				reason: 'matrix: confirmed the hold',
+				password: DEMO_PASSWORD,
+				challenge_id: r === 'quality' ? await signingChallenge(L.decide, 'reject') : randomUUID()
+			}),
 			expect: row(403, 403, ok, 403, 403, 403, 401)
 		},
 		{ name: 'GET notices', path: () => '/api/v1/notices', expect: row(ok, ok, ok, ok, ok, 403, 401) },
 		{ name: 'GET notices?lot_id', path: () => `/api/v1/notices?lot_id=${L.read}`, expect: row(ok, ok, ok, ok, 404, 403, 401) },
-		{ name: 'POST notices/[id=uuid]/acknowledge', path: () => `/api/v1/notices/${L.notice}/acknowledge`, expect: row(403, 403, 403, ok, 404, 403, 401) },
+		{
+			name: 'POST notices/[id=uuid]/acknowledge',
+			path: () => `/api/v1/notices/${L.notice}/acknowledge`,
+			expect: row(403, 403, 403, ok, 404, 403, 401)
+		},
 		{ name: 'GET parts', path: () => '/api/v1/parts', expect: row(ok, ok, ok, 403, 403, 403, 401) },
 		{ name: 'GET sampling/plan', path: () => '/api/v1/sampling/plan?lot_size=500&aql=0.65', expect: row(ok, ok, ok, 403, 403, 403, 401) },
 		{ name: 'GET suppliers', path: () => '/api/v1/suppliers', expect: row(ok, ok, ok, 403, 403, 403, 401) },
-		{ name: 'GET suppliers/[id=uuid]/scorecard', path: () => `/api/v1/suppliers/${ids.supplier.a}/scorecard`, expect: row(ok, ok, ok, 403, 403, 403, 401) }
+		{
+			name: 'GET suppliers/[id=uuid]/scorecard',
+			path: () => `/api/v1/suppliers/${ids.supplier.a}/scorecard`,
+			expect: row(ok, ok, ok, 403, 403, 403, 401)
+		}
 	];
 }
 
@@ -152,8 +231,7 @@ async function callApi(c: ApiCase, role: RoleKey) {
 		if (c.session) {
 			headers.cookie = cookies[role];
 			headers.origin = app.url;
-		}
-		else headers.authorization = `Bearer ${tokens[role]}`;
+		} else headers.authorization = `Bearer ${tokens[role]}`;
 	}
 	let body: BodyInit | undefined;
 	// Anonymous uploads come from the same site (a browser without a session): else the cross-site check answers 403 first.
@@ -165,7 +243,12 @@ async function callApi(c: ApiCase, role: RoleKey) {
 	}
 	// Quality's submit goes to its own ready lot (the inspector's lot is submitted by then).
 	const path = c.name === 'POST lots/[id=uuid]/submit' && role === 'quality' ? `/api/v1/lots/${L.submitByQuality}/submit` : c.path();
-	const res = await fetch(`${app.url}${path}`, { method: c.method ?? (body ? 'POST' : c.name.startsWith('POST') ? 'POST' : 'GET'), headers, body, redirect: 'manual' });
+	const res = await fetch(`${app.url}${path}`, {
+		method: c.method ?? (body ? 'POST' : c.name.startsWith('POST') ? 'POST' : 'GET'),
+		headers,
+		body,
+		redirect: 'manual'
+	});
 	const text = await res.text();
 	return { status: res.status, text, type: res.headers.get('content-type') ?? '' };
 }
@@ -174,7 +257,9 @@ beforeAll(async () => {
 	db = await freshDatabase('access_matrix');
 	app = await startApp({ databaseUrl: db.url });
 	ids = await seedIds(db.url);
-	tokens = Object.fromEntries(await Promise.all(Object.entries(EMAIL).map(async ([r, e]) => [r, await tokenFor(db.url, e)]))) as typeof tokens;
+	tokens = Object.fromEntries(
+		await Promise.all(Object.entries(EMAIL).map(async ([r, e]) => [r, await tokenFor(db.url, e)]))
+	) as typeof tokens;
 	const staff = ['buyer', 'inspector', 'quality', 'admin'] as const;
 	cookies = {} as typeof cookies;
 	for (const r of staff) cookies[r] = await signInApi(app.url, EMAIL[r]);
@@ -183,7 +268,9 @@ beforeAll(async () => {
 	const buyer = { base: app.url, token: tokens.buyer };
 	const inspector = { base: app.url, token: tokens.inspector };
 	partIdA = (await partByNumber(buyer, 'VC-21700-50G')).id;
-	const curve = await (await fetch(`${app.url}/api/v1/chemistries/NMC/curve?points=41`, { headers: { authorization: `Bearer ${tokens.buyer}` } })).json();
+	const curve = await (
+		await fetch(`${app.url}/api/v1/chemistries/NMC/curve?points=41`, { headers: { authorization: `Bearer ${tokens.buyer}` } })
+	).json();
 	fitPoints = curve.points.filter((p: { soc: number }) => p.soc >= 0.05 && p.soc <= 0.95);
 	const ready1 = await measuredLot(buyer, inspector, 'accept');
 	const ready2 = await measuredLot(buyer, inspector, 'accept');
@@ -193,9 +280,16 @@ beforeAll(async () => {
 		const read = await q(
 			`select l.id from lots l where l.supplier_id = $1 and l.status = 'on_hold'
 			 and exists (select 1 from notices n where n.lot_id = l.id) and exists (select 1 from documents d where d.lot_id = l.id)
-			 and exists (select 1 from readings r where r.lot_id = l.id) order by l.created_at limit 1`, [ids.supplier.a]);
-		const decide = await q(`select id from lots where supplier_id = $1 and status = 'on_hold' and id <> $2 order by created_at limit 1`, [ids.supplier.a, read.id]);
-		const open = await q(`select id from lots where supplier_id = $1 and status = 'in_inspection' order by created_at limit 1`, [ids.supplier.a]);
+			 and exists (select 1 from readings r where r.lot_id = l.id) order by l.created_at limit 1`,
+			[ids.supplier.a]
+		);
+		const decide = await q(`select id from lots where supplier_id = $1 and status = 'on_hold' and id <> $2 order by created_at limit 1`, [
+			ids.supplier.a,
+			read.id
+		]);
+		const open = await q(`select id from lots where supplier_id = $1 and status = 'in_inspection' order by created_at limit 1`, [
+			ids.supplier.a
+		]);
 		return {
 			read: read.id,
 			decide: decide.id,
@@ -254,7 +348,8 @@ describe('role × API route matrix', () => {
 				if (c.name === 'POST models' && role === 'quality' && got.status === 201) savedModelId = JSON.parse(got.text).id;
 				if (want !== ok && got.status >= 400) {
 					// Refusals are in the API's error shape.
-					if (!/^application\/json/.test(got.type) || !JSON.parse(got.text)?.error?.code) wrong.push(`${c.name} as ${role}: refusal not in the error shape: ${got.text.slice(0, 160)}`);
+					if (!/^application\/json/.test(got.type) || !JSON.parse(got.text)?.error?.code)
+						wrong.push(`${c.name} as ${role}: refusal not in the error shape: ${got.text.slice(0, 160)}`);
 				}
 			}
 		}
@@ -262,14 +357,24 @@ describe('role × API route matrix', () => {
 	}, 120_000);
 
 	it('lists only the supplier’s own lots and notices to a supplier', async () => {
-		for (const [role, own] of [['supplierA', ids.supplier.a], ['supplierB', ids.supplier.b]] as const) {
+		for (const [role, own] of [
+			['supplierA', ids.supplier.a],
+			['supplierB', ids.supplier.b]
+		] as const) {
 			const auth = { authorization: `Bearer ${tokens[role]}` };
-			const lots = (await (await fetch(`${app.url}/api/v1/lots?limit=100`, { headers: auth })).json()).lots as Array<{ supplier_id: string }>;
+			const lots = (await (await fetch(`${app.url}/api/v1/lots?limit=100`, { headers: auth })).json()).lots as Array<{
+				supplier_id: string;
+			}>;
 			expect(lots.length).toBeGreaterThan(0);
 			expect(lots.every((l) => l.supplier_id === own)).toBe(true);
-			const notices = (await (await fetch(`${app.url}/api/v1/notices`, { headers: auth })).json()).notices as Array<{ lot_id?: string; lotId?: string }>;
+			const notices = (await (await fetch(`${app.url}/api/v1/notices`, { headers: auth })).json()).notices as Array<{
+				lot_id?: string;
+				lotId?: string;
+			}>;
 			expect(notices.length).toBeGreaterThan(0);
-			const lotIds = await withClient(db.url, async (c) => (await c.query('select id from lots where supplier_id = $1', [own])).rows.map((r) => r.id));
+			const lotIds = await withClient(db.url, async (c) =>
+				(await c.query('select id from lots where supplier_id = $1', [own])).rows.map((r) => r.id)
+			);
 			expect(notices.every((n) => lotIds.includes(n.lot_id ?? n.lotId))).toBe(true);
 		}
 	});
@@ -288,7 +393,8 @@ describe('role × API route matrix', () => {
 // ---------------------------------------------------------------- pages
 
 type PageExpect = 200 | 403 | 404 | '→signin' | '→portal' | '→home';
-const prow = (...e: PageExpect[]): Record<RoleKey, PageExpect> => Object.fromEntries(ROLES.map((r, i) => [r, e[i]])) as Record<RoleKey, PageExpect>;
+const prow = (...e: PageExpect[]): Record<RoleKey, PageExpect> =>
+	Object.fromEntries(ROLES.map((r, i) => [r, e[i]])) as Record<RoleKey, PageExpect>;
 const S = '→signin' as const;
 const P = '→portal' as const;
 const H = '→home' as const;
@@ -331,7 +437,13 @@ describe('role × page matrix', () => {
 				const location = res.headers.get('location') ?? '';
 				const want = page.expect[role];
 				const got =
-					res.status === 303 && location.startsWith('/signin') ? S : res.status === 303 && location === '/portal' ? P : res.status === 303 && location === '/' ? H : res.status;
+					res.status === 303 && location.startsWith('/signin')
+						? S
+						: res.status === 303 && location === '/portal'
+							? P
+							: res.status === 303 && location === '/'
+								? H
+								: res.status;
 				if (got !== want) wrong.push(`${page.path} as ${role}: expected ${want}, got ${res.status} ${location}`);
 			}
 		}

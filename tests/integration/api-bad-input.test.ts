@@ -60,13 +60,29 @@ const deepArrayText = (depth: number) => '['.repeat(depth) + ']'.repeat(depth);
 
 /** Values that are never a valid number field (finite, in range, of the right type). */
 const badNumber = fc.oneof(
-	fc.constantFrom<unknown>('NaN', 'Infinity', '-Infinity', '1e309', '3.7', '', ' ', '0x1F', '١٢٣', null, true, false, [], {}, [3.7], { value: 3.7 }),
+	fc.constantFrom<unknown>('NaN', 'Infinity', '-Infinity', '1e309', '3.7', '', ' ', '0x1F', '١٢٣', null, true, false, [], {}, [3.7], {
+		value: 3.7
+	}),
 	fc.integer({ min: -2_147_483_648, max: -1 }),
 	fc.constantFrom(-1e308, 1e308, -Number.MAX_VALUE, Number.MAX_SAFE_INTEGER * 1024, -0.000001),
 	fc.string({ maxLength: 12 })
 );
-const overlong = fc.oneof(fc.string({ minLength: 300, maxLength: 3000 }), fc.constant('x'.repeat(100_000)), fc.constant('é'.repeat(20_000)));
-const badUuid = fc.constantFrom('not-a-uuid', '123', '00000000-0000-0000-0000-00000000000g', "' or 1=1 --", '../../etc/passwd', '%00', 'null', '{}', '00000000000000000000000000000000x');
+const overlong = fc.oneof(
+	fc.string({ minLength: 300, maxLength: 3000 }),
+	fc.constant('x'.repeat(100_000)),
+	fc.constant('é'.repeat(20_000))
+);
+const badUuid = fc.constantFrom(
+	'not-a-uuid',
+	'123',
+	'00000000-0000-0000-0000-00000000000g',
+	"' or 1=1 --",
+	'../../etc/passwd',
+	'%00',
+	'null',
+	'{}',
+	'00000000000000000000000000000000x'
+);
 /** Anything at all, weighted towards the nasty. */
 const junk: fc.Arbitrary<unknown> = fc.oneof(
 	{ arbitrary: badNumber, weight: 3 },
@@ -74,7 +90,14 @@ const junk: fc.Arbitrary<unknown> = fc.oneof(
 	{ arbitrary: overlong, weight: 1 },
 	{ arbitrary: fc.uuid(), weight: 1 },
 	{ arbitrary: badUuid, weight: 1 },
-	{ arbitrary: fc.constantFrom(deepObject(200), deepObject(3000), Array.from({ length: 20_000 }, () => ({}))), weight: 1 }
+	{
+		arbitrary: fc.constantFrom(
+			deepObject(200),
+			deepObject(3000),
+			Array.from({ length: 20_000 }, () => ({}))
+		),
+		weight: 1
+	}
 );
 
 /** A near-valid body: one field dropped or replaced by junk, unknown fields added; `spoil` keeps it invalid. */
@@ -91,7 +114,20 @@ function mutated(template: Record<string, unknown>, spoil: (o: Record<string, un
 const spoilWith = (field: string, bad: fc.Arbitrary<unknown>) => (o: Record<string, unknown>) => bad.map((v) => ({ ...o, [field]: v }));
 
 const invalidJsonText = fc.oneof(
-	fc.constantFrom('{', '{"a":1,}', "{'a':1}", 'NaN', '[1,2', '\uFEFF{}', '{"quantity": 1e400}', '', 'undefined', '{"a":"\\ud800"}', deepArrayText(5000), deepArrayText(100_000)),
+	fc.constantFrom(
+		'{',
+		'{"a":1,}',
+		"{'a':1}",
+		'NaN',
+		'[1,2',
+		'\uFEFF{}',
+		'{"quantity": 1e400}',
+		'',
+		'undefined',
+		'{"a":"\\ud800"}',
+		deepArrayText(5000),
+		deepArrayText(100_000)
+	),
 	fc.string({ maxLength: 200 })
 );
 
@@ -100,27 +136,48 @@ const jsonOf = (value: unknown): Sent => ({ contentType: 'application/json', bod
 /** Random bytes under a trusted-looking name. */
 const garbageFile = fc.record({
 	bytes: fc.oneof(fc.uint8Array({ minLength: 0, maxLength: 4096 }), fc.uint8Array({ minLength: 200_000, maxLength: 200_000 })),
-	name: fc.oneof(fc.constantFrom('coc.pdf', 'meter.csv', 'meter.xlsx', '../../etc/passwd.pdf', 'a\u0000b.csv', 'CON.xlsx', ''), overlong.map((s) => `${s.slice(0, 400)}.pdf`)),
-	type: fc.constantFrom('application/pdf', 'text/csv', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', 'application/octet-stream', '')
+	name: fc.oneof(
+		fc.constantFrom('coc.pdf', 'meter.csv', 'meter.xlsx', '../../etc/passwd.pdf', 'a\u0000b.csv', 'CON.xlsx', ''),
+		overlong.map((s) => `${s.slice(0, 400)}.pdf`)
+	),
+	type: fc.constantFrom(
+		'application/pdf',
+		'text/csv',
+		'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+		'application/octet-stream',
+		''
+	)
 });
 
 function multipartOf(fields: Record<string, unknown>, file: { bytes: Uint8Array; name: string; type: string } | null): Sent {
 	const form = new FormData();
-	for (const [k, v] of Object.entries(fields)) if (v !== undefined) form.set(k, typeof v === 'string' ? v : JSON.stringify(v) ?? '');
+	for (const [k, v] of Object.entries(fields)) if (v !== undefined) form.set(k, typeof v === 'string' ? v : (JSON.stringify(v) ?? ''));
 	if (file) form.set('file', new Blob([new Uint8Array(file.bytes)], { type: file.type }), file.name);
 	return { body: form };
 }
 
 /** Bodies of the wrong kind for a JSON route: wrong content types, multipart with garbage, broken framing. */
 const wrongKindBody = fc.oneof(
-	fc.record({ contentType: fc.constantFrom('text/plain', 'application/x-www-form-urlencoded', 'application/xml', 'application/json; charset=utf-16', 'image/png'), body: fc.string({ maxLength: 100 }) }),
+	fc.record({
+		contentType: fc.constantFrom(
+			'text/plain',
+			'application/x-www-form-urlencoded',
+			'application/xml',
+			'application/json; charset=utf-16',
+			'image/png'
+		),
+		body: fc.string({ maxLength: 100 })
+	}),
 	fc.record({ contentType: fc.constant('multipart/form-data; boundary=zzz'), body: fc.string({ maxLength: 100 }) }),
 	garbageFile.map((f) => multipartOf({ kind: 'coc', mapping: '{"serial":0}' }, f)),
 	fc.uint8Array({ maxLength: 512 }).map((b): Sent => ({ contentType: 'application/octet-stream', body: b }))
 );
 
 /** Bodies for a JSON route: near-valid mutations (weighted), pure junk, invalid JSON text, wrong kinds. */
-function jsonBodies(template: Record<string, unknown>, spoil: (o: Record<string, unknown>) => fc.Arbitrary<Record<string, unknown>>): fc.Arbitrary<Sent> {
+function jsonBodies(
+	template: Record<string, unknown>,
+	spoil: (o: Record<string, unknown>) => fc.Arbitrary<Record<string, unknown>>
+): fc.Arbitrary<Sent> {
 	return fc.oneof(
 		{ arbitrary: mutated(template, spoil).map(jsonOf), weight: 4 },
 		{ arbitrary: junk.map(jsonOf), weight: 2 },
@@ -134,13 +191,26 @@ function jsonBodies(template: Record<string, unknown>, spoil: (o: Record<string,
 const ignoredBody = fc.oneof(fc.constant<Sent>({}), junk.map(jsonOf), wrongKindBody);
 
 /** Lot ids: seeded ones (the route's own choice), unknown uuids, malformed ones. */
-const idFrom = (...known: string[]) => fc.oneof({ arbitrary: fc.constantFrom(...known), weight: 3 }, { arbitrary: fc.uuid(), weight: 1 }, { arbitrary: badUuid, weight: 1 });
+const idFrom = (...known: string[]) =>
+	fc.oneof({ arbitrary: fc.constantFrom(...known), weight: 3 }, { arbitrary: fc.uuid(), weight: 1 }, { arbitrary: badUuid, weight: 1 });
 const seg = (s: string) => encodeURIComponent(s);
 
 function queryString(keys: string[]): fc.Arbitrary<string> {
 	// At most 250 characters (1.5 kB encoded) per value: beyond Node's 16 kB header limit its HTTP parser answers a bare 431 before the app runs.
-	const value = fc.oneof(badNumber.map((v) => (typeof v === 'string' ? v : JSON.stringify(v) ?? '')), overlong.map((v) => v.slice(0, 250)), fc.uuid(), badUuid, fc.string({ maxLength: 20 }));
-	const pairs = fc.array(fc.tuple(fc.oneof({ arbitrary: fc.constantFrom(...keys, 'x'), weight: 4 }, { arbitrary: fc.string({ maxLength: 10 }), weight: 1 }), value), { maxLength: 6 });
+	const value = fc.oneof(
+		badNumber.map((v) => (typeof v === 'string' ? v : (JSON.stringify(v) ?? ''))),
+		overlong.map((v) => v.slice(0, 250)),
+		fc.uuid(),
+		badUuid,
+		fc.string({ maxLength: 20 })
+	);
+	const pairs = fc.array(
+		fc.tuple(
+			fc.oneof({ arbitrary: fc.constantFrom(...keys, 'x'), weight: 4 }, { arbitrary: fc.string({ maxLength: 10 }), weight: 1 }),
+			value
+		),
+		{ maxLength: 6 }
+	);
 	const raw = fc.constantFrom('%', '%E0%A4%A', 'a=%ZZ', '&&&=&', 'limit=1&limit=2&limit=abc', '=', '?'.repeat(50));
 	return fc.oneof({ arbitrary: pairs.map((p) => new URLSearchParams(p).toString()), weight: 4 }, { arbitrary: raw, weight: 1 });
 }
@@ -151,12 +221,20 @@ const CHEM_TEMPLATE = { chemistry: 'NMC', temperature_c: 25 };
 const fivePoints = [0.1, 0.3, 0.5, 0.7, 0.9].map((soc) => ({ soc, ocv_v: 3.4 + soc * 0.7 }));
 
 const pure = () => true;
-const isPreview = (url: string, sent: Sent) => /[?&]preview=true(&|$)/.test(url) || (sent.body instanceof FormData && sent.body.get('preview') === 'true');
+const isPreview = (url: string, sent: Sent) =>
+	/[?&]preview=true(&|$)/.test(url) || (sent.body instanceof FormData && sent.body.get('preview') === 'true');
 
 function table(): Entry[] {
 	const A = ids.lotA;
 	const anyLot = idFrom(A.accepted, A.on_hold, A.rejected, A.in_inspection, ids.lotB.accepted);
-	const get = (route: string, who: Who, path: fc.Arbitrary<string>, queryKeys: string[] = []): Entry => ({ route, method: 'GET', who, input: 'query', path, queryKeys });
+	const get = (route: string, who: Who, path: fc.Arbitrary<string>, queryKeys: string[] = []): Entry => ({
+		route,
+		method: 'GET',
+		who,
+		input: 'query',
+		path,
+		queryKeys
+	});
 	const lotPath = (suffix: string, lots = anyLot) => lots.map((id) => `/lots/${seg(id)}${suffix}`);
 	const readingRow = { serial: 'SN-BAD-1', ocv_v: 3.6, temperature_c: 25 };
 	const importFile = garbageFile;
@@ -170,46 +248,114 @@ function table(): Entry[] {
 	);
 	return [
 		get('chemistries', 'inspector', fc.constant('/chemistries')),
-		get('chemistries/[code]/curve', 'buyer', fc.oneof(fc.constantFrom('NMC', 'lfp', 'XX', ''), overlong.map((v) => v.slice(0, 500))).map((c) => `/chemistries/${seg(c)}/curve`), ['temperature_c', 'points']),
-		{ route: 'electrochem/cell-potential', method: 'POST', who: 'buyer', input: 'json', allows2xx: pure, path: fc.constant('/electrochem/cell-potential'), body: jsonBodies({ e0_v: 1.1, n: 2, temperature_c: 25, q: 1 }, spoilWith('n', fc.oneof(badNumber, fc.constantFrom(0, 1.5, -2)))) },
+		get(
+			'chemistries/[code]/curve',
+			'buyer',
+			fc
+				.oneof(
+					fc.constantFrom('NMC', 'lfp', 'XX', ''),
+					overlong.map((v) => v.slice(0, 500))
+				)
+				.map((c) => `/chemistries/${seg(c)}/curve`),
+			['temperature_c', 'points']
+		),
+		{
+			route: 'electrochem/cell-potential',
+			method: 'POST',
+			who: 'buyer',
+			input: 'json',
+			allows2xx: pure,
+			path: fc.constant('/electrochem/cell-potential'),
+			body: jsonBodies({ e0_v: 1.1, n: 2, temperature_c: 25, q: 1 }, spoilWith('n', fc.oneof(badNumber, fc.constantFrom(0, 1.5, -2))))
+		},
 		get('health', 'public', fc.constant('/health')),
 		get('lots.xlsx', 'buyer', fc.constant('/lots.xlsx'), ['status', 'supplier_id']),
 		get('lots', 'buyer', fc.constant('/lots'), ['status', 'supplier_id', 'part_id', 'search', 'limit', 'cursor']),
 		{
-			route: 'lots', method: 'POST', who: 'buyer', input: 'json', path: fc.constant('/lots'),
+			route: 'lots',
+			method: 'POST',
+			who: 'buyer',
+			input: 'json',
+			path: fc.constant('/lots'),
 			body: jsonBodies(
-				{ po_number: 'PO-BAD', supplier_id: ids.supplier.a, part_id: ids.partA, quantity: 100, declared_soc: 0.3, transport: 'road', un_number: 'UN3480' },
+				{
+					po_number: 'PO-BAD',
+					supplier_id: ids.supplier.a,
+					part_id: ids.partA,
+					quantity: 100,
+					declared_soc: 0.3,
+					transport: 'road',
+					un_number: 'UN3480'
+				},
 				spoilWith('quantity', fc.oneof(badNumber, fc.constantFrom(0, -5, 10_000_001, 2.5)))
 			)
 		},
 		get('lots/[id=uuid]', 'quality', lotPath('')),
 		{
-			route: 'lots/[id=uuid]/decision', method: 'POST', who: 'qualitySession', input: 'json', path: lotPath('/decision', idFrom(A.on_hold, ids.lotB.on_hold)),
+			route: 'lots/[id=uuid]/decision',
+			method: 'POST',
+			who: 'qualitySession',
+			input: 'json',
+			path: lotPath('/decision', idFrom(A.on_hold, ids.lotB.on_hold)),
 			// The password is wrong in every body (junk never is the demo password), so nothing can be decided.
-			body: jsonBodies({ decision: 'accept', reason: 'Released after review', password: 'not-the-password' }, (o) => fc.oneof(fc.constant(o), spoilWith('decision', fc.oneof(junk, fc.constantFrom('release', 'ACCEPT', '')))(o)))
+			body: jsonBodies({ decision: 'accept', reason: 'Released after review', password: 'not-the-password' }, (o) =>
+				fc.oneof(fc.constant(o), spoilWith('decision', fc.oneof(junk, fc.constantFrom('release', 'ACCEPT', '')))(o))
+			)
 		},
 		{
-			route: 'lots/[id=uuid]/decision/challenge', method: 'POST', who: 'qualitySession', input: 'json', path: lotPath('/decision/challenge', idFrom(A.on_hold, ids.lotB.on_hold)),
+			route: 'lots/[id=uuid]/decision/challenge',
+			method: 'POST',
+			who: 'qualitySession',
+			input: 'json',
+			path: lotPath('/decision/challenge', idFrom(A.on_hold, ids.lotB.on_hold)),
 			// The decision is always spoiled, so no challenge row is ever issued (the snapshot stays as it was).
 			body: jsonBodies({ decision: 'reject' }, spoilWith('decision', fc.oneof(junk, fc.constantFrom('release', 'ACCEPT', ''))))
 		},
 		get('lots/[id=uuid]/decisions', 'quality', lotPath('/decisions')),
 		get('lots/[id=uuid]/documents', 'buyer', lotPath('/documents')),
 		{
-			route: 'lots/[id=uuid]/documents', method: 'POST', who: 'buyer', input: 'multipart', path: lotPath('/documents', idFrom(A.awaiting_arrival, A.in_inspection, A.cancelled)),
+			route: 'lots/[id=uuid]/documents',
+			method: 'POST',
+			who: 'buyer',
+			input: 'multipart',
+			path: lotPath('/documents', idFrom(A.awaiting_arrival, A.in_inspection, A.cancelled)),
 			body: fc.oneof(
-				{ arbitrary: fc.tuple(fc.oneof(fc.constantFrom('coc', 'sds', 'other', 'un38_3_summary'), fc.string({ maxLength: 20 })), importFile).map(([kind, f]) => multipartOf({ kind }, f)), weight: 4 },
+				{
+					arbitrary: fc
+						.tuple(fc.oneof(fc.constantFrom('coc', 'sds', 'other', 'un38_3_summary'), fc.string({ maxLength: 20 })), importFile)
+						.map(([kind, f]) => multipartOf({ kind }, f)),
+					weight: 4
+				},
 				{ arbitrary: junk.map((kind) => multipartOf({ kind }, null)), weight: 1 },
 				{ arbitrary: wrongKindBody, weight: 1 },
 				{ arbitrary: junk.map(jsonOf), weight: 1 }
 			)
 		},
-		get('lots/[id=uuid]/documents/[docId=uuid]', 'buyer', fc.tuple(anyLot, idFrom(ids.documentA, ids.documentB)).map(([l, d]) => `/lots/${seg(l)}/documents/${seg(d)}`)),
+		get(
+			'lots/[id=uuid]/documents/[docId=uuid]',
+			'buyer',
+			fc.tuple(anyLot, idFrom(ids.documentA, ids.documentB)).map(([l, d]) => `/lots/${seg(l)}/documents/${seg(d)}`)
+		),
 		get('lots/[id=uuid]/evaluation', 'inspector', lotPath('/evaluation'), ['detail']),
 		{
-			route: 'lots/[id=uuid]/imports', method: 'POST', who: 'inspector', input: 'multipart', allows2xx: isPreview, path: fc.tuple(lotPath('/imports', idFrom(A.in_inspection, A.awaiting_arrival, A.accepted)), fc.constantFrom('', '?preview=true', '?preview=1', '?preview=%00')).map(([p, q]) => p + q),
+			route: 'lots/[id=uuid]/imports',
+			method: 'POST',
+			who: 'inspector',
+			input: 'multipart',
+			allows2xx: isPreview,
+			path: fc
+				.tuple(
+					lotPath('/imports', idFrom(A.in_inspection, A.awaiting_arrival, A.accepted)),
+					fc.constantFrom('', '?preview=true', '?preview=1', '?preview=%00')
+				)
+				.map(([p, q]) => p + q),
 			body: fc.oneof(
-				{ arbitrary: fc.tuple(importFile, importMapping, fc.constantFrom(undefined, 'true', 'yes')).map(([f, mapping, preview]) => multipartOf({ mapping, preview }, f)), weight: 4 },
+				{
+					arbitrary: fc
+						.tuple(importFile, importMapping, fc.constantFrom(undefined, 'true', 'yes'))
+						.map(([f, mapping, preview]) => multipartOf({ mapping, preview }, f)),
+					weight: 4
+				},
 				{ arbitrary: importMapping.map((mapping) => multipartOf({ mapping }, null)), weight: 1 },
 				{ arbitrary: wrongKindBody, weight: 1 },
 				{ arbitrary: junk.map(jsonOf), weight: 1 }
@@ -219,40 +365,124 @@ function table(): Entry[] {
 		get('lots/[id=uuid]/readings.xlsx', 'inspector', lotPath('/readings.xlsx')),
 		get('lots/[id=uuid]/readings', 'inspector', lotPath('/readings')),
 		{
-			route: 'lots/[id=uuid]/readings', method: 'POST', who: 'inspector', input: 'json', path: lotPath('/readings', idFrom(A.in_inspection, A.awaiting_arrival, A.accepted)),
+			route: 'lots/[id=uuid]/readings',
+			method: 'POST',
+			who: 'inspector',
+			input: 'json',
+			path: lotPath('/readings', idFrom(A.in_inspection, A.awaiting_arrival, A.accepted)),
 			body: fc.oneof(
 				{ arbitrary: mutated(readingRow, spoilWith('ocv_v', badNumber)).map((row) => jsonOf({ readings: [readingRow, row] })), weight: 3 },
-				{ arbitrary: fc.constantFrom<unknown>({ readings: [] }, { readings: {} }, { readings: null }, { reading: [readingRow] }, [readingRow], { readings: Array.from({ length: 10_001 }, (_, i) => ({ ...readingRow, serial: `S${i}` })) }).map(jsonOf), weight: 1 },
-				{ arbitrary: jsonBodies({ readings: [] }, spoilWith('readings', fc.oneof(junk, fc.constant([])).map((r) => (Array.isArray(r) ? [...r, { ocv_v: 'NaN' }] : r)))), weight: 3 }
+				{
+					arbitrary: fc
+						.constantFrom<unknown>({ readings: [] }, { readings: {} }, { readings: null }, { reading: [readingRow] }, [readingRow], {
+							readings: Array.from({ length: 10_001 }, (_, i) => ({ ...readingRow, serial: `S${i}` }))
+						})
+						.map(jsonOf),
+					weight: 1
+				},
+				{
+					arbitrary: jsonBodies(
+						{ readings: [] },
+						spoilWith(
+							'readings',
+							fc.oneof(junk, fc.constant([])).map((r) => (Array.isArray(r) ? [...r, { ocv_v: 'NaN' }] : r))
+						)
+					),
+					weight: 3
+				}
 			)
 		},
 		{
-			route: 'lots/[id=uuid]/readings/[readingId]', method: 'PATCH', who: 'inspector', input: 'json',
-			path: fc.tuple(lotPath('', idFrom(A.accepted, A.rejected)), fc.oneof(fc.constant(String(ids.readingOfAcceptedA)), fc.constantFrom('abc', '-1', '0', '1e3', '99999999999999999999', '0x10', '1.5', ' 1'), fc.nat().map(String))).map(([l, r]) => `${l}/readings/${seg(r)}`),
+			route: 'lots/[id=uuid]/readings/[readingId]',
+			method: 'PATCH',
+			who: 'inspector',
+			input: 'json',
+			path: fc
+				.tuple(
+					lotPath('', idFrom(A.accepted, A.rejected)),
+					fc.oneof(
+						fc.constant(String(ids.readingOfAcceptedA)),
+						fc.constantFrom('abc', '-1', '0', '1e3', '99999999999999999999', '0x10', '1.5', ' 1'),
+						fc.nat().map(String)
+					)
+				)
+				.map(([l, r]) => `${l}/readings/${seg(r)}`),
 			body: jsonBodies({ ocv_v: 3.61, reason: 'typed wrongly' }, (o) => fc.constant(o))
 		},
 		get('lots/[id=uuid]/report.pdf', 'buyer', lotPath('/report.pdf')),
-		{ route: 'lots/[id=uuid]/submit', method: 'POST', who: 'inspector', input: 'none', path: lotPath('/submit', idFrom(A.accepted, A.on_hold, A.cancelled, A.awaiting_arrival)), body: ignoredBody },
+		{
+			route: 'lots/[id=uuid]/submit',
+			method: 'POST',
+			who: 'inspector',
+			input: 'none',
+			path: lotPath('/submit', idFrom(A.accepted, A.on_hold, A.cancelled, A.awaiting_arrival)),
+			body: ignoredBody
+		},
 		get('me', 'admin', fc.constant('/me')),
 		get('models', 'buyer', fc.constant('/models'), ['chemistry', 'status']),
 		{
-			route: 'models', method: 'POST', who: 'quality', input: 'json', path: fc.constant('/models'),
-			body: jsonBodies({ ...CHEM_TEMPLATE, points: fivePoints, label: 'bad input' }, (o) => fc.constant({ ...o, points: Array.isArray(o.points) ? (o.points as unknown[]).slice(0, 5) : o.points }))
+			route: 'models',
+			method: 'POST',
+			who: 'quality',
+			input: 'json',
+			path: fc.constant('/models'),
+			body: jsonBodies({ ...CHEM_TEMPLATE, points: fivePoints, label: 'bad input' }, (o) =>
+				fc.constant({ ...o, points: Array.isArray(o.points) ? (o.points as unknown[]).slice(0, 5) : o.points })
+			)
 		},
-		get('models/[id=uuid]', 'quality', idFrom(ids.libraryModel).map((id) => `/models/${seg(id)}`)),
-		{ route: 'models/[id=uuid]/approve', method: 'POST', who: 'quality', input: 'none', path: idFrom(ids.libraryModel).map((id) => `/models/${seg(id)}/approve`), body: ignoredBody },
-		get('notices', 'supplierA', fc.constant('/notices'), ['lot_id']),
-		{ route: 'notices/[id=uuid]/acknowledge', method: 'POST', who: 'supplierA', input: 'none', path: fc.oneof(fc.constant(ids.noticeB), fc.uuid(), badUuid).map((id) => `/notices/${seg(id)}/acknowledge`), body: ignoredBody },
+		get(
+			'models/[id=uuid]',
+			'quality',
+			idFrom(ids.libraryModel).map((id) => `/models/${seg(id)}`)
+		),
 		{
-			route: 'ocv/evaluate', method: 'POST', who: 'inspector', input: 'json', allows2xx: pure, path: fc.constant('/ocv/evaluate'),
-			body: jsonBodies({ chemistry: 'NMC', cells_in_series: 1, declared_soc: 0.3, readings: [{ ocv_v: 3.6, temperature_c: 25 }] }, (o) =>
-				badNumber.map((v) => ({ ...o, readings: [...(Array.isArray(o.readings) ? o.readings : []), { ocv_v: v, temperature_c: 25 }] })))
+			route: 'models/[id=uuid]/approve',
+			method: 'POST',
+			who: 'quality',
+			input: 'none',
+			path: idFrom(ids.libraryModel).map((id) => `/models/${seg(id)}/approve`),
+			body: ignoredBody
 		},
-		{ route: 'ocv/fit', method: 'POST', who: 'quality', input: 'json', allows2xx: pure, path: fc.constant('/ocv/fit'), body: jsonBodies({ ...CHEM_TEMPLATE, points: fivePoints }, (o) => fc.constant({ ...o, points: Array.isArray(o.points) ? (o.points as unknown[]).slice(0, 5) : o.points })) },
+		get('notices', 'supplierA', fc.constant('/notices'), ['lot_id']),
+		{
+			route: 'notices/[id=uuid]/acknowledge',
+			method: 'POST',
+			who: 'supplierA',
+			input: 'none',
+			path: fc.oneof(fc.constant(ids.noticeB), fc.uuid(), badUuid).map((id) => `/notices/${seg(id)}/acknowledge`),
+			body: ignoredBody
+		},
+		{
+			route: 'ocv/evaluate',
+			method: 'POST',
+			who: 'inspector',
+			input: 'json',
+			allows2xx: pure,
+			path: fc.constant('/ocv/evaluate'),
+			body: jsonBodies({ chemistry: 'NMC', cells_in_series: 1, declared_soc: 0.3, readings: [{ ocv_v: 3.6, temperature_c: 25 }] }, (o) =>
+				badNumber.map((v) => ({ ...o, readings: [...(Array.isArray(o.readings) ? o.readings : []), { ocv_v: v, temperature_c: 25 }] }))
+			)
+		},
+		{
+			route: 'ocv/fit',
+			method: 'POST',
+			who: 'quality',
+			input: 'json',
+			allows2xx: pure,
+			path: fc.constant('/ocv/fit'),
+			body: jsonBodies({ ...CHEM_TEMPLATE, points: fivePoints }, (o) =>
+				fc.constant({ ...o, points: Array.isArray(o.points) ? (o.points as unknown[]).slice(0, 5) : o.points })
+			)
+		},
 		get('parts', 'inspector', fc.constant('/parts'), ['supplier_id', 'chemistry', 'search']),
 		get('sampling/plan', 'inspector', fc.constant('/sampling/plan'), ['lot_size', 'aql', 'level', 'severity']),
 		get('suppliers', 'buyer', fc.constant('/suppliers')),
-		get('suppliers/[id=uuid]/scorecard', 'quality', idFrom(ids.supplier.a, ids.supplier.b).map((id) => `/suppliers/${seg(id)}/scorecard`), ['part_id'])
+		get(
+			'suppliers/[id=uuid]/scorecard',
+			'quality',
+			idFrom(ids.supplier.a, ids.supplier.b).map((id) => `/suppliers/${seg(id)}/scorecard`),
+			['part_id']
+		)
 	];
 }
 
@@ -278,7 +508,12 @@ async function send(method: string, url: string, headers: Record<string, string>
 	const h: Record<string, string> = { ...headers };
 	if (sent.contentType) h['content-type'] = sent.contentType;
 	const once = async () => {
-		const res = await fetch(url, { method, headers: h, body: method === 'GET' ? undefined : (sent.body as BodyInit | undefined), redirect: 'manual' });
+		const res = await fetch(url, {
+			method,
+			headers: h,
+			body: method === 'GET' ? undefined : (sent.body as BodyInit | undefined),
+			redirect: 'manual'
+		});
 		return { status: res.status, contentType: res.headers.get('content-type') ?? '', text: await res.text() };
 	};
 	try {
@@ -297,7 +532,8 @@ function judge(entry: Entry, anonymous: boolean, out: Outcome, what: string, har
 	expect(out.status, `5xx from ${what}: ${out.text.slice(0, 300)}`).toBeLessThan(500);
 	if ((entry.input !== 'query' && !harmless2xx) || anonymous) {
 		// A write with bad input, or any call without valid credentials, is refused.
-		if (!(entry.route === 'health' && anonymous)) expect(out.status, `not refused: ${what} → ${out.text.slice(0, 300)}`).toBeGreaterThanOrEqual(400);
+		if (!(entry.route === 'health' && anonymous))
+			expect(out.status, `not refused: ${what} → ${out.text.slice(0, 300)}`).toBeGreaterThanOrEqual(400);
 	}
 	if (out.status >= 400) {
 		expect(out.contentType, `${what}`).toMatch(/^application\/json/);
@@ -343,15 +579,24 @@ describe('bad input to every JSON API route', () => {
 		const onDisk = apiRouteFiles().flatMap((f) => f.methods.map((m) => `${m} ${f.route}`));
 		const covered = table().map((e) => `${e.method} ${e.route}`);
 		expect(onDisk.length).toBeGreaterThan(30);
-		expect(onDisk.filter((r) => !covered.includes(r)), 'routes without a bad-input entry').toEqual([]);
-		expect(covered.filter((r) => !onDisk.includes(r)), 'entries for routes that no longer exist').toEqual([]);
+		expect(
+			onDisk.filter((r) => !covered.includes(r)),
+			'routes without a bad-input entry'
+		).toEqual([]);
+		expect(
+			covered.filter((r) => !onDisk.includes(r)),
+			'entries for routes that no longer exist'
+		).toEqual([]);
 	});
 
 	it('answers generated bad input without a 5xx, in the error shape, refusing every write', async () => {
 		for (const entry of table()) {
 			const query = queryString(entry.queryKeys ?? []);
 			const body = entry.body ?? fc.constant<Sent>({});
-			const who = fc.oneof({ arbitrary: fc.constant<Record<string, string> | null>(null), weight: 6 }, { arbitrary: garbageCreds, weight: 1 });
+			const who = fc.oneof(
+				{ arbitrary: fc.constant<Record<string, string> | null>(null), weight: 6 },
+				{ arbitrary: garbageCreds, weight: 1 }
+			);
 			const run = await fc.check(
 				fc.asyncProperty(entry.path, query, body, who, async (path, q, sent, garbage) => {
 					const anonymous = garbage !== null || entry.who === 'public';
@@ -359,7 +604,9 @@ describe('bad input to every JSON API route', () => {
 					const url = `${app.url}/api/v1${path}${q ? (path.includes('?') ? '&' : '?') + q : ''}`;
 					const what = `${entry.method} ${url.slice(app.url.length, app.url.length + 300)} [${garbage ? 'garbage credentials' : entry.who}] ${describeSent(sent)}`;
 					const out = await send(entry.method, url, headers, sent).catch((e: Error & { cause?: unknown }) => {
-						throw new Error(`${what}: ${e.message} ${String(e.cause ?? '')}; app exit ${app.process.exitCode ?? app.process.signalCode}; app log: ${app.output().slice(-1500)}`);
+						throw new Error(
+							`${what}: ${e.message} ${String(e.cause ?? '')}; app exit ${app.process.exitCode ?? app.process.signalCode}; app log: ${app.output().slice(-1500)}`
+						);
 					});
 					counted.calls += 1;
 					counted.byStatus[out.status] = (counted.byStatus[out.status] ?? 0) + 1;
@@ -368,7 +615,10 @@ describe('bad input to every JSON API route', () => {
 				{ numRuns: RUNS_PER_ENTRY, endOnFailure: true }
 			);
 			// Our own short report: the generated values can be 100 kB long.
-			if (run.failed) throw new Error(`${entry.method} ${entry.route} (seed ${run.seed}, path ${run.counterexamplePath}): ${String((run.errorInstance as Error)?.message ?? run.errorInstance).slice(0, 1500)} ${String((run.errorInstance as Error & { cause?: unknown })?.cause ?? '')}`);
+			if (run.failed)
+				throw new Error(
+					`${entry.method} ${entry.route} (seed ${run.seed}, path ${run.counterexamplePath}): ${String((run.errorInstance as Error)?.message ?? run.errorInstance).slice(0, 1500)} ${String((run.errorInstance as Error & { cause?: unknown })?.cause ?? '')}`
+				);
 		}
 	}, 240_000);
 
@@ -391,11 +641,17 @@ describe('bad input to every JSON API route', () => {
 						const { error } = JSON.parse(out.text) as { error: { message: string; issues?: Array<{ path: string }> } };
 						const named = entry.names(field.name);
 						const paths = (error.issues ?? []).map((i) => i.path);
-						expect(paths.some((p) => named.includes(p)) || named.some((n) => error.message.includes(`\`${n}\``)), `${what}: not named in ${out.text.slice(0, 300)}`).toBe(true);
+						expect(
+							paths.some((p) => named.includes(p)) || named.some((n) => error.message.includes(`\`${n}\``)),
+							`${what}: not named in ${out.text.slice(0, 300)}`
+						).toBe(true);
 					}),
 					{ numRuns: STRICT_RUNS_PER_FIELD, endOnFailure: true }
 				);
-				if (run.failed) throw new Error(`${entry.method} ${entry.route} ${field.name} (seed ${run.seed}): ${String((run.errorInstance as Error)?.message ?? run.errorInstance).slice(0, 1500)}`);
+				if (run.failed)
+					throw new Error(
+						`${entry.method} ${entry.route} ${field.name} (seed ${run.seed}): ${String((run.errorInstance as Error)?.message ?? run.errorInstance).slice(0, 1500)}`
+					);
 			}
 		}
 	}, 240_000);
@@ -407,6 +663,8 @@ describe('bad input to every JSON API route', () => {
 		expect(after.lotsMd5).toBe(before.lotsMd5);
 		expect(after.readingsMd5).toBe(before.readingsMd5);
 		expect(after.audit).toBeGreaterThanOrEqual(before.audit);
-		console.info(`[bad-input] ${counted.calls} calls (${counted.resets} retried after a connection reset); statuses ${JSON.stringify(counted.byStatus)}`);
+		console.info(
+			`[bad-input] ${counted.calls} calls (${counted.resets} retried after a connection reset); statuses ${JSON.stringify(counted.byStatus)}`
+		);
 	});
 });

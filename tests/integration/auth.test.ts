@@ -130,7 +130,10 @@ describe('API tokens', () => {
 		expect(res.status).toBe(200);
 		expect(await res.json()).toMatchObject({ email: INSPECTOR, role: 'inspector', auth_method: 'token' });
 		// Stored hashed, with the last use noted.
-		const row = await withClient(db.url, async (c) => (await c.query('select token_hash, last_used_at from api_tokens where prefix = $1', [token.slice(0, 10)])).rows[0]);
+		const row = await withClient(
+			db.url,
+			async (c) => (await c.query('select token_hash, last_used_at from api_tokens where prefix = $1', [token.slice(0, 10)])).rows[0]
+		);
 		expect(row.token_hash).not.toContain(token);
 		expect(row.token_hash).toMatch(/^[0-9a-f]{64}$/);
 		expect(row.last_used_at).not.toBeNull();
@@ -151,7 +154,10 @@ describe('API tokens', () => {
 		const token = await tokenFor(db.url, BUYER);
 		expect((await me({ authorization: `Bearer ${token}` })).status).toBe(200);
 		expect((await evaluation({ authorization: `Bearer ${token}` })).status).toBe(200);
-		const tokenId = await withClient(db.url, async (c) => (await c.query('select id from api_tokens where prefix = $1', [token.slice(0, 10)])).rows[0].id);
+		const tokenId = await withClient(
+			db.url,
+			async (c) => (await c.query('select id from api_tokens where prefix = $1', [token.slice(0, 10)])).rows[0].id
+		);
 		const admin = await signInApi(app.url, ADMIN);
 		const revoke = await postForm(app.url, '/admin/tokens?/revoke', { tokenId }, admin);
 		expect(revoke.status).toBe(200);
@@ -226,7 +232,9 @@ describe('supplier e-mail link', () => {
 		}
 		await new Promise((r) => setTimeout(r, 500));
 		const { readMail } = await import('../helpers/mail');
-		const stray = (await readMail()).filter((m) => Number(m.id.split('-')[0]) >= since && [BUYER, 'unknown@voltaria-cells.example'].some((a) => m.envelope.to.includes(a)));
+		const stray = (await readMail()).filter(
+			(m) => Number(m.id.split('-')[0]) >= since && [BUYER, 'unknown@voltaria-cells.example'].some((a) => m.envelope.to.includes(a))
+		);
 		expect(stray).toHaveLength(0);
 	});
 });
@@ -239,7 +247,10 @@ describe('admin changes and password links', () => {
 		const res = await postForm(app.url, '/admin/users?/role', { userId: await userId(inspector2), role: 'quality' }, admin);
 		expect(res.status).toBe(200);
 		expect(await (await me({ cookie: session })).json()).toMatchObject({ role: 'quality' });
-		const details = await withClient(db.url, async (c) => (await c.query("select details from audit_events where action = 'user.role_changed'")).rows);
+		const details = await withClient(
+			db.url,
+			async (c) => (await c.query("select details from audit_events where action = 'user.role_changed'")).rows
+		);
 		expect(details).toEqual([{ details: expect.objectContaining({ email: inspector2, from: 'inspector', to: 'quality' }) }]);
 		// Staff roles cannot move into a supplier organisation by a role change.
 		const bad = await postForm(app.url, '/admin/users?/role', { userId: await userId(inspector2), role: 'supplier' }, admin);
@@ -266,7 +277,12 @@ describe('admin changes and password links', () => {
 		const ownOrg = await withClient(db.url, async (c) => (await c.query("select id from organisations where kind = 'own'")).rows[0].id);
 		const email = 'new.inspector@kestrel-mobility.example';
 		const since = Date.now() - 1000;
-		const invite = await postForm(app.url, '/admin/users?/invite', { email, name: 'Nia Newcomer', role: 'inspector', organisationId: ownOrg }, admin);
+		const invite = await postForm(
+			app.url,
+			'/admin/users?/invite',
+			{ email, name: 'Nia Newcomer', role: 'inspector', organisationId: ownOrg },
+			admin
+		);
 		expect(invite.status).toBe(200);
 		const [mail] = await waitForMail((m) => m.envelope.to.includes(email) && Number(m.id.split('-')[0]) >= since);
 		const path = new URL(/https?:\/\/\S+\/signin\/reset\/[\w-]+/.exec(mail.text)![0]).pathname;
@@ -285,9 +301,14 @@ describe('admin changes and password links', () => {
 		const res = await postForm(app.url, '/signin/forgot', { email: BUYER });
 		expect(res.status).toBe(200);
 		expect(await res.text()).toContain('If this address belongs to a staff account');
-		const [mail] = await waitForMail((m) => m.envelope.to.includes(BUYER) && m.subject.includes('Reset') && Number(m.id.split('-')[0]) >= since);
+		const [mail] = await waitForMail(
+			(m) => m.envelope.to.includes(BUYER) && m.subject.includes('Reset') && Number(m.id.split('-')[0]) >= since
+		);
 		const token = /\/signin\/reset\/([\w-]+)/.exec(mail.text)![1];
-		const stored = await withClient(db.url, async (c) => (await c.query('select token_hash from password_resets where token_hash = $1', [token])).rowCount);
+		const stored = await withClient(
+			db.url,
+			async (c) => (await c.query('select token_hash from password_resets where token_hash = $1', [token])).rowCount
+		);
 		expect(stored).toBe(0);
 		const set = await postForm(app.url, `/signin/reset/${token}`, { password: 'buyer has a new one 7', confirm: 'buyer has a new one 7' });
 		expect(set.status).toBe(303);

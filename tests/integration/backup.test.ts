@@ -15,13 +15,27 @@ afterAll(async () => {
 	await db.drop();
 });
 
-const TABLES = ['organisations', '"user"', 'parts', 'ocv_models', 'lots', 'readings', 'documents', 'evaluations', 'decisions', 'notices', 'audit_events'];
+const TABLES = [
+	'organisations',
+	'"user"',
+	'parts',
+	'ocv_models',
+	'lots',
+	'readings',
+	'documents',
+	'evaluations',
+	'decisions',
+	'notices',
+	'audit_events'
+];
 
 async function fingerprint(url: string) {
 	return withClient(url, async (c) => {
 		const counts: Record<string, number> = {};
 		for (const t of TABLES) counts[t] = Number((await c.query(`select count(*)::int as n from ${t}`)).rows[0].n);
-		const lots = await c.query(`select md5(coalesce(string_agg(lot_code || status || quantity, ',' order by lot_code), '')) as h from lots`);
+		const lots = await c.query(
+			`select md5(coalesce(string_agg(lot_code || status || quantity, ',' order by lot_code), '')) as h from lots`
+		);
 		return { counts, lots: lots.rows[0].h as string };
 	});
 }

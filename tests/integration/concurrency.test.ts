@@ -35,10 +35,10 @@ describe('two inspectors saving readings to one lot at once', () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 5000, declaredSoc: 0.3 });
 
 		const batch = (who: Caller, tag: string, i: number) =>
-			call(who, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', PER_BATCH, 0.3, { prefix: `${tag}${String(i).padStart(2, '0')}` }) } });
-		const results = await Promise.all(
-			Array.from({ length: BATCHES_EACH }, (_, i) => [batch(first, 'A', i), batch(second, 'B', i)]).flat()
-		);
+			call(who, `/api/v1/lots/${lot.id}/readings`, {
+				body: { readings: modelReadings('NMC', PER_BATCH, 0.3, { prefix: `${tag}${String(i).padStart(2, '0')}` }) }
+			});
+		const results = await Promise.all(Array.from({ length: BATCHES_EACH }, (_, i) => [batch(first, 'A', i), batch(second, 'B', i)]).flat());
 
 		expect(results.map((r) => r.status)).toEqual(Array(2 * BATCHES_EACH).fill(201));
 		expect(results.reduce((sum, r) => sum + r.json.inserted, 0)).toBe(2 * BATCHES_EACH * PER_BATCH);
@@ -49,10 +49,19 @@ describe('two inspectors saving readings to one lot at once', () => {
 		const state = await withClient(db.url, async (c) => ({
 			readings: Number((await c.query('select count(*) as n from readings where lot_id = $1', [lot.id])).rows[0].n),
 			serials: Number((await c.query('select count(distinct serial) as n from readings where lot_id = $1', [lot.id])).rows[0].n),
-			byInspector: (await c.query(`select u.email, count(*)::int as n from readings r join "user" u on u.id = r.entered_by where r.lot_id = $1 group by u.email order by u.email`, [lot.id])).rows,
+			byInspector: (
+				await c.query(
+					`select u.email, count(*)::int as n from readings r join "user" u on u.id = r.entered_by where r.lot_id = $1 group by u.email order by u.email`,
+					[lot.id]
+				)
+			).rows,
 			status: (await c.query('select status::text as s, received_at from lots where id = $1', [lot.id])).rows[0],
-			arrivals: Number((await c.query(`select count(*) as n from audit_events where lot_id = $1 and action = 'lot.arrival'`, [lot.id])).rows[0].n),
-			completions: Number((await c.query(`select count(*) as n from audit_events where lot_id = $1 and action = 'lot.sample_complete'`, [lot.id])).rows[0].n)
+			arrivals: Number(
+				(await c.query(`select count(*) as n from audit_events where lot_id = $1 and action = 'lot.arrival'`, [lot.id])).rows[0].n
+			),
+			completions: Number(
+				(await c.query(`select count(*) as n from audit_events where lot_id = $1 and action = 'lot.sample_complete'`, [lot.id])).rows[0].n
+			)
 		}));
 		expect(state.readings).toBe(2 * BATCHES_EACH * PER_BATCH);
 		expect(state.serials).toBe(2 * BATCHES_EACH * PER_BATCH);

@@ -40,7 +40,15 @@ beforeAll(async () => {
 		return { lotId: lot.rows[0].id as string, part: part.rows[0] };
 	});
 	lotId = facts.lotId;
-	newLot = { po_number: 'PO-DB-DOWN', supplier_id: facts.part.supplier_id, part_id: facts.part.id, quantity: 100, declared_soc: 0.3, transport: 'road', un_number: 'UN3480' };
+	newLot = {
+		po_number: 'PO-DB-DOWN',
+		supplier_id: facts.part.supplier_id,
+		part_id: facts.part.id,
+		quantity: 100,
+		declared_soc: 0.3,
+		transport: 'road',
+		un_number: 'UN3480'
+	};
 }, 120_000);
 
 afterAll(async () => {
@@ -65,12 +73,20 @@ interface Answer {
 	text: string;
 }
 
-async function send(path: string, init: { method?: string; auth?: 'token' | 'cookie' | 'none'; body?: unknown; html?: boolean } = {}): Promise<Answer> {
+async function send(
+	path: string,
+	init: { method?: string; auth?: 'token' | 'cookie' | 'none'; body?: unknown; html?: boolean } = {}
+): Promise<Answer> {
 	const headers: Record<string, string> = { accept: init.html ? 'text/html' : 'application/json' };
 	if (init.auth === 'token') headers.authorization = `Bearer ${token}`;
 	if (init.auth === 'cookie') Object.assign(headers, { cookie, origin: app.url });
 	if (init.body !== undefined) headers['content-type'] = 'application/json';
-	const res = await fetch(`${app.url}${path}`, { method: init.method ?? 'GET', headers, body: init.body === undefined ? undefined : JSON.stringify(init.body), redirect: 'manual' });
+	const res = await fetch(`${app.url}${path}`, {
+		method: init.method ?? 'GET',
+		headers,
+		body: init.body === undefined ? undefined : JSON.stringify(init.body),
+		redirect: 'manual'
+	});
 	return { status: res.status, type: res.headers.get('content-type') ?? '', text: await res.text() };
 }
 
@@ -90,7 +106,9 @@ const apiCalls = () =>
 function expectUnavailableJson(what: string, answer: Answer) {
 	expect(answer.status, `${what}: ${answer.text.slice(0, 300)}`).toBe(503);
 	expect(answer.type, what).toMatch(/^application\/json/);
-	expect(JSON.parse(answer.text), what).toMatchObject({ error: { code: 'database_unavailable', message: expect.stringMatching(/database/i) } });
+	expect(JSON.parse(answer.text), what).toMatchObject({
+		error: { code: 'database_unavailable', message: expect.stringMatching(/database/i) }
+	});
 }
 
 function expectFriendlyPage(what: string, answer: Answer) {
@@ -102,7 +120,8 @@ function expectFriendlyPage(what: string, answer: Answer) {
 	expect(answer.text, what).not.toMatch(/ECONNREFUSED|\bat [\w.<>]+ \(|node_modules|select |Error:/);
 }
 
-const lotCount = () => withClient(db.url, async (c) => Number((await c.query(`select count(*) as n from lots where po_number = 'PO-DB-DOWN'`)).rows[0].n));
+const lotCount = () =>
+	withClient(db.url, async (c) => Number((await c.query(`select count(*) as n from lots where po_number = 'PO-DB-DOWN'`)).rows[0].n));
 
 describe('PostgreSQL stopped', () => {
 	it('works before the stop', async () => {
@@ -128,7 +147,11 @@ describe('PostgreSQL stopped', () => {
 			headers: { origin: app.url, accept: 'text/html', 'content-type': 'application/x-www-form-urlencoded' },
 			body: new URLSearchParams({ email: 'buyer@kestrel-mobility.example', password: 'restvolt-demo-2026', redirectTo: '/' })
 		});
-		expectFriendlyPage('POST /signin?/password', { status: signIn.status, type: signIn.headers.get('content-type') ?? '', text: await signIn.text() });
+		expectFriendlyPage('POST /signin?/password', {
+			status: signIn.status,
+			type: signIn.headers.get('content-type') ?? '',
+			text: await signIn.text()
+		});
 		expect(app.output()).not.toMatch(/Unhandled|uncaught/i);
 	}, 120_000);
 
@@ -170,7 +193,10 @@ describe('PostgreSQL coming back within the retry', () => {
 		await waitUntil(
 			() =>
 				withClient(`${testEnv().pgUrl}/postgres`, async (c) => {
-					const { rows } = await c.query(`select 1 from pg_stat_activity where datname = $1 and wait_event_type = 'Lock' and usename = 'restvolt_app'`, [db.name]);
+					const { rows } = await c.query(
+						`select 1 from pg_stat_activity where datname = $1 and wait_event_type = 'Lock' and usename = 'restvolt_app'`,
+						[db.name]
+					);
 					return rows.length > 0;
 				}),
 			20_000,

@@ -66,10 +66,14 @@ const noticesOf = (id: string) =>
 
 /** Wait for the notice's mail, parse it, and check what every notice must carry. */
 async function readNotice(noticeId: string, lotCode: string, disposition: RegExp) {
-	const [mail] = await waitUntil(async () => {
-		const found = await mailsForNotice(noticeId);
-		return found.length ? found : null;
-	}, 20_000, `notice ${noticeId}`);
+	const [mail] = await waitUntil(
+		async () => {
+			const found = await mailsForNotice(noticeId);
+			return found.length ? found : null;
+		},
+		20_000,
+		`notice ${noticeId}`
+	);
 	expect(mail.envelope.to.sort()).toEqual([...VOLTARIA_CONTACTS].sort());
 	expect(mail.subject).toContain(lotCode);
 	expect(mail.subject).toMatch(disposition);
@@ -94,7 +98,10 @@ describe('submit → automatic disposition with a notice', () => {
 		expect(res.json.error.code).toBe('sample_incomplete');
 		expect(res.json.error.message).toMatch(/sample/i);
 		expect((await lotRow(lot.id)).status).toBe(before);
-		const count = await withClient(db.url, async (c) => (await c.query('select count(*)::int as n from evaluations where lot_id = $1', [lot.id])).rows[0].n);
+		const count = await withClient(
+			db.url,
+			async (c) => (await c.query('select count(*)::int as n from evaluations where lot_id = $1', [lot.id])).rows[0].n
+		);
 		expect(count).toBe(0);
 		expect(await noticesOf(lot.id)).toHaveLength(0);
 	});
@@ -158,7 +165,9 @@ describe('quality review of held lots (e-signed overrides)', () => {
 		expect(hold.pdfText).toMatch(/HOLD/);
 
 		// Tokens cannot sign; a wrong password signs nothing; a missing reason is refused.
-		const byToken = await call(quality, `/api/v1/lots/${lot.id}/decision`, { body: { decision: 'accept', reason: 'Released', password: DEMO_PASSWORD } });
+		const byToken = await call(quality, `/api/v1/lots/${lot.id}/decision`, {
+			body: { decision: 'accept', reason: 'Released', password: DEMO_PASSWORD }
+		});
 		expect(byToken.status).toBe(403);
 		expect(byToken.json.error.code).toBe('session_required');
 		const wrong = await decide(lot.id, { decision: 'accept', reason: 'Summary received by mail', password: 'not-my-password' });
@@ -219,11 +228,18 @@ describe('quality review of held lots (e-signed overrides)', () => {
 		// The missing UN 38.3 summary arrives and is attached by the buyer.
 		const form = new FormData();
 		form.set('kind', 'un38_3_summary');
-		form.set('file', new Blob([new TextEncoder().encode(`%PDF-1.4\n% summary ${lot.id}\n%%EOF\n`)], { type: 'application/pdf' }), 'un38_3.pdf');
+		form.set(
+			'file',
+			new Blob([new TextEncoder().encode(`%PDF-1.4\n% summary ${lot.id}\n%%EOF\n`)], { type: 'application/pdf' }),
+			'un38_3.pdf'
+		);
 		expect((await call(buyer, `/api/v1/lots/${lot.id}/documents`, { form })).status).toBe(201);
 		const res = await postForm(app.url, `/review/${lot.id}?/reevaluate`, {}, qualityCookie);
 		expect(res.status).toBeLessThan(400);
-		const rows = await withClient(db.url, async (c) => (await c.query('select disposition from evaluations where lot_id = $1 order by id', [lot.id])).rows);
+		const rows = await withClient(
+			db.url,
+			async (c) => (await c.query('select disposition from evaluations where lot_id = $1 order by id', [lot.id])).rows
+		);
 		expect(rows.map((r) => r.disposition)).toEqual(['hold', 'accept']);
 		expect((await lotRow(lot.id)).status).toBe('accepted');
 		const kinds = (await noticesOf(lot.id)).map((n) => n.kind);
@@ -275,7 +291,10 @@ describe('reports, exports, notices and supplier isolation', () => {
 		expect(res.status).toBe(200);
 		const book = await XlsxPopulate.fromDataAsync(Buffer.from(await res.arrayBuffer()));
 		const sheet = book.sheet('Readings')!;
-		const stored = await withClient(db.url, async (c) => (await c.query(`select serial, ocv_v from readings where lot_id = $1`, [lot.id])).rows);
+		const stored = await withClient(
+			db.url,
+			async (c) => (await c.query(`select serial, ocv_v from readings where lot_id = $1`, [lot.id])).rows
+		);
 		const bySerial = new Map(stored.map((r) => [r.serial as string, r.ocv_v as number]));
 		const headers = (sheet.usedRange()!.value()[0] as unknown[]).map(String);
 		const serialCol = headers.indexOf('serial');
@@ -293,7 +312,9 @@ describe('reports, exports, notices and supplier isolation', () => {
 		const values = book.sheet(0)!.usedRange()!.value() as unknown[][];
 		const codes = values.flat().map(String);
 		expect(codes).toContain(lot.lot_code);
-		const onHold = await withClient(db.url, async (c) => (await c.query(`select lot_code from lots where status = 'on_hold'`)).rows.map((r) => r.lot_code));
+		const onHold = await withClient(db.url, async (c) =>
+			(await c.query(`select lot_code from lots where status = 'on_hold'`)).rows.map((r) => r.lot_code)
+		);
 		const listed = values.filter((row) => onHold.includes(String(row[0])));
 		expect(listed).toHaveLength(onHold.length);
 		// states and filters in Restvolt's words (src/lib/status.ts), not the API's codes
@@ -330,11 +351,20 @@ describe('reports, exports, notices and supplier isolation', () => {
 	});
 
 	it('computes the supplier scorecard from the decided lots', async () => {
-		const supplierId = await withClient(db.url, async (c) => (await c.query(`select supplier_id from lots where id = $1`, [lot.id])).rows[0].supplier_id);
+		const supplierId = await withClient(
+			db.url,
+			async (c) => (await c.query(`select supplier_id from lots where id = $1`, [lot.id])).rows[0].supplier_id
+		);
 		const res = await call(buyer, `/api/v1/suppliers/${supplierId}/scorecard`);
 		expect(res.status).toBe(200);
-		const facts = await withClient(db.url, async (c) =>
-			(await c.query(`select status::text from lots where supplier_id = $1 and status in ('accepted','on_hold','rejected')`, [supplierId])).rows
+		const facts = await withClient(
+			db.url,
+			async (c) =>
+				(
+					await c.query(`select status::text from lots where supplier_id = $1 and status in ('accepted','on_hold','rejected')`, [
+						supplierId
+					])
+				).rows
 		);
 		expect(res.json.totals.lotsDecided).toBe(facts.length);
 		expect(res.json.totals.held + res.json.totals.accepted + res.json.totals.rejected).toBe(facts.length);

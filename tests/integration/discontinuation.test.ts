@@ -33,7 +33,8 @@ const q = <T>(sql: string, values: unknown[] = []) => withClient(db.url, async (
 
 it('discontinues after five lots not accepted on tightened, alerts staff, holds new lots, and resumes on tightened', async () => {
 	const [part] = await q<{ id: string }>(`select id from parts where part_number = $1`, [PART]);
-	const severity = async () => (await q<{ s: string }>(`select severity::text as s from sampling_states where part_id = $1`, [part.id]))[0]?.s;
+	const severity = async () =>
+		(await q<{ s: string }>(`select severity::text as s from sampling_states where part_id = $1`, [part.id]))[0]?.s;
 
 	// Two held lots on normal (9.3.1) switch to tightened; five more held lots on tightened (9.4) discontinue.
 	for (let i = 0; i < 7; i++) {
@@ -65,11 +66,18 @@ it('discontinues after five lots not accepted on tightened, alerts staff, holds 
 
 	// Only quality may resume; the reason is required; then inspection restarts on tightened.
 	const buyerCookie = await signInApi(app.url, 'buyer@kestrel-mobility.example');
-	expect((await postForm(app.url, `/parts/${part.id}?/resume`, { reason: 'Corrective action 8D-2291 accepted' }, buyerCookie)).status).toBe(403);
+	expect((await postForm(app.url, `/parts/${part.id}?/resume`, { reason: 'Corrective action 8D-2291 accepted' }, buyerCookie)).status).toBe(
+		403
+	);
 	const qualityCookie = await signInApi(app.url, 'quality@kestrel-mobility.example');
 	expect((await postForm(app.url, `/parts/${part.id}?/resume`, { reason: 'short' }, qualityCookie)).status).toBe(400);
 	expect(await severity()).toBe('discontinued');
-	const resumed = await postForm(app.url, `/parts/${part.id}?/resume`, { reason: 'Corrective action 8D-2291 accepted after an audit' }, qualityCookie);
+	const resumed = await postForm(
+		app.url,
+		`/parts/${part.id}?/resume`,
+		{ reason: 'Corrective action 8D-2291 accepted after an audit' },
+		qualityCookie
+	);
 	expect(resumed.status).toBe(200);
 	expect(await severity()).toBe('tightened');
 	expect(await q(`select 1 from audit_events where action = 'inspection.resumed' and entity_id = $1`, [part.id])).toHaveLength(1);
@@ -77,5 +85,7 @@ it('discontinues after five lots not accepted on tightened, alerts staff, holds 
 	expect(after.json.severity).toBe('tightened');
 	expect(after.json.reasons.map((r: { code: string }) => r.code)).not.toContain('inspection_discontinued');
 	// Resuming twice is refused: there is nothing left to resume.
-	expect((await postForm(app.url, `/parts/${part.id}?/resume`, { reason: 'Corrective action 8D-2291 accepted again' }, qualityCookie)).status).toBe(409);
+	expect(
+		(await postForm(app.url, `/parts/${part.id}?/resume`, { reason: 'Corrective action 8D-2291 accepted again' }, qualityCookie)).status
+	).toBe(409);
 });

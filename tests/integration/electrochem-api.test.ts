@@ -150,7 +150,16 @@ describe('GET /api/v1/chemistries and curves', () => {
 		const codes = reply.body.map((c: { code: string }) => c.code);
 		expect(codes.sort()).toEqual(['ALKALINE', 'LCO', 'LFP', 'LIMNO2', 'LISOCL2', 'LMO', 'LTO', 'NCA', 'NICD', 'NIMH', 'NMC', 'PBACID']);
 		for (const c of reply.body) {
-			expect(Object.keys(c).sort()).toEqual(['code', 'max_v', 'min_safe_v', 'name', 'nominal_v', 'ocv_empty_v', 'ocv_full_v', 'rechargeable']);
+			expect(Object.keys(c).sort()).toEqual([
+				'code',
+				'max_v',
+				'min_safe_v',
+				'name',
+				'nominal_v',
+				'ocv_empty_v',
+				'ocv_full_v',
+				'rechargeable'
+			]);
 			expect(c.ocv_empty_v).toBeLessThan(c.ocv_full_v);
 			expect(c.min_safe_v).toBeLessThan(c.max_v);
 		}
@@ -197,7 +206,18 @@ async function curveAt(code: string, temperature = 25) {
 }
 
 describe('POST /api/v1/ocv/evaluate', () => {
-	const RESULT_KEYS = ['determinate', 'expected_ocv_v', 'flags', 'ocv_at_25c_v', 'ocv_cell_v', 'residual_v', 'soc', 'soc_high', 'soc_low', 'soc_sigma'];
+	const RESULT_KEYS = [
+		'determinate',
+		'expected_ocv_v',
+		'flags',
+		'ocv_at_25c_v',
+		'ocv_cell_v',
+		'residual_v',
+		'soc',
+		'soc_high',
+		'soc_low',
+		'soc_sigma'
+	];
 
 	it('places readings on the curve, with pack division, flags and the expected OCV', async () => {
 		const nmc = await curveAt('NMC');
@@ -231,7 +251,10 @@ describe('POST /api/v1/ocv/evaluate', () => {
 		expect(over.flags).toContain('over_voltage');
 		expect(hot.flags).toContain('temperature_out_of_range');
 
-		const flat = await post('inspector', '/api/v1/ocv/evaluate', { chemistry: 'LFP', readings: [{ ocv_v: lfp[50].ocv_v, temperature_c: 25 }] });
+		const flat = await post('inspector', '/api/v1/ocv/evaluate', {
+			chemistry: 'LFP',
+			readings: [{ ocv_v: lfp[50].ocv_v, temperature_c: 25 }]
+		});
 		// LFP's plateau: OCV cannot place SOC mid-range, so the result is indeterminate (Restvolt physics rule)
 		expect(flat.body.results[0].determinate).toBe(false);
 		expect(flat.body.results[0].flags).toContain('soc_indeterminate');
@@ -338,7 +361,13 @@ describe('model versions', () => {
 
 		const saved = await post('quality', '/api/v1/models', body);
 		expect(saved.status, JSON.stringify(saved.body)).toBe(201);
-		expect(saved.body).toMatchObject({ chemistry: 'NMC', origin: 'fitted', status: 'awaiting_approval', fit_temperature_c: 23, created_by: EMAILS.quality });
+		expect(saved.body).toMatchObject({
+			chemistry: 'NMC',
+			origin: 'fitted',
+			status: 'awaiting_approval',
+			fit_temperature_c: 23,
+			created_by: EMAILS.quality
+		});
 		expect(saved.body.version).toMatch(/^fit-\d+$/);
 		expect(saved.body.fit_rmse_v).toBeLessThan(0.002);
 
@@ -371,7 +400,9 @@ describe('model versions', () => {
 		const rejected = await post('quality', '/api/v1/models', { chemistry: 'NMC', temperature_c: 25, points: await wavyReference() });
 		expectError(rejected, 422);
 		expect(rejected.body.monotonic).toBe(false);
-		const count = await withClient(db.url, (c) => c.query(`select count(*)::int as n from ocv_models where origin = 'fitted' and fit_rmse_v > 0.01`));
+		const count = await withClient(db.url, (c) =>
+			c.query(`select count(*)::int as n from ocv_models where origin = 'fitted' and fit_rmse_v > 0.01`)
+		);
 		expect(count.rows[0].n).toBe(0);
 		expectError(await post('quality', '/api/v1/models/00000000-0000-4000-8000-000000000000/approve', {}), 404);
 		expectError(await call('quality', '/api/v1/models/00000000-0000-4000-8000-000000000000'), 404);

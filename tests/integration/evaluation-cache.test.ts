@@ -34,9 +34,16 @@ afterAll(async () => {
 
 /** GET the evaluation with the raw headers (ETag, Server-Timing). */
 async function evaluation(lotId: string, headers: Record<string, string> = {}) {
-	const res = await fetch(`${app.url}/api/v1/lots/${lotId}/evaluation`, { headers: { authorization: `Bearer ${inspector.token}`, ...headers } });
+	const res = await fetch(`${app.url}/api/v1/lots/${lotId}/evaluation`, {
+		headers: { authorization: `Bearer ${inspector.token}`, ...headers }
+	});
 	const text = await res.text();
-	return { status: res.status, etag: res.headers.get('etag'), timing: res.headers.get('server-timing') ?? '', json: text ? JSON.parse(text) : null };
+	return {
+		status: res.status,
+		etag: res.headers.get('etag'),
+		timing: res.headers.get('server-timing') ?? '',
+		json: text ? JSON.parse(text) : null
+	};
 }
 
 const codes = (ev: { reasons: Array<{ code: string }> }) => ev.reasons.map((r) => r.code);
@@ -60,7 +67,10 @@ describe('GET /api/v1/lots/{id}/evaluation cache', () => {
 		// A reading corrected to a deep-discharged value: the served evaluation must say so at once.
 		const readings = await call(inspector, `/api/v1/lots/${lot.id}/readings`);
 		const target = readings.json.readings[3];
-		const patch = await call(inspector, `/api/v1/lots/${lot.id}/readings/${target.id}`, { method: 'PATCH', body: { ocv_v: 2.0, reason: 'cache test' } });
+		const patch = await call(inspector, `/api/v1/lots/${lot.id}/readings/${target.id}`, {
+			method: 'PATCH',
+			body: { ocv_v: 2.0, reason: 'cache test' }
+		});
 		expect(patch.status).toBe(200);
 		const corrected = await evaluation(lot.id);
 		expect(corrected.etag).not.toBe(first.etag);
@@ -78,7 +88,11 @@ describe('GET /api/v1/lots/{id}/evaluation cache', () => {
 		for (const kind of ['un38_3_summary', 'sds']) {
 			const form = new FormData();
 			form.set('kind', kind);
-			form.set('file', new Blob([new TextEncoder().encode(`%PDF-1.4\n% ${kind} cache ${lot.id}\n%%EOF\n`)], { type: 'application/pdf' }), `${kind}.pdf`);
+			form.set(
+				'file',
+				new Blob([new TextEncoder().encode(`%PDF-1.4\n% ${kind} cache ${lot.id}\n%%EOF\n`)], { type: 'application/pdf' }),
+				`${kind}.pdf`
+			);
 			expect((await call(buyer, `/api/v1/lots/${lot.id}/documents`, { form })).status).toBe(201);
 		}
 		const documented = await evaluation(lot.id);
@@ -86,7 +100,10 @@ describe('GET /api/v1/lots/{id}/evaluation cache', () => {
 		expect(documented.json.status).toBe('accept');
 
 		// A part limit changed straight in the database (no service involved): the trigger still bumps the lot.
-		const [{ spread_limit_mv: limit }] = await sql<{ spread_limit_mv: number }>('select spread_limit_mv from parts where part_number = $1', [PART]);
+		const [{ spread_limit_mv: limit }] = await sql<{ spread_limit_mv: number }>(
+			'select spread_limit_mv from parts where part_number = $1',
+			[PART]
+		);
 		await sql('update parts set spread_limit_mv = 0.01 where part_number = $1', [PART]);
 		const tight = await evaluation(lot.id);
 		expect(codes(tight.json)).toContain('spread_over_limit');
@@ -124,7 +141,10 @@ describe('stored switching state', () => {
 		const open = await measuredLot(buyer, inspector, 'accept');
 		const before = await evaluation(open.id);
 		expect(before.json.severity).toBe('normal');
-		const [{ supplier_id: supplierId, part_id: partId }] = await sql<{ supplier_id: string; part_id: string }>('select supplier_id, part_id from lots where id = $1', [open.id]);
+		const [{ supplier_id: supplierId, part_id: partId }] = await sql<{ supplier_id: string; part_id: string }>(
+			'select supplier_id, part_id from lots where id = $1',
+			[open.id]
+		);
 
 		const storedEqualsReplay = async () => {
 			const [stored] = await sql<{ severity: string; switching_score: number; history: Record<string, unknown> }>(

@@ -90,7 +90,14 @@ describe('PostgreSQL restart during a 10,000-row import', () => {
 		await locker.end().catch(() => {});
 
 		const failed = await pending.catch((e: Error) => {
-			throw new Error(`the app did not answer the import (${e.message}); exit ${app.process.exitCode ?? app.process.signalCode}; log: ${app.output().split('\n').filter((l) => /rror|^\s+at |Emitted|throw/.test(l)).slice(0, 30).join('\n')}`);
+			throw new Error(
+				`the app did not answer the import (${e.message}); exit ${app.process.exitCode ?? app.process.signalCode}; log: ${app
+					.output()
+					.split('\n')
+					.filter((l) => /rror|^\s+at |Emitted|throw/.test(l))
+					.slice(0, 30)
+					.join('\n')}`
+			);
 		});
 		// A retryable "database unavailable", in the API's error shape.
 		expect(failed.status, JSON.stringify(failed.json)).toBe(503);

@@ -32,10 +32,21 @@ afterAll(async () => {
 
 async function lotFields(overrides: Record<string, string> = {}) {
 	const part = await partByNumber(buyer, PART);
-	return { po_number: 'KM-PO-STRICT', supplier_id: part.supplier_id, part_id: part.id, quantity: '250', declared_soc_pct: '25', transport: 'sea', un_number: 'UN3480', expected_arrival: '2026-12-20', ...overrides };
+	return {
+		po_number: 'KM-PO-STRICT',
+		supplier_id: part.supplier_id,
+		part_id: part.id,
+		quantity: '250',
+		declared_soc_pct: '25',
+		transport: 'sea',
+		un_number: 'UN3480',
+		expected_arrival: '2026-12-20',
+		...overrides
+	};
 }
 
-const lotsWithPo = (po: string) => withClient(db.url, async (c) => Number((await c.query('select count(*) as n from lots where po_number = $1', [po])).rows[0].n));
+const lotsWithPo = (po: string) =>
+	withClient(db.url, async (c) => Number((await c.query('select count(*) as n from lots where po_number = $1', [po])).rows[0].n));
 
 /** The refused page marks that field's input invalid and shows the message. */
 function expectFieldRefused(html: string, field: string, message: RegExp) {
@@ -46,13 +57,16 @@ function expectFieldRefused(html: string, field: string, message: RegExp) {
 }
 
 describe('the lot form', () => {
-	it.each(['1e7', '1,5', '1e309', '12abc', '0x10', '2.5'])('refuses quantity %j with 400 naming the quantity, storing nothing', async (quantity) => {
-		const res = await postForm(app.url, '/lots/new', await lotFields({ quantity }), buyerCookie);
-		const html = await res.text();
-		expect(res.status, html.slice(0, 300)).toBe(400);
-		expectFieldRefused(html, 'quantity', /Enter the number of units as a whole number/);
-		expect(await lotsWithPo('KM-PO-STRICT')).toBe(0);
-	});
+	it.each(['1e7', '1,5', '1e309', '12abc', '0x10', '2.5'])(
+		'refuses quantity %j with 400 naming the quantity, storing nothing',
+		async (quantity) => {
+			const res = await postForm(app.url, '/lots/new', await lotFields({ quantity }), buyerCookie);
+			const html = await res.text();
+			expect(res.status, html.slice(0, 300)).toBe(400);
+			expectFieldRefused(html, 'quantity', /Enter the number of units as a whole number/);
+			expect(await lotsWithPo('KM-PO-STRICT')).toBe(0);
+		}
+	);
 
 	it('refuses a NUL or another control character in the PO number, storing nothing', async () => {
 		for (const po_number of ['KM-PO\u0000-1', 'KM-PO-\u001b[31m', 'KM\u202Eevil']) {
@@ -61,14 +75,19 @@ describe('the lot form', () => {
 			expect(res.status, JSON.stringify(po_number)).toBe(400);
 			expectFieldRefused(html, 'po_number', /control characters/);
 		}
-		const stored = await withClient(db.url, async (c) => Number((await c.query(`select count(*) as n from lots where po_number like 'KM%'`)).rows[0].n));
+		const stored = await withClient(db.url, async (c) =>
+			Number((await c.query(`select count(*) as n from lots where po_number like 'KM%'`)).rows[0].n)
+		);
 		expect(stored).toBe(0);
 	});
 
 	it('still registers a lot written plainly (the refusals above are about the input)', async () => {
 		const res = await postForm(app.url, '/lots/new', await lotFields({ quantity: ' 1200 ', declared_soc_pct: '27.5' }), buyerCookie);
 		expect(res.status).toBe(303);
-		const row = await withClient(db.url, async (c) => (await c.query(`select quantity, declared_soc from lots where po_number = 'KM-PO-STRICT'`)).rows[0]);
+		const row = await withClient(
+			db.url,
+			async (c) => (await c.query(`select quantity, declared_soc from lots where po_number = 'KM-PO-STRICT'`)).rows[0]
+		);
 		expect(row).toEqual({ quantity: 1200, declared_soc: 0.275 });
 	});
 
@@ -79,7 +98,10 @@ describe('the lot form', () => {
 			expect(res.status, quantity).toBe(400);
 			expectFieldRefused(await res.text(), 'quantity', /Enter the number of units as a whole number/);
 		}
-		const row = await withClient(db.url, async (c) => (await c.query('select po_number, quantity from lots where id = $1', [lot.id])).rows[0]);
+		const row = await withClient(
+			db.url,
+			async (c) => (await c.query('select po_number, quantity from lots where id = $1', [lot.id])).rows[0]
+		);
 		expect(row.quantity).toBe(100);
 		expect(row.po_number).not.toBe('KM-PO-EDITED');
 	});
@@ -98,15 +120,22 @@ describe('other pages', () => {
 		expect(after).toEqual(before);
 	});
 
-	it.each(['/lots?search=%00', '/lots?search=PO%1B', '/lots?limit=1e1', '/parts?search=%00', '/lots?serial=%00'])('answers %s with 400, not 500', async (path) => {
-		const res = await fetch(`${app.url}${path}`, { headers: { cookie: buyerCookie, accept: 'text/html' }, redirect: 'manual' });
-		const html = await res.text();
-		expect(res.status, html.slice(0, 300)).toBe(400);
-		expect(html).toMatch(/filters are not valid/);
-	});
+	it.each(['/lots?search=%00', '/lots?search=PO%1B', '/lots?limit=1e1', '/parts?search=%00', '/lots?serial=%00'])(
+		'answers %s with 400, not 500',
+		async (path) => {
+			const res = await fetch(`${app.url}${path}`, { headers: { cookie: buyerCookie, accept: 'text/html' }, redirect: 'manual' });
+			const html = await res.text();
+			expect(res.status, html.slice(0, 300)).toBe(400);
+			expect(html).toMatch(/filters are not valid/);
+		}
+	);
 
 	it('signs in with a NUL in the return path, going to the start page instead (no 500)', async () => {
-		const res = await postForm(app.url, '/signin?/password', { email: 'buyer@kestrel-mobility.example', password: DEMO_PASSWORD, redirectTo: '/lots\u0000x' });
+		const res = await postForm(app.url, '/signin?/password', {
+			email: 'buyer@kestrel-mobility.example',
+			password: DEMO_PASSWORD,
+			redirectTo: '/lots\u0000x'
+		});
 		expect(res.status).toBe(303);
 		expect(new URL(res.headers.get('location')!, app.url).pathname).toBe('/');
 	});
@@ -115,7 +144,10 @@ describe('other pages', () => {
 		const lot = await createLot(buyer, { partNumber: PART, quantity: 100, declaredSoc: 0.3 });
 		const res = await postForm(app.url, `/lots/${lot.id}?/cancel`, { reason: 'duplicate\u0000order' }, buyerCookie);
 		expect(res.status).toBe(400);
-		const status = await withClient(db.url, async (c) => (await c.query('select status::text as s from lots where id = $1', [lot.id])).rows[0].s);
+		const status = await withClient(
+			db.url,
+			async (c) => (await c.query('select status::text as s from lots where id = $1', [lot.id])).rows[0].s
+		);
 		expect(status).not.toBe('cancelled');
 	});
 });

@@ -23,7 +23,9 @@ export function apiRouteFiles(): Array<{ route: string; methods: string[] }> {
 			if (statSync(path).isDirectory()) walk(path);
 			else if (name === '+server.ts') {
 				const source = readFileSync(path, 'utf8');
-				const methods = [...source.matchAll(/export\s+(?:const|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE|fallback)\b/g)].map((m) => m[1]);
+				const methods = [...source.matchAll(/export\s+(?:const|async\s+function|function)\s+(GET|POST|PUT|PATCH|DELETE|fallback)\b/g)].map(
+					(m) => m[1]
+				);
 				found.push({ route: relative(API_DIR, dir) || '.', methods: methods.sort() });
 			}
 		}
@@ -60,13 +62,20 @@ export async function seedIds(url: string): Promise<SeedIds> {
 		const a = await org(VOLTARIA);
 		const b = await org(FERROLITH);
 		const lotsOf = async (supplierId: string) => {
-			const { rows } = await c.query('select distinct on (status) status::text as status, id from lots where supplier_id = $1 order by status, created_at', [supplierId]);
+			const { rows } = await c.query(
+				'select distinct on (status) status::text as status, id from lots where supplier_id = $1 order by status, created_at',
+				[supplierId]
+			);
 			return Object.fromEntries(rows.map((r) => [r.status, r.id as string]));
 		};
 		const lotA = await lotsOf(a);
 		const lotB = await lotsOf(b);
-		const docOf = (supplierId: string) => one(c, 'select d.id from documents d join lots l on l.id = d.lot_id where l.supplier_id = $1 order by d.id limit 1', [supplierId]);
-		const noticeOf = (supplierId: string) => one(c, 'select n.id from notices n join lots l on l.id = n.lot_id where l.supplier_id = $1 order by n.created_at limit 1', [supplierId]);
+		const docOf = (supplierId: string) =>
+			one(c, 'select d.id from documents d join lots l on l.id = d.lot_id where l.supplier_id = $1 order by d.id limit 1', [supplierId]);
+		const noticeOf = (supplierId: string) =>
+			one(c, 'select n.id from notices n join lots l on l.id = n.lot_id where l.supplier_id = $1 order by n.created_at limit 1', [
+				supplierId
+			]);
 		const partOf = (supplierId: string) => one(c, 'select id from parts where supplier_id = $1 order by part_number limit 1', [supplierId]);
 		return {
 			supplier: { a, b },
@@ -106,7 +115,8 @@ export async function snapshot(url: string): Promise<DbSnapshot> {
 			if (tablename === 'audit_events') audit = n;
 			if (!GROWING.includes(tablename) && !DERIVED.includes(tablename)) counts[tablename] = n;
 		}
-		const md5 = async (table: string) => (await c.query(`select coalesce(md5(string_agg(t::text, '|' order by t.id)), '') as h from ${table} t`)).rows[0].h as string;
+		const md5 = async (table: string) =>
+			(await c.query(`select coalesce(md5(string_agg(t::text, '|' order by t.id)), '') as h from ${table} t`)).rows[0].h as string;
 		return { counts, audit, lotsMd5: await md5('lots'), readingsMd5: await md5('readings') };
 	});
 }

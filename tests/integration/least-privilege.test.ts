@@ -63,7 +63,10 @@ describe('the app role', () => {
 
 	it('is no superuser and owns nothing; the owner role owns the database and every table', async () => {
 		await withClient(db.url, async (c) => {
-			const roles = await c.query('select rolname, rolsuper, rolcreaterole, rolcreatedb, rolbypassrls from pg_roles where rolname = any($1) order by rolname', [[APP_ROLE, OWNER_ROLE]]);
+			const roles = await c.query(
+				'select rolname, rolsuper, rolcreaterole, rolcreatedb, rolbypassrls from pg_roles where rolname = any($1) order by rolname',
+				[[APP_ROLE, OWNER_ROLE]]
+			);
 			expect(roles.rows).toEqual([
 				{ rolname: APP_ROLE, rolsuper: false, rolcreaterole: false, rolcreatedb: false, rolbypassrls: false },
 				{ rolname: OWNER_ROLE, rolsuper: false, rolcreaterole: false, rolcreatedb: false, rolbypassrls: false }
@@ -72,7 +75,10 @@ describe('the app role', () => {
 			expect(owner.rows[0].owner).toBe(OWNER_ROLE);
 			const tables = await c.query(`select distinct tableowner from pg_tables where schemaname in ('public', 'drizzle')`);
 			expect(tables.rows).toEqual([{ tableowner: OWNER_ROLE }]);
-			const appOwns = await c.query(`select count(*)::int as n from pg_class where relowner = (select oid from pg_roles where rolname = $1)`, [APP_ROLE]);
+			const appOwns = await c.query(
+				`select count(*)::int as n from pg_class where relowner = (select oid from pg_roles where rolname = $1)`,
+				[APP_ROLE]
+			);
 			expect(appOwns.rows[0].n).toBe(0);
 		});
 	});
@@ -96,7 +102,9 @@ describe('the running app', () => {
 		});
 		expect(created.status, await created.clone().text()).toBe(201);
 		const users = await withClient(db.url, async (c) => {
-			const { rows } = await c.query(`select distinct usename from pg_stat_activity where datname = $1 and pid <> pg_backend_pid()`, [db.name]);
+			const { rows } = await c.query(`select distinct usename from pg_stat_activity where datname = $1 and pid <> pg_backend_pid()`, [
+				db.name
+			]);
 			return rows.map((r) => r.usename as string);
 		});
 		expect(users).toEqual([APP_ROLE]);
@@ -106,8 +114,18 @@ describe('the running app', () => {
 /** A lot of a seeded lithium-ion part (UN3480 fits it). */
 async function newLotBody() {
 	return withClient(db.url, async (c) => {
-		const { rows } = await c.query(`select p.id as part_id, p.supplier_id from parts p where p.chemistry in ('NMC', 'LFP', 'NCA') order by p.part_number limit 1`);
-		return { po_number: 'PO-LEAST-PRIV', supplier_id: rows[0].supplier_id, part_id: rows[0].part_id, quantity: 100, declared_soc: 0.3, transport: 'road', un_number: 'UN3480' };
+		const { rows } = await c.query(
+			`select p.id as part_id, p.supplier_id from parts p where p.chemistry in ('NMC', 'LFP', 'NCA') order by p.part_number limit 1`
+		);
+		return {
+			po_number: 'PO-LEAST-PRIV',
+			supplier_id: rows[0].supplier_id,
+			part_id: rows[0].part_id,
+			quantity: 100,
+			declared_soc: 0.3,
+			transport: 'road',
+			un_number: 'UN3480'
+		};
 	});
 }
 

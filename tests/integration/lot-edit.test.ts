@@ -30,11 +30,25 @@ afterAll(async () => {
 });
 
 const stored = (id: string) =>
-	withClient(db.url, async (c) => (await c.query('select po_number, quantity, declared_soc, transport, expected_arrival::text from lots where id = $1', [id])).rows[0]);
+	withClient(
+		db.url,
+		async (c) =>
+			(await c.query('select po_number, quantity, declared_soc, transport, expected_arrival::text from lots where id = $1', [id])).rows[0]
+	);
 
 async function editFields(overrides: Record<string, string> = {}) {
 	const part = await partByNumber(buyer, PART);
-	return { po_number: 'KM-PO-EDIT-1', supplier_id: part.supplier_id, part_id: part.id, quantity: '250', declared_soc_pct: '25', transport: 'sea', un_number: 'UN3480', expected_arrival: '2026-12-20', ...overrides };
+	return {
+		po_number: 'KM-PO-EDIT-1',
+		supplier_id: part.supplier_id,
+		part_id: part.id,
+		quantity: '250',
+		declared_soc_pct: '25',
+		transport: 'sea',
+		un_number: 'UN3480',
+		expected_arrival: '2026-12-20',
+		...overrides
+	};
 }
 
 const page = (id: string, cookie: string) => fetch(`${app.url}/lots/${id}/edit`, { headers: { cookie }, redirect: 'manual' });
@@ -46,15 +60,30 @@ describe('editing a lot before it reaches the bench', () => {
 		const res = await postForm(app.url, `/lots/${lot.id}/edit`, await editFields(), buyerCookie);
 		expect(res.status).toBe(303);
 		expect(res.headers.get('location')).toBe(`/lots/${lot.id}?edited=1`);
-		expect(await stored(lot.id)).toEqual({ po_number: 'KM-PO-EDIT-1', quantity: 250, declared_soc: 0.25, transport: 'sea', expected_arrival: '2026-12-20' });
-		const audit = await withClient(db.url, async (c) => (await c.query("select actor_email from audit_events where action = 'lot.update' and lot_id = $1", [lot.id])).rows);
+		expect(await stored(lot.id)).toEqual({
+			po_number: 'KM-PO-EDIT-1',
+			quantity: 250,
+			declared_soc: 0.25,
+			transport: 'sea',
+			expected_arrival: '2026-12-20'
+		});
+		const audit = await withClient(
+			db.url,
+			async (c) => (await c.query("select actor_email from audit_events where action = 'lot.update' and lot_id = $1", [lot.id])).rows
+		);
 		expect(audit).toEqual([{ actor_email: 'buyer@kestrel-mobility.example' }]);
 	});
 
 	it('refuses bad input with 400 and changes nothing', async () => {
 		const lot = await createLot(buyer, { partNumber: PART, quantity: 100, declaredSoc: 0.3 });
 		const before = await stored(lot.id);
-		const refused: Array<Record<string, string>> = [{ quantity: '0' }, { declared_soc_pct: '140' }, { transport: 'teleport' }, { un_number: 'UN34' }, { part_id: 'not-a-uuid' }];
+		const refused: Array<Record<string, string>> = [
+			{ quantity: '0' },
+			{ declared_soc_pct: '140' },
+			{ transport: 'teleport' },
+			{ un_number: 'UN34' },
+			{ part_id: 'not-a-uuid' }
+		];
 		for (const bad of refused) {
 			const res = await postForm(app.url, `/lots/${lot.id}/edit`, await editFields(bad), buyerCookie);
 			expect(res.status, JSON.stringify(bad)).toBe(400);
@@ -67,7 +96,9 @@ describe('editing a lot before it reaches the bench', () => {
 		expect((await page(lot.id, inspectorCookie)).status).toBe(403);
 		expect((await postForm(app.url, `/lots/${lot.id}/edit`, await editFields(), inspectorCookie)).status).toBe(403);
 
-		const saved = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', 2, 0.3, { prefix: 'ED' }) } });
+		const saved = await call(inspector, `/api/v1/lots/${lot.id}/readings`, {
+			body: { readings: modelReadings('NMC', 2, 0.3, { prefix: 'ED' }) }
+		});
 		expect(saved.status).toBe(201);
 		const before = await stored(lot.id);
 		expect((await page(lot.id, buyerCookie)).status).toBe(409);

@@ -49,7 +49,11 @@ afterAll(async () => {
 });
 
 type Who = keyof typeof tokens | null;
-async function call(who: Who, path: string, init: { method?: string; body?: unknown; raw?: BodyInit; headers?: Record<string, string> } = {}) {
+async function call(
+	who: Who,
+	path: string,
+	init: { method?: string; body?: unknown; raw?: BodyInit; headers?: Record<string, string> } = {}
+) {
 	const headers: Record<string, string> = { ...(who ? { authorization: `Bearer ${tokens[who]}` } : {}), ...init.headers };
 	let body: BodyInit | undefined = init.raw;
 	if (init.body !== undefined) {
@@ -84,8 +88,7 @@ const COUNTS = {
 	documents: 'select count(*) from documents',
 	audit: `select count(*) from audit_events where action like 'lot.%' or action like 'document.%'`
 } as const;
-const count = (what: keyof typeof COUNTS) =>
-	withClient(db.url, async (c) => Number((await c.query(COUNTS[what])).rows[0].count));
+const count = (what: keyof typeof COUNTS) => withClient(db.url, async (c) => Number((await c.query(COUNTS[what])).rows[0].count));
 const snapshot = async () => ({ lots: await count('lots'), documents: await count('documents'), audit: await count('audit') });
 
 async function createLot(overrides: Record<string, unknown> = {}) {
@@ -270,8 +273,14 @@ describe('GET /api/v1/lots (keyset pages) and /api/v1/lots/{id}', () => {
 		const mine = await createLot();
 		const theirs = await createLot({ supplier_id: ids.ferrolith, part_id: ids.fl100 });
 		const other = await createLot();
-		for (const [lot, unit] of [[mine, serial], [theirs, serial], [other, `${serial}-2`]]) {
-			const stored = await call('inspector', `/api/v1/lots/${lot.id}/readings`, { body: { readings: [{ serial: unit, ocv_v: 3.6, temperature_c: 22 }] } });
+		for (const [lot, unit] of [
+			[mine, serial],
+			[theirs, serial],
+			[other, `${serial}-2`]
+		]) {
+			const stored = await call('inspector', `/api/v1/lots/${lot.id}/readings`, {
+				body: { readings: [{ serial: unit, ocv_v: 3.6, temperature_c: 22 }] }
+			});
 			expect(stored.status, stored.text).toBe(201);
 		}
 		const lotIds = (res: { json: { lots: Array<{ id: string }> } }) => res.json.lots.map((l) => l.id);
@@ -386,7 +395,12 @@ describe('lot documents', () => {
 			['an empty file', () => upload('buyer', lot.id, 'coc', Buffer.alloc(0), 'empty.pdf'), 400, 'empty_file'],
 			['an unknown kind', () => upload('buyer', lot.id, 'invoice', pdf, 'x.pdf'), 422, 'unprocessable'],
 			['no kind', () => upload('buyer', lot.id, null, pdf, 'x.pdf'), 422, 'unprocessable'],
-			['no file', () => call('buyer', `/api/v1/lots/${lot.id}/documents`, { method: 'POST', raw: new FormData(), headers: sameOrigin() }), 422, 'unprocessable'],
+			[
+				'no file',
+				() => call('buyer', `/api/v1/lots/${lot.id}/documents`, { method: 'POST', raw: new FormData(), headers: sameOrigin() }),
+				422,
+				'unprocessable'
+			],
 			['a JSON body', () => call('buyer', `/api/v1/lots/${lot.id}/documents`, { body: { kind: 'coc' } }), 400, 'bad_request'],
 			['an inspector', () => upload('inspector', lot.id, 'coc', pdf, 'x.pdf'), 403, 'forbidden'],
 			['an unknown lot', () => upload('buyer', randomUUID(), 'coc', pdf, 'x.pdf'), 404, 'not_found']

@@ -41,7 +41,10 @@ async function callers(base: string) {
 }
 
 const noticeRows = (ids: string[]) =>
-	withClient(db.url, async (c) => (await c.query('select id, status, attempts, last_error, message_id from notices where id = any($1::uuid[])', [ids])).rows);
+	withClient(
+		db.url,
+		async (c) => (await c.query('select id, status, attempts, last_error, message_id from notices where id = any($1::uuid[])', [ids])).rows
+	);
 
 /** Wait until every notice is marked sent, then give the worker time to (wrongly) send again. */
 async function expectEachDeliveredOnce(ids: string[], peerUrl: string) {
@@ -134,10 +137,16 @@ describe('outbox faults', () => {
 				body: JSON.stringify(body)
 			}).then(async (r) => ({ status: r.status, json: await r.json() }));
 		// Each signer holds a signing challenge for the lot as it stands, then both sign at once.
-		const challenge = async (cookie: string, decision: 'accept' | 'reject') => (await post(cookie, '/decision/challenge', { decision })).json.challenge_id as string;
+		const challenge = async (cookie: string, decision: 'accept' | 'reject') =>
+			(await post(cookie, '/decision/challenge', { decision })).json.challenge_id as string;
 		const [firstChallenge, secondChallenge] = [await challenge(first, 'accept'), await challenge(second, 'reject')];
 		const override = (cookie: string, decision: 'accept' | 'reject', challengeId: string) =>
-			post(cookie, '/decision', { decision, reason: `Decided ${decision} in the concurrency test`, password: DEMO_PASSWORD, challenge_id: challengeId });
+			post(cookie, '/decision', {
+				decision,
+				reason: `Decided ${decision} in the concurrency test`,
+				password: DEMO_PASSWORD,
+				challenge_id: challengeId
+			});
 		const results = await Promise.all([override(first, 'accept', firstChallenge), override(second, 'reject', secondChallenge)]);
 		const statuses = results.map((r) => r.status).sort();
 		expect(statuses).toEqual([200, 409]);

@@ -32,24 +32,40 @@ afterAll(async () => {
 /** A lot with five NMC readings at 30 % SOC; returns it and its stored readings. */
 async function lotWithReadings() {
 	const lot = await createLot(buyer, { partNumber: PART, quantity: 100, declaredSoc: 0.3, documents: ['coc', 'un38_3_summary', 'sds'] });
-	const saved = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', 5, 0.3, { prefix: 'FX' }) } });
+	const saved = await call(inspector, `/api/v1/lots/${lot.id}/readings`, {
+		body: { readings: modelReadings('NMC', 5, 0.3, { prefix: 'FX' }) }
+	});
 	expect(saved.status).toBe(201);
 	const listed = await call(inspector, `/api/v1/lots/${lot.id}/readings`);
 	return { lot, readings: listed.json.readings as Array<{ id: number; serial: string; ocv_v: number; temperature_c: number }> };
 }
 
-const correct = (lotId: string, fields: Record<string, string>, cookie: string) => postForm(app.url, `/lots/${lotId}/inspect?/correct`, fields, cookie);
+const correct = (lotId: string, fields: Record<string, string>, cookie: string) =>
+	postForm(app.url, `/lots/${lotId}/inspect?/correct`, fields, cookie);
 
-const storedReading = (id: number) => withClient(db.url, async (c) => (await c.query('select ocv_v, temperature_c from readings where id = $1', [id])).rows[0]);
+const storedReading = (id: number) =>
+	withClient(db.url, async (c) => (await c.query('select ocv_v, temperature_c from readings where id = $1', [id])).rows[0]);
 
 describe('correcting a reading on the inspection page', () => {
 	it('stores the new value, records both values with the reason, and the evaluation follows', async () => {
 		const { lot, readings } = await lotWithReadings();
 		const target = readings[2];
-		const res = await correct(lot.id, { readingId: String(target.id), ocv_v: '2,000', temperature_c: '23.5', reason: 'meter read 2.000 V on re-check' }, inspectorCookie);
+		const res = await correct(
+			lot.id,
+			{ readingId: String(target.id), ocv_v: '2,000', temperature_c: '23.5', reason: 'meter read 2.000 V on re-check' },
+			inspectorCookie
+		);
 		expect(res.status).toBe(200);
 		expect(await storedReading(target.id)).toEqual({ ocv_v: 2, temperature_c: 23.5 });
-		const audit = await withClient(db.url, async (c) => (await c.query("select actor_email, details from audit_events where action = 'reading.corrected' and entity_id = $1", [String(target.id)])).rows);
+		const audit = await withClient(
+			db.url,
+			async (c) =>
+				(
+					await c.query("select actor_email, details from audit_events where action = 'reading.corrected' and entity_id = $1", [
+						String(target.id)
+					])
+				).rows
+		);
 		expect(audit).toHaveLength(1);
 		expect(audit[0].actor_email).toBe('inspector@kestrel-mobility.example');
 		expect(audit[0].details.reason).toBe('meter read 2.000 V on re-check');
@@ -81,9 +97,17 @@ describe('correcting a reading on the inspection page', () => {
 		const second = await lotWithReadings();
 		const foreign = second.readings[1];
 		const before = await storedReading(foreign.id);
-		const crossLot = await correct(first.lot.id, { readingId: String(foreign.id), ocv_v: '3.1', temperature_c: '22', reason: 'wrong lot' }, inspectorCookie);
+		const crossLot = await correct(
+			first.lot.id,
+			{ readingId: String(foreign.id), ocv_v: '3.1', temperature_c: '22', reason: 'wrong lot' },
+			inspectorCookie
+		);
 		expect(crossLot.status).toBe(404);
-		const asBuyer = await correct(second.lot.id, { readingId: String(foreign.id), ocv_v: '3.1', temperature_c: '22', reason: 'not my job' }, buyerCookie);
+		const asBuyer = await correct(
+			second.lot.id,
+			{ readingId: String(foreign.id), ocv_v: '3.1', temperature_c: '22', reason: 'not my job' },
+			buyerCookie
+		);
 		expect(asBuyer.status).toBe(403);
 		expect(await storedReading(foreign.id)).toEqual(before);
 	});

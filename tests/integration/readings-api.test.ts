@@ -175,7 +175,15 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 		expect(ev.inputs.model).toMatchObject({ chemistry: 'NMC' });
 		expect(ev.inputs.limits.ocv_min_v).toBeTypeOf('number');
 		expect(ev.inputs.lot.declared_soc).toBe(0.3);
-		const unitNumbers = ev.units.flatMap((u: Record<string, unknown>) => [u.soc, u.soc_sigma, u.soc_low, u.soc_high, u.ocv_at_25c_v, u.expected_ocv_v, u.residual_v]);
+		const unitNumbers = ev.units.flatMap((u: Record<string, unknown>) => [
+			u.soc,
+			u.soc_sigma,
+			u.soc_low,
+			u.soc_high,
+			u.ocv_at_25c_v,
+			u.expected_ocv_v,
+			u.residual_v
+		]);
 		expect(unitNumbers.every((x: unknown) => typeof x === 'number' && Math.abs(x * 1e6 - Math.round(x * 1e6)) < 1e-6)).toBe(true);
 	});
 
@@ -196,7 +204,9 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 		const declared = await sampleLot({ partNumber: 'FL-PR-100', quantity: 200, declaredSoc: 0.5, documents: [...LI_DOCS] });
 		// MIL-STD-105E Table I: 151–280 at level II → G; Table II-A: G at AQL 1.0 points down to H, n 50.
 		expect(declared.n).toBe(50);
-		await call(inspector, `/api/v1/lots/${declared.lot.id}/readings`, { body: { readings: modelReadings('LFP', declared.n, 0.5, { halfWidth: 0.05 }) } });
+		await call(inspector, `/api/v1/lots/${declared.lot.id}/readings`, {
+			body: { readings: modelReadings('LFP', declared.n, 0.5, { halfWidth: 0.05 }) }
+		});
 		const held = (await call(inspector, `/api/v1/lots/${declared.lot.id}/evaluation`)).json;
 		expect(held.status).toBe('hold');
 		expect(held.reasons.map((r: { code: string }) => r.code)).toContain('soc_indeterminate');
@@ -204,7 +214,9 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 		// The same part read on the steep low-SOC slope (declared and read at 8 %): the SOC is determinate,
 		// so no soc_indeterminate hold.
 		const steep = await sampleLot({ partNumber: 'FL-PR-100', quantity: 200, declaredSoc: 0.08, documents: [...LI_DOCS] });
-		await call(inspector, `/api/v1/lots/${steep.lot.id}/readings`, { body: { readings: modelReadings('LFP', steep.n, 0.08, { halfWidth: 0.005 }) } });
+		await call(inspector, `/api/v1/lots/${steep.lot.id}/readings`, {
+			body: { readings: modelReadings('LFP', steep.n, 0.08, { halfWidth: 0.005 }) }
+		});
 		const free = (await call(inspector, `/api/v1/lots/${steep.lot.id}/evaluation`)).json;
 		expect(free.reasons.map((r: { code: string }) => r.code)).not.toContain('soc_indeterminate');
 		expect(free.status).toBe('accept');
@@ -215,7 +227,9 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 		await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', n, 0.3) } });
 		const submitted = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
 		expect(submitted.status).toBeLessThan(300);
-		const late = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', 1, 0.3, { prefix: 'LATE' }) } });
+		const late = await call(inspector, `/api/v1/lots/${lot.id}/readings`, {
+			body: { readings: modelReadings('NMC', 1, 0.3, { prefix: 'LATE' }) }
+		});
 		expect(late.status).toBe(409);
 		expect(await readingCount(lot.id)).toBe(n);
 	});
@@ -226,10 +240,16 @@ describe('GET /api/v1/sampling/plan', () => {
 	// normal/tightened/reduced), identical to ISO 2859-1:1999. Cells cross-checked against the inspection
 	// core's own unit tests (an independent copy of the tables), otherwise from memory.
 	const cases: Array<[string, Record<string, unknown>]> = [
-		['lot_size=500&aql=1&level=II', { code_letter: 'H', plan_code_letter: 'H', sample_size: 50, accept: 1, reject: 2, hundred_percent: false }],
+		[
+			'lot_size=500&aql=1&level=II',
+			{ code_letter: 'H', plan_code_letter: 'H', sample_size: 50, accept: 1, reject: 2, hundred_percent: false }
+		],
 		['lot_size=500&aql=2.5', { code_letter: 'H', plan_code_letter: 'H', sample_size: 50, accept: 3, reject: 4, hundred_percent: false }],
 		// II-A arrow down: H at AQL 0.65 → J, n 80, Ac 1 Re 2
-		['lot_size=400&aql=0.65&level=II', { code_letter: 'H', plan_code_letter: 'J', sample_size: 80, accept: 1, reject: 2, hundred_percent: false }],
+		[
+			'lot_size=400&aql=0.65&level=II',
+			{ code_letter: 'H', plan_code_letter: 'J', sample_size: 80, accept: 1, reject: 2, hundred_percent: false }
+		],
 		// II-A arrow down from G at AQL 1.0 → H, n 50, Ac 1 Re 2
 		['lot_size=200&aql=1.0&level=II&severity=normal', { code_letter: 'G', plan_code_letter: 'H', sample_size: 50, accept: 1, reject: 2 }],
 		// Lot of 5: letter A; at AQL 1.0 the arrow leads to E (n 13, Ac 0 Re 1) which exceeds the lot → 100 %.
@@ -246,7 +266,14 @@ describe('GET /api/v1/sampling/plan', () => {
 	}
 
 	it('answers 400 on a bad query', async () => {
-		for (const q of ['lot_size=abc&aql=1', 'lot_size=500&aql=0.3', 'lot_size=500&aql=1&level=IV', 'lot_size=-4&aql=1', 'aql=1', 'lot_size=500&aql=1&severity=lenient']) {
+		for (const q of [
+			'lot_size=abc&aql=1',
+			'lot_size=500&aql=0.3',
+			'lot_size=500&aql=1&level=IV',
+			'lot_size=-4&aql=1',
+			'aql=1',
+			'lot_size=500&aql=1&severity=lenient'
+		]) {
 			const res = await call(inspector, `/api/v1/sampling/plan?${q}`);
 			expect(res.status, q).toBe(400);
 			expect(res.json.error.code).toBe('bad_request');
@@ -258,7 +285,10 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 	const csvOf = (rows: ReturnType<typeof modelReadings>, mv = false) =>
 		`Serial;OCV (${mv ? 'mV' : 'V'});Temp (°C);ACIR (mΩ);Time\r\n` +
 		rows
-			.map((r, i) => `${r.serial};${(mv ? r.ocv_v * 1000 : r.ocv_v).toFixed(mv ? 1 : 4).replace('.', ',')};25,0;${(18 + (i % 5) * 0.1).toFixed(1).replace('.', ',')};2026-03-02 09:${String(i % 60).padStart(2, '0')}:00`)
+			.map(
+				(r, i) =>
+					`${r.serial};${(mv ? r.ocv_v * 1000 : r.ocv_v).toFixed(mv ? 1 : 4).replace('.', ',')};25,0;${(18 + (i % 5) * 0.1).toFixed(1).replace('.', ',')};2026-03-02 09:${String(i % 60).padStart(2, '0')}:00`
+			)
 			.join('\r\n');
 	const upload = (lotId: string, name: string, bytes: Uint8Array | string, mapping?: unknown, preview = false) => {
 		const form = new FormData();
@@ -272,7 +302,15 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 		const csv = csvOf(modelReadings('NMC', 4, 0.3), true) + '\r\nSN-X;abc;25;18;2026-03-02 10:00:00\r\n';
 		const res = await upload(lot.id, 'meter.csv', csv, undefined, true);
 		expect(res.status).toBe(200);
-		expect(res.json.guessed_mapping).toMatchObject({ serial: 0, ocv: 1, ocv_unit: 'mV', temperature: 2, ac_resistance: 3, time: 4, first_row: 1 });
+		expect(res.json.guessed_mapping).toMatchObject({
+			serial: 0,
+			ocv: 1,
+			ocv_unit: 'mV',
+			temperature: 2,
+			ac_resistance: 3,
+			time: 4,
+			first_row: 1
+		});
 		expect(res.json.valid_rows).toBe(4);
 		expect(res.json.errors).toEqual([{ row: 6, column: 'OCV', message: '“abc” is not a number' }]);
 		expect(res.json.rows[0].ocv_v).toBeGreaterThan(3.5);
@@ -295,7 +333,12 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 		expect(again.json.inserted).toBe(0);
 		expect(again.json.already_imported_at).toMatch(/^\d{4}-\d{2}-\d{2}T/);
 		expect(await readingCount(lot.id)).toBe(20);
-		const rows = await withClient(db.url, async (c) => (await c.query('select source, import_id, ac_resistance_mohm from readings where lot_id = $1 order by id limit 1', [lot.id])).rows[0]);
+		const rows = await withClient(
+			db.url,
+			async (c) =>
+				(await c.query('select source, import_id, ac_resistance_mohm from readings where lot_id = $1 order by id limit 1', [lot.id]))
+					.rows[0]
+		);
 		expect(rows.source).toBe('import');
 		expect(rows.import_id).not.toBeNull();
 		expect(rows.ac_resistance_mohm).toBeCloseTo(18, 6);
@@ -316,7 +359,9 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 
 	it('refuses a CSV whose quoting is broken, naming the row, and stores nothing', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
-		const csv = csvOf(modelReadings('NMC', 3, 0.3)) + '\r\n"SN-OPEN;3,61;25,0;18,0;2026-03-02 10:00:00\r\nSN-NEXT;3,62;25,0;18,0;2026-03-02 10:01:00\r\n';
+		const csv =
+			csvOf(modelReadings('NMC', 3, 0.3)) +
+			'\r\n"SN-OPEN;3,61;25,0;18,0;2026-03-02 10:00:00\r\nSN-NEXT;3,62;25,0;18,0;2026-03-02 10:01:00\r\n';
 		const mapping = { serial: 0, ocv: 1, ocv_unit: 'V', temperature: 2, ac_resistance: 3, time: 4, first_row: 1, skip_invalid: true };
 		const refused = await upload(lot.id, 'broken.csv', csv, mapping);
 		expect(refused.status).toBe(422);
@@ -329,7 +374,9 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
 		const rows = modelReadings('NMC', 12, 0.3);
 		const wb = await XlsxPopulate.fromBlankAsync();
-		wb.sheet(0)!.range(1, 1, rows.length + 1, 3).value([['Serial number', 'Voltage (V)', 'Temperature °C'], ...rows.map((r) => [r.serial, r.ocv_v, 24.5])]);
+		wb.sheet(0)!
+			.range(1, 1, rows.length + 1, 3)
+			.value([['Serial number', 'Voltage (V)', 'Temperature °C'], ...rows.map((r) => [r.serial, r.ocv_v, 24.5])]);
 		const bytes = new Uint8Array(await wb.outputAsync());
 		const preview = await upload(lot.id, 'meter.xlsx', bytes, undefined, true);
 		expect(preview.status).toBe(200);

@@ -16,8 +16,7 @@ export async function call(c: Caller, path: string, init: { method?: string; bod
 	if (init.form) {
 		body = init.form;
 		headers.origin = c.base;
-	}
-	else if (init.body !== undefined) {
+	} else if (init.body !== undefined) {
 		headers['content-type'] = 'application/json';
 		body = typeof init.body === 'string' ? init.body : JSON.stringify(init.body);
 	}
@@ -81,7 +80,12 @@ export async function createLot(buyer: Caller, spec: LotSpec): Promise<{ id: str
  * n readings of `cells` cells in series at SOC values spread evenly over soc ± halfWidth, at 25 °C,
  * from the library model's forward curve (deterministic: no random numbers).
  */
-export function modelReadings(chemistry: ChemistryCode, n: number, soc: number, opts: { cells?: number; halfWidth?: number; prefix?: string; temperatureC?: number } = {}) {
+export function modelReadings(
+	chemistry: ChemistryCode,
+	n: number,
+	soc: number,
+	opts: { cells?: number; halfWidth?: number; prefix?: string; temperatureC?: number } = {}
+) {
 	const model = getLibraryModel(chemistry);
 	const half = opts.halfWidth ?? 0.01;
 	const t = opts.temperatureC ?? 25;

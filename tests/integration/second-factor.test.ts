@@ -84,7 +84,12 @@ async function startEnrolment(base: string, cookie: string): Promise<{ secret: s
 /** Enrol a person completely through the forms (with the code of now + `stepsAhead` steps); returns the secret. */
 async function enrol(base: string, cookie: string, stepsAhead = 0): Promise<string> {
 	const { secret } = await startEnrolment(base, cookie);
-	const confirm = await postForm(base, '/account/security?/confirm', { password: DEMO_PASSWORD, code: totpCode(secret, stepsAhead) }, cookie);
+	const confirm = await postForm(
+		base,
+		'/account/security?/confirm',
+		{ password: DEMO_PASSWORD, code: totpCode(secret, stepsAhead) },
+		cookie
+	);
 	expect(confirm.status, await confirm.clone().text()).toBe(303);
 	return secret;
 }
@@ -93,7 +98,9 @@ async function enrol(base: string, cookie: string, stepsAhead = 0): Promise<stri
 function wrongCode(secret: string): string {
 	const valid = new Set([-1, 0, 1].map((s) => totpCode(secret, s)));
 	for (let n = 0; ; n++) {
-		const code = String(123456 + n * 7919).padStart(6, '0').slice(-6);
+		const code = String(123456 + n * 7919)
+			.padStart(6, '0')
+			.slice(-6);
 		if (!valid.has(code)) return code;
 	}
 }
@@ -274,7 +281,12 @@ describe('turning it off', () => {
 		const offCode = totpCode(secret, 1);
 		const otherSession = await signInApiWithCode(app.url, ADMIN, signInCode);
 
-		const wrongPassword = await postForm(app.url, '/account/security?/turnOff', { password: 'not-my-password', code: totpCode(secret, 1) }, cookie);
+		const wrongPassword = await postForm(
+			app.url,
+			'/account/security?/turnOff',
+			{ password: 'not-my-password', code: totpCode(secret, 1) },
+			cookie
+		);
 		expect(wrongPassword.status).toBe(400);
 		const wrongPasswordHtml = await wrongPassword.text();
 		expect(wrongPasswordHtml).toContain('That password and code do not match.');

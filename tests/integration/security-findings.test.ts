@@ -73,7 +73,9 @@ describe('links in e-mails come from the configured origin only', () => {
 	it('a supplier sign-in link asked for with a forged Host and X-Forwarded-Host points at the app', async () => {
 		const since = Date.now() - 1000;
 		expect(await postWithHost('/signin?/link', { email: SUPPLIER, redirectTo: '/portal' }, 'attacker.example')).toBe(303);
-		const [mail] = await waitForMail((m) => m.envelope.to.includes(SUPPLIER) && m.subject.includes('sign-in link') && Number(m.id.split('-')[0]) >= since);
+		const [mail] = await waitForMail(
+			(m) => m.envelope.to.includes(SUPPLIER) && m.subject.includes('sign-in link') && Number(m.id.split('-')[0]) >= since
+		);
 		const links = mail.text.match(/https?:\/\/\S+/g) ?? [];
 		expect(links.length).toBeGreaterThan(0);
 		for (const link of links) expect(new URL(link).origin).toBe(app.url);
@@ -85,7 +87,9 @@ describe('links in e-mails come from the configured origin only', () => {
 	it('a password-reset link asked for with forged host headers points at the app', async () => {
 		const since = Date.now() - 1000;
 		expect(await postWithHost('/signin/forgot', { email: INSPECTOR }, 'attacker.example')).toBe(200);
-		const [mail] = await waitForMail((m) => m.envelope.to.includes(INSPECTOR) && m.subject.includes('Reset') && Number(m.id.split('-')[0]) >= since);
+		const [mail] = await waitForMail(
+			(m) => m.envelope.to.includes(INSPECTOR) && m.subject.includes('Reset') && Number(m.id.split('-')[0]) >= since
+		);
 		expect(mail.text).not.toContain('attacker.example');
 		expect(mail.text).toContain(`${app.url}/signin/reset/`);
 	});
@@ -126,7 +130,11 @@ describe('throttles hold under concurrency', () => {
 		const cookie = await signInApi(app.url, QUALITY);
 		const [held] = await sql<{ id: string }>(`select id from lots where status = 'on_hold' limit 1`);
 		const headers = { cookie, origin: app.url, 'content-type': 'application/json' };
-		const issued = await fetch(`${app.url}/api/v1/lots/${held.id}/decision/challenge`, { method: 'POST', headers, body: JSON.stringify({ decision: 'reject' }) });
+		const issued = await fetch(`${app.url}/api/v1/lots/${held.id}/decision/challenge`, {
+			method: 'POST',
+			headers,
+			body: JSON.stringify({ decision: 'reject' })
+		});
 		expect(issued.status).toBe(201);
 		const { challenge_id } = await issued.json();
 		const sign = (i: number) =>
@@ -156,7 +164,9 @@ describe('sessions end on the server', () => {
 		expect((await me(target)).status).toBe(200);
 		const since = Date.now() - 1000;
 		await postForm(app.url, '/signin/forgot', { email: who });
-		const [mail] = await waitForMail((m) => m.envelope.to.includes(who) && m.subject.includes('Reset') && Number(m.id.split('-')[0]) >= since);
+		const [mail] = await waitForMail(
+			(m) => m.envelope.to.includes(who) && m.subject.includes('Reset') && Number(m.id.split('-')[0]) >= since
+		);
 		const token = /\/signin\/reset\/([\w-]+)/.exec(mail.text)![1];
 		const fresh = 'a different password 2026';
 		expect((await postForm(app.url, `/signin/reset/${token}`, { password: fresh, confirm: fresh })).status).toBe(303);
@@ -181,7 +191,9 @@ describe('sessions end on the server', () => {
 		const lifetime = await signInApi(app.url, INSPECTOR);
 		const idle = await signInApi(app.url, BUYER);
 		expect((await me(lifetime)).status).toBe(200);
-		const sessionIds = await sql<{ id: string; user_id: string }>('select id, user_id from user_sessions where ended_at is null order by created_at desc limit 2');
+		const sessionIds = await sql<{ id: string; user_id: string }>(
+			'select id, user_id from user_sessions where ended_at is null order by created_at desc limit 2'
+		);
 		expect(sessionIds).toHaveLength(2);
 		const [newest, older] = sessionIds;
 		await sql(`update user_sessions set expires_at = now() - interval '1 second' where id = $1`, [older.id]);
@@ -211,7 +223,9 @@ describe('every state-changing request is origin-checked', () => {
 		expect((await forged.json()).error.code).toBe('cross_site');
 		const noOrigin = await fetch(`${app.url}/api/v1/models/${model}/approve`, { method: 'POST', headers: { cookie } });
 		expect(noOrigin.status).toBe(403);
-		expect((await sql<{ approved_at: Date | null }>('select approved_at from ocv_models where id = $1', [model]))[0].approved_at).toBeNull();
+		expect(
+			(await sql<{ approved_at: Date | null }>('select approved_at from ocv_models where id = $1', [model]))[0].approved_at
+		).toBeNull();
 		const sameSite = await fetch(`${app.url}/api/v1/models/${model}/approve`, { method: 'POST', headers: { cookie, origin: app.url } });
 		expect(sameSite.status).not.toBe(403);
 	});
@@ -246,7 +260,13 @@ describe('answers take the same time whether or not the account exists', () => {
 	}
 
 	const cases: Array<[string, string, (email: string) => Record<string, string>, string, string]> = [
-		['password sign-in', '/signin?/password', (email) => ({ email, password: 'not-the-password', redirectTo: '/' }), QUALITY, 'nobody@kestrel-mobility.example'],
+		[
+			'password sign-in',
+			'/signin?/password',
+			(email) => ({ email, password: 'not-the-password', redirectTo: '/' }),
+			QUALITY,
+			'nobody@kestrel-mobility.example'
+		],
 		['sign-in link', '/signin?/link', (email) => ({ email, redirectTo: '/portal' }), SUPPLIER, 'nobody@voltaria-cells.example'],
 		['password reset', '/signin/forgot', (email) => ({ email }), BUYER, 'nobody-else@kestrel-mobility.example']
 	];

@@ -51,7 +51,11 @@ describe('headers', () => {
 
 describe('session cookies', () => {
 	it('are HttpOnly and SameSite=Lax on plain http (local use)', async () => {
-		const res = await postForm(app.url, '/signin?/password', { email: 'buyer@kestrel-mobility.example', password: DEMO_PASSWORD, redirectTo: '/' });
+		const res = await postForm(app.url, '/signin?/password', {
+			email: 'buyer@kestrel-mobility.example',
+			password: DEMO_PASSWORD,
+			redirectTo: '/'
+		});
 		expect(res.status).toBe(303);
 		const cookie = sessionCookie(res);
 		expect(cookie).toBeDefined();
@@ -92,7 +96,8 @@ describe('cross-site checks and API tokens', () => {
 		form.set('file', new Blob([Buffer.from('%PDF-1.4\n%restvolt test\n')], { type: 'application/pdf' }), 'note.pdf');
 		return fetch(`${app.url}/api/v1/lots/${lotId}/documents`, { method: 'POST', headers, body: form });
 	};
-	const anyLot = () => withClient(db.url, async (c) => (await c.query(`select id from lots where status = 'draft' limit 1`)).rows[0].id as string);
+	const anyLot = () =>
+		withClient(db.url, async (c) => (await c.query(`select id from lots where status = 'draft' limit 1`)).rows[0].id as string);
 
 	it('a multipart upload authenticated by a bearer token needs no Origin header', async () => {
 		const token = await tokenFor(db.url, 'buyer@kestrel-mobility.example');
@@ -102,8 +107,12 @@ describe('cross-site checks and API tokens', () => {
 	});
 
 	it('the same upload riding on cookies from another site is refused', async () => {
-		const cookie = (await postForm(app.url, '/signin?/password', { email: 'buyer@kestrel-mobility.example', password: DEMO_PASSWORD, redirectTo: '/' }))
-			.headers.getSetCookie().map((c) => c.split(';')[0]).join('; ');
+		const cookie = (
+			await postForm(app.url, '/signin?/password', { email: 'buyer@kestrel-mobility.example', password: DEMO_PASSWORD, redirectTo: '/' })
+		).headers
+			.getSetCookie()
+			.map((c) => c.split(';')[0])
+			.join('; ');
 		const res = await upload(await anyLot(), { cookie, origin: 'https://evil.example' });
 		expect(res.status).toBe(403);
 		expect(await res.text()).toMatch(/Cross-site POST requests are forbidden/);

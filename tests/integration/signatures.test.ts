@@ -38,7 +38,10 @@ afterAll(async () => {
 	await db?.drop();
 });
 
-type Answer = { status: number; json: { error?: { code: string; message: string; issues?: { path: string }[] } } & Record<string, unknown> };
+type Answer = {
+	status: number;
+	json: { error?: { code: string; message: string; issues?: { path: string }[] } } & Record<string, unknown>;
+};
 
 async function post(path: string, body: unknown, cookie = qualityCookie): Promise<Answer> {
 	const res = await fetch(`${app.url}/api/v1${path}`, {
@@ -49,7 +52,8 @@ async function post(path: string, body: unknown, cookie = qualityCookie): Promis
 	return { status: res.status, json: await res.json() };
 }
 
-const challenge = (lotId: string, decision: string, cookie = qualityCookie) => post(`/lots/${lotId}/decision/challenge`, { decision }, cookie);
+const challenge = (lotId: string, decision: string, cookie = qualityCookie) =>
+	post(`/lots/${lotId}/decision/challenge`, { decision }, cookie);
 const sign = (lotId: string, body: Record<string, unknown>, cookie = qualityCookie) => post(`/lots/${lotId}/decision`, body, cookie);
 
 /** A lot of Voltaria's held by the engine (the UN 38.3 summary is missing). */
@@ -66,15 +70,25 @@ const lotState = (id: string) =>
 		overrides: (await c.query(`select count(*)::int as n from decisions where lot_id = $1 and kind = 'override'`, [id])).rows[0].n as number
 	}));
 
-const challengeRow = (id: string) => withClient(db.url, async (c) => (await c.query('select * from signature_challenges where id = $1', [id])).rows[0]);
+const challengeRow = (id: string) =>
+	withClient(db.url, async (c) => (await c.query('select * from signature_challenges where id = $1', [id])).rows[0]);
 
 describe('signing challenges', () => {
 	it('are issued to an interactive quality session for a held lot only, bound to its revision', async () => {
 		const lot = await heldLot();
 		const issued = await challenge(lot.id, 'accept');
 		expect(issued.status).toBe(201);
-		const revision = await withClient(db.url, async (c) => (await c.query('select revision from lots where id = $1', [lot.id])).rows[0].revision);
-		expect(issued.json).toMatchObject({ lot_id: lot.id, lot_code: lot.lot_code, revision, decision: 'accept', meaning: 'release of a held lot' });
+		const revision = await withClient(
+			db.url,
+			async (c) => (await c.query('select revision from lots where id = $1', [lot.id])).rows[0].revision
+		);
+		expect(issued.json).toMatchObject({
+			lot_id: lot.id,
+			lot_code: lot.lot_code,
+			revision,
+			decision: 'accept',
+			meaning: 'release of a held lot'
+		});
 		expect(Date.parse(String(issued.json.expires_at))).toBeGreaterThan(Date.now());
 		const row = await challengeRow(String(issued.json.challenge_id));
 		expect(row.used_at).toBeNull();
@@ -102,7 +116,12 @@ describe('replays and stale challenges are refused', () => {
 	it('a signed body replayed on another held lot is refused, before and after it was used', async () => {
 		const [first, second] = [await heldLot(), await heldLot()];
 		const issued = await challenge(first.id, 'accept');
-		const body = { decision: 'accept', reason: 'UN 38.3 summary received by mail and checked', password: DEMO_PASSWORD, challenge_id: issued.json.challenge_id };
+		const body = {
+			decision: 'accept',
+			reason: 'UN 38.3 summary received by mail and checked',
+			password: DEMO_PASSWORD,
+			challenge_id: issued.json.challenge_id
+		};
 		const early = await sign(second.id, body);
 		expect(early.status).toBe(422);
 		expect(early.json.error!.code).toBe('challenge_wrong_lot');
@@ -136,7 +155,11 @@ describe('replays and stale challenges are refused', () => {
 		// The missing summary arrives while the quality manager is reading the lot: its revision moves on.
 		const form = new FormData();
 		form.set('kind', 'un38_3_summary');
-		form.set('file', new Blob([new TextEncoder().encode(`%PDF-1.4\n% summary ${lot.id}\n%%EOF\n`)], { type: 'application/pdf' }), 'un38_3.pdf');
+		form.set(
+			'file',
+			new Blob([new TextEncoder().encode(`%PDF-1.4\n% summary ${lot.id}\n%%EOF\n`)], { type: 'application/pdf' }),
+			'un38_3.pdf'
+		);
 		expect((await call(buyer, `/api/v1/lots/${lot.id}/documents`, { form })).status).toBe(201);
 		const body = { decision: 'accept', reason: 'Summary received and checked', password: DEMO_PASSWORD };
 		const stale = await sign(lot.id, { ...body, challenge_id: issued.json.challenge_id });
@@ -159,7 +182,10 @@ describe('replays and stale challenges are refused', () => {
 
 		const expired = await challenge(lot.id, 'accept');
 		await withClient(db.url, (c) =>
-			c.query(`update signature_challenges set issued_at = now() - interval '2 hours', expires_at = now() - interval '1 hour' where id = $1`, [expired.json.challenge_id])
+			c.query(
+				`update signature_challenges set issued_at = now() - interval '2 hours', expires_at = now() - interval '1 hour' where id = $1`,
+				[expired.json.challenge_id]
+			)
 		);
 		const late = await sign(lot.id, { ...body, challenge_id: expired.json.challenge_id });
 		expect(late.status).toBe(409);
@@ -199,7 +225,14 @@ describe('the stored manifest', () => {
 		});
 		expect(m.signer_name).toBeTruthy();
 		expect(Date.parse(m.signed_at)).toBeGreaterThanOrEqual(before - 1000);
-		expect(m.signed).toEqual({ lot_id: lot.id, lot_code: lotRow.lot_code, revision: issued.json.revision, decision: 'accept', reason, evaluation_id: evaluationId });
+		expect(m.signed).toEqual({
+			lot_id: lot.id,
+			lot_code: lotRow.lot_code,
+			revision: issued.json.revision,
+			decision: 'accept',
+			reason,
+			evaluation_id: evaluationId
+		});
 		// The decision itself moved the lot on by one revision after the signed one.
 		expect(lotRow.revision).toBe(Number(issued.json.revision) + 1);
 		// Canonical JSON by hand: keys in code-unit order, no white space (RFC 8785 style).

@@ -12,7 +12,15 @@ import fc from 'fast-check';
 import { z } from 'zod';
 import { lotApiSchema, lotListQuerySchema } from '../../src/lib/schemas/lot';
 import { importMappingSchema, planQuerySchema, readingCorrectionSchema, readingSchema } from '../../src/lib/schemas/readings';
-import { cellPotentialBody, curvePoint, curveQuery, evaluateHeader, fitBody, modelListQuery, saveModelBody } from '../../src/lib/schemas/electrochem';
+import {
+	cellPotentialBody,
+	curvePoint,
+	curveQuery,
+	evaluateHeader,
+	fitBody,
+	modelListQuery,
+	saveModelBody
+} from '../../src/lib/schemas/electrochem';
 import { lotListExportQuery, noticesQuery, overrideRequestSchema } from '../../src/lib/schemas/decision';
 import { partListQuerySchema } from '../../src/lib/schemas/part';
 import type { SeedIds } from './hardening-fixtures';
@@ -43,7 +51,10 @@ export interface StrictEntry {
 export function fieldsOf(schema: z.ZodType, skip: string[] = []): StrictField[] {
 	type Node = { type?: string | string[]; anyOf?: Node[]; oneOf?: Node[]; properties?: Record<string, Node> };
 	const json = z.toJSONSchema(schema, { io: 'output', unrepresentable: 'any' }) as Node;
-	const types = (n: Node): string[] => [...(Array.isArray(n.type) ? n.type : n.type ? [n.type] : []), ...[...(n.anyOf ?? []), ...(n.oneOf ?? [])].flatMap(types)];
+	const types = (n: Node): string[] => [
+		...(Array.isArray(n.type) ? n.type : n.type ? [n.type] : []),
+		...[...(n.anyOf ?? []), ...(n.oneOf ?? [])].flatMap(types)
+	];
 	const fields: StrictField[] = [];
 	for (const [name, node] of Object.entries(json.properties ?? {})) {
 		if (skip.includes(name)) continue;
@@ -56,7 +67,21 @@ export function fieldsOf(schema: z.ZodType, skip: string[] = []): StrictField[] 
 }
 
 /** Refused in every text field, multi-line ones included (tab, LF and CR are allowed there). */
-const CONTROL = fc.constantFrom('\u0000', '\u0001', '\u0007', '\u0008', '\u000B', '\u000C', '\u001B', '\u001F', '\u007F', '\u0085', '\u009B', '\u202E', '\u2066');
+const CONTROL = fc.constantFrom(
+	'\u0000',
+	'\u0001',
+	'\u0007',
+	'\u0008',
+	'\u000B',
+	'\u000C',
+	'\u001B',
+	'\u001F',
+	'\u007F',
+	'\u0085',
+	'\u009B',
+	'\u202E',
+	'\u2066'
+);
 const NUMBER_TEXT = ['1e7', '1E3', '1,5', '12abc', '1e309', '0x10', '١٢', '', 'NaN', '3.6 V'];
 const WHOLE_RAW = ['1,5', '12abc', '1e309', '-1e400', 'NaN', 'Infinity', '25e-1', '1.5', '0x10', '1_000'];
 const NUMBER_RAW = ['1,5', '3,6', '12abc', '1e309', '-1e400', 'NaN', 'Infinity', '0x10', '3.6.1', '.5'];
@@ -67,13 +92,21 @@ export function strictFieldValue(kind: FieldKind, { query = false } = {}): fc.Ar
 	// means "not given" and `.5` is a plainly written number.
 	const texts = query ? NUMBER_TEXT.filter((t) => t !== '') : NUMBER_TEXT;
 	const raws = (kind === 'whole' ? WHOLE_RAW : NUMBER_RAW).filter((r) => !(query && r === '.5'));
-	return fc.oneof(fc.constantFrom(...texts).map((json): StrictValue => ({ json })), fc.constantFrom(...raws).map((raw): StrictValue => ({ raw })));
+	return fc.oneof(
+		fc.constantFrom(...texts).map((json): StrictValue => ({ json })),
+		fc.constantFrom(...raws).map((raw): StrictValue => ({ raw }))
+	);
 }
 
 const RAW_MARK = '__strict_raw_literal__';
 
 /** The template with one field spoilt; `wrap` places it in the body; raw literals replace a marker in the text. */
-function spoiltJson(template: Record<string, unknown>, field: string, value: StrictValue, wrap: (o: Record<string, unknown>) => unknown = (o) => o): string {
+function spoiltJson(
+	template: Record<string, unknown>,
+	field: string,
+	value: StrictValue,
+	wrap: (o: Record<string, unknown>) => unknown = (o) => o
+): string {
 	const copy: Record<string, unknown> = { ...template };
 	if (value.insert) {
 		const base = String(template[field] ?? 'x');
@@ -96,22 +129,45 @@ function queryValue(base: string | undefined, value: StrictValue): string {
 
 export function strictFieldEntries(ids: SeedIds): StrictEntry[] {
 	const A = ids.lotA;
-	const json = (path: string) => (template: Record<string, unknown>, wrap?: (o: Record<string, unknown>) => unknown) => (field: string, value: StrictValue) => ({
-		path,
-		contentType: 'application/json',
-		body: spoiltJson(template, field, value, wrap)
-	});
+	const json =
+		(path: string) =>
+		(template: Record<string, unknown>, wrap?: (o: Record<string, unknown>) => unknown) =>
+		(field: string, value: StrictValue) => ({
+			path,
+			contentType: 'application/json',
+			body: spoiltJson(template, field, value, wrap)
+		});
 	const top = (field: string) => [field];
 	const inside = (prefix: string) => (field: string) => [`${prefix}${field}`, field];
-	const body = (route: string, method: 'POST' | 'PATCH', who: StrictWho, fields: StrictField[], send: StrictEntry['send'], names = top): StrictEntry => ({ route, method, who, fields, send, names });
+	const body = (
+		route: string,
+		method: 'POST' | 'PATCH',
+		who: StrictWho,
+		fields: StrictField[],
+		send: StrictEntry['send'],
+		names = top
+	): StrictEntry => ({ route, method, who, fields, send, names });
 
-	const validRow = { serial: 'SN-STRICT-1', ocv_v: 3.6, temperature_c: 25, ac_resistance_mohm: 20, measured_at: new Date(Date.now() - 3_600_000).toISOString(), client_key: 'strict-key-0001' };
+	const validRow = {
+		serial: 'SN-STRICT-1',
+		ocv_v: 3.6,
+		temperature_c: 25,
+		ac_resistance_mohm: 20,
+		measured_at: new Date(Date.now() - 3_600_000).toISOString(),
+		client_key: 'strict-key-0001'
+	};
 	const points = [0.1, 0.2, 0.3, 0.5, 0.6, 0.7, 0.9].map((soc) => ({ soc, ocv_v: 3.4 + soc * 0.7 }));
 	const mapping = { serial: 0, ocv: 1, ocv_unit: 'V', temperature: 2, default_temperature_c: 25, ac_resistance: 3, time: 4, first_row: 1 };
 	const meterCsv = 'serial,ocv,temp,acr,time\nSN-STRICT-9,3.6,25,20,2025-05-01T10:00:00Z\n';
 
 	const queries: Array<[route: string, who: StrictWho, path: string, schema: z.ZodType, base: Record<string, string>]> = [
-		['lots', 'buyer', '/lots', lotListQuerySchema, { status: 'on_hold', supplier_id: ids.supplier.a, part_id: ids.partA, search: 'PO', serial: 'SN-1', cursor: 'abc' }],
+		[
+			'lots',
+			'buyer',
+			'/lots',
+			lotListQuerySchema,
+			{ status: 'on_hold', supplier_id: ids.supplier.a, part_id: ids.partA, search: 'PO', serial: 'SN-1', cursor: 'abc' }
+		],
 		['lots.xlsx', 'buyer', '/lots.xlsx', lotListExportQuery, { status: 'on_hold', supplier_id: ids.supplier.a }],
 		['parts', 'inspector', '/parts', partListQuerySchema, { supplier_id: ids.supplier.a, chemistry: 'NMC', search: 'VC' }],
 		['models', 'buyer', '/models', modelListQuery, { chemistry: 'NMC', status: 'approved' }],
@@ -121,14 +177,42 @@ export function strictFieldEntries(ids: SeedIds): StrictEntry[] {
 	];
 
 	return [
-		body('lots', 'POST', 'buyer', fieldsOf(lotApiSchema), json('/lots')({ po_number: 'PO-STRICT', supplier_id: ids.supplier.a, part_id: ids.partA, quantity: 100, declared_soc: 0.3, transport: 'road', un_number: 'UN3480', expected_arrival: '2026-05-01' })),
-		body('lots/[id=uuid]/readings', 'POST', 'inspector', fieldsOf(readingSchema), json(`/lots/${A.in_inspection}/readings`)(validRow, (row) => ({ readings: [validRow, row] })), inside('readings.1.')),
+		body(
+			'lots',
+			'POST',
+			'buyer',
+			fieldsOf(lotApiSchema),
+			json('/lots')({
+				po_number: 'PO-STRICT',
+				supplier_id: ids.supplier.a,
+				part_id: ids.partA,
+				quantity: 100,
+				declared_soc: 0.3,
+				transport: 'road',
+				un_number: 'UN3480',
+				expected_arrival: '2026-05-01'
+			})
+		),
+		body(
+			'lots/[id=uuid]/readings',
+			'POST',
+			'inspector',
+			fieldsOf(readingSchema),
+			json(`/lots/${A.in_inspection}/readings`)(validRow, (row) => ({ readings: [validRow, row] })),
+			inside('readings.1.')
+		),
 		body(
 			'lots/[id=uuid]/readings/[readingId]',
 			'PATCH',
 			'inspector',
 			fieldsOf(readingCorrectionSchema),
-			json(`/lots/${A.accepted}/readings/${ids.readingOfAcceptedA}`)({ serial: 'SN-X', ocv_v: 3.61, temperature_c: 25, ac_resistance_mohm: 20, reason: 'typed wrongly' })
+			json(`/lots/${A.accepted}/readings/${ids.readingOfAcceptedA}`)({
+				serial: 'SN-X',
+				ocv_v: 3.61,
+				temperature_c: 25,
+				ac_resistance_mohm: 20,
+				reason: 'typed wrongly'
+			})
 		),
 		// The password is a secret, compared and never stored: any character may be in it.
 		body(
@@ -136,10 +220,33 @@ export function strictFieldEntries(ids: SeedIds): StrictEntry[] {
 			'POST',
 			'qualitySession',
 			fieldsOf(overrideRequestSchema, ['password']),
-			json(`/lots/${A.on_hold}/decision`)({ decision: 'accept', reason: 'Released after review', password: 'not-the-password', challenge_id: '00000000-0000-4000-8000-000000000000' })
+			json(`/lots/${A.on_hold}/decision`)({
+				decision: 'accept',
+				reason: 'Released after review',
+				password: 'not-the-password',
+				challenge_id: '00000000-0000-4000-8000-000000000000'
+			})
 		),
-		body('electrochem/cell-potential', 'POST', 'buyer', fieldsOf(cellPotentialBody), json('/electrochem/cell-potential')({ e0_v: 1.1, n: 2, temperature_c: 25, q: 1 })),
-		body('ocv/evaluate', 'POST', 'inspector', fieldsOf(evaluateHeader), json('/ocv/evaluate')({ chemistry: 'NMC', cells_in_series: 1, declared_soc: 0.3, meter_accuracy_v: 0.001, readings: [{ ocv_v: 3.6, temperature_c: 25 }] })),
+		body(
+			'electrochem/cell-potential',
+			'POST',
+			'buyer',
+			fieldsOf(cellPotentialBody),
+			json('/electrochem/cell-potential')({ e0_v: 1.1, n: 2, temperature_c: 25, q: 1 })
+		),
+		body(
+			'ocv/evaluate',
+			'POST',
+			'inspector',
+			fieldsOf(evaluateHeader),
+			json('/ocv/evaluate')({
+				chemistry: 'NMC',
+				cells_in_series: 1,
+				declared_soc: 0.3,
+				meter_accuracy_v: 0.001,
+				readings: [{ ocv_v: 3.6, temperature_c: 25 }]
+			})
+		),
 		// The readings of /ocv/evaluate are checked by a loop, not zod (schemas/electrochem.ts): listed here by hand.
 		body(
 			'ocv/evaluate',
@@ -149,12 +256,28 @@ export function strictFieldEntries(ids: SeedIds): StrictEntry[] {
 				{ name: 'ocv_v', kind: 'number' },
 				{ name: 'temperature_c', kind: 'number' }
 			],
-			json('/ocv/evaluate')({ ocv_v: 3.6, temperature_c: 25 }, (r) => ({ chemistry: 'NMC', readings: [{ ocv_v: 3.6, temperature_c: 25 }, r] })),
+			json('/ocv/evaluate')({ ocv_v: 3.6, temperature_c: 25 }, (r) => ({
+				chemistry: 'NMC',
+				readings: [{ ocv_v: 3.6, temperature_c: 25 }, r]
+			})),
 			inside('readings.1.')
 		),
 		body('ocv/fit', 'POST', 'quality', fieldsOf(fitBody), json('/ocv/fit')({ chemistry: 'NMC', temperature_c: 25, points })),
-		body('ocv/fit', 'POST', 'quality', fieldsOf(curvePoint), json('/ocv/fit')(points[6], (p) => ({ chemistry: 'NMC', temperature_c: 25, points: [...points.slice(0, 6), p] })), inside('points.6.')),
-		body('models', 'POST', 'quality', fieldsOf(saveModelBody), json('/models')({ chemistry: 'NMC', temperature_c: 25, points, label: 'strict input' })),
+		body(
+			'ocv/fit',
+			'POST',
+			'quality',
+			fieldsOf(curvePoint),
+			json('/ocv/fit')(points[6], (p) => ({ chemistry: 'NMC', temperature_c: 25, points: [...points.slice(0, 6), p] })),
+			inside('points.6.')
+		),
+		body(
+			'models',
+			'POST',
+			'quality',
+			fieldsOf(saveModelBody),
+			json('/models')({ chemistry: 'NMC', temperature_c: 25, points, label: 'strict input' })
+		),
 		{
 			route: 'lots/[id=uuid]/imports',
 			method: 'POST',

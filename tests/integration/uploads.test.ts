@@ -37,7 +37,10 @@ async function supplierSession(email: string): Promise<string> {
 beforeAll(async () => {
 	db = await freshDatabase('uploads');
 	app = await startApp({ databaseUrl: db.url });
-	[buyerToken, inspectorToken] = await Promise.all([tokenFor(db.url, 'buyer@kestrel-mobility.example'), tokenFor(db.url, 'inspector@kestrel-mobility.example')]);
+	[buyerToken, inspectorToken] = await Promise.all([
+		tokenFor(db.url, 'buyer@kestrel-mobility.example'),
+		tokenFor(db.url, 'inspector@kestrel-mobility.example')
+	]);
 	supplierCookie = await supplierSession('supplier@voltaria-cells.example');
 	await withClient(db.url, async (c) => {
 		const supplier = (await c.query('select id from organisations where name = $1', [VOLTARIA])).rows[0].id;
@@ -48,7 +51,9 @@ beforeAll(async () => {
 			[supplier]
 		);
 		target = { lotId: rows[0].lot_id, noticeId: rows[0].notice_id, cocId: rows[0].coc_id };
-		const lotIn = async (status: string) => (await c.query(`select id from lots where supplier_id = $1 and status = $2 order by created_at limit 1`, [supplier, status])).rows[0].id;
+		const lotIn = async (status: string) =>
+			(await c.query(`select id from lots where supplier_id = $1 and status = $2 order by created_at limit 1`, [supplier, status])).rows[0]
+				.id;
 		openLotId = await lotIn('awaiting_arrival');
 		benchLotId = await lotIn('in_inspection');
 	});
@@ -68,7 +73,11 @@ function fileForm(fields: Record<string, string>, file: { bytes: Uint8Array; nam
 
 /** POST multipart to the API with the buyer's (or another) token. */
 async function apiUpload(path: string, form: FormData, token = buyerToken) {
-	const res = await fetch(`${app.url}/api/v1${path}`, { method: 'POST', headers: { authorization: `Bearer ${token}`, origin: app.url }, body: form });
+	const res = await fetch(`${app.url}/api/v1${path}`, {
+		method: 'POST',
+		headers: { authorization: `Bearer ${token}`, origin: app.url },
+		body: form
+	});
 	return { status: res.status, json: await res.json() };
 }
 
@@ -83,15 +92,32 @@ async function reply(comment: string, file: { bytes: Uint8Array; name: string; t
 }
 
 const lotFiles = (lotId: string) =>
-	withClient(db.url, async (c) => (await c.query('select id, kind, file_name, mime, sha256, uploaded_by, uploaded_at from documents where lot_id = $1 order by uploaded_at, id', [lotId])).rows);
-const repliesTo = (noticeId: string) => withClient(db.url, async (c) => (await c.query('select * from notice_responses where notice_id = $1', [noticeId])).rows);
+	withClient(
+		db.url,
+		async (c) =>
+			(
+				await c.query(
+					'select id, kind, file_name, mime, sha256, uploaded_by, uploaded_at from documents where lot_id = $1 order by uploaded_at, id',
+					[lotId]
+				)
+			).rows
+	);
+const repliesTo = (noticeId: string) =>
+	withClient(db.url, async (c) => (await c.query('select * from notice_responses where notice_id = $1', [noticeId])).rows);
 const uploadAudits = (lotId: string) =>
-	withClient(db.url, async (c) => (await c.query(`select details from audit_events where lot_id = $1 and action = 'document.upload' order by id`, [lotId])).rows.map((r) => r.details));
+	withClient(db.url, async (c) =>
+		(await c.query(`select details from audit_events where lot_id = $1 and action = 'document.upload' order by id`, [lotId])).rows.map(
+			(r) => r.details
+		)
+	);
 
 describe('lot documents (POST /api/v1/lots/{id}/documents)', () => {
 	it('refuses the HTML page named ../../x.html with 415 naming the field file, and stores nothing', async () => {
 		const before = await lotFiles(openLotId);
-		const res = await apiUpload(`/lots/${openLotId}/documents`, fileForm({ kind: 'other' }, { bytes: HTML, name: '../../x.html', type: 'text/html' }));
+		const res = await apiUpload(
+			`/lots/${openLotId}/documents`,
+			fileForm({ kind: 'other' }, { bytes: HTML, name: '../../x.html', type: 'text/html' })
+		);
 		expect(res.status).toBe(415);
 		expect(res.json.error.code).toBe('unsupported_type');
 		expect(res.json.error.message).toMatch(/“x\.html” is an HTML page/);
@@ -101,13 +127,19 @@ describe('lot documents (POST /api/v1/lots/{id}/documents)', () => {
 
 	it('refuses a declared PDF that is really HTML, and an oversized file, storing nothing', async () => {
 		const before = await lotFiles(openLotId);
-		const disguised = await apiUpload(`/lots/${openLotId}/documents`, fileForm({ kind: 'coc' }, { bytes: HTML, name: 'coc.pdf', type: 'application/pdf' }));
+		const disguised = await apiUpload(
+			`/lots/${openLotId}/documents`,
+			fileForm({ kind: 'coc' }, { bytes: HTML, name: 'coc.pdf', type: 'application/pdf' })
+		);
 		expect(disguised.status).toBe(415);
 		expect(disguised.json.error.issues[0].path).toBe('file');
 		expect(disguised.json.error.message).toMatch(/HTML page/);
 		const big = new Uint8Array(20 * MB + 1);
 		big.set(pdf('large'));
-		const oversize = await apiUpload(`/lots/${openLotId}/documents`, fileForm({ kind: 'sds' }, { bytes: big, name: 'sds.pdf', type: 'application/pdf' }));
+		const oversize = await apiUpload(
+			`/lots/${openLotId}/documents`,
+			fileForm({ kind: 'sds' }, { bytes: big, name: 'sds.pdf', type: 'application/pdf' })
+		);
 		expect(oversize.status).toBe(413);
 		expect(oversize.json.error.code).toBe('file_too_large');
 		expect(oversize.json.error.issues[0].path).toBe('file');
@@ -115,12 +147,21 @@ describe('lot documents (POST /api/v1/lots/{id}/documents)', () => {
 	});
 
 	it('stores a PDF under its cleaned name with an audit entry, and serves it as an attachment', async () => {
-		const res = await apiUpload(`/lots/${openLotId}/documents`, fileForm({ kind: 'other' }, { bytes: pdf('route card'), name: '../../route\u202Ecard..pdf', type: 'application/pdf' }));
+		const res = await apiUpload(
+			`/lots/${openLotId}/documents`,
+			fileForm({ kind: 'other' }, { bytes: pdf('route card'), name: '../../route\u202Ecard..pdf', type: 'application/pdf' })
+		);
 		expect(res.status).toBe(201);
 		expect(res.json.file_name).toBe('routecard.pdf');
 		expect(res.json.mime).toBe('application/pdf');
-		expect((await uploadAudits(openLotId)).at(-1)).toMatchObject({ use: 'lot_document', fileName: 'routecard.pdf', sha256: res.json.sha256 });
-		const file = await fetch(`${app.url}/api/v1/lots/${openLotId}/documents/${res.json.id}`, { headers: { authorization: `Bearer ${buyerToken}` } });
+		expect((await uploadAudits(openLotId)).at(-1)).toMatchObject({
+			use: 'lot_document',
+			fileName: 'routecard.pdf',
+			sha256: res.json.sha256
+		});
+		const file = await fetch(`${app.url}/api/v1/lots/${openLotId}/documents/${res.json.id}`, {
+			headers: { authorization: `Bearer ${buyerToken}` }
+		});
 		expect(file.headers.get('content-type')).toBe('application/pdf');
 		expect(file.headers.get('content-disposition')).toMatch(/^attachment; filename="routecard\.pdf"/);
 		expect(file.headers.get('x-content-type-options')).toBe('nosniff');
@@ -152,7 +193,10 @@ describe('supplier replies (portal form action)', () => {
 
 	it('a reply with bytes identical to the buyer’s CoC links that document and leaves it exactly as it was', async () => {
 		const [coc] = (await lotFiles(target.lotId)).filter((d) => d.id === target.cocId);
-		const bytes = await withClient(db.url, async (c) => new Uint8Array((await c.query('select bytes from documents where id = $1', [target.cocId])).rows[0].bytes));
+		const bytes = await withClient(
+			db.url,
+			async (c) => new Uint8Array((await c.query('select bytes from documents where id = $1', [target.cocId])).rows[0].bytes)
+		);
 		const countBefore = (await lotFiles(target.lotId)).length;
 		const res = await reply('Here is the CoC again, as requested.', { bytes, name: 'renamed-by-supplier.pdf', type: 'application/pdf' });
 		expect(res).toMatchObject({ type: 'success' });
@@ -165,7 +209,11 @@ describe('supplier replies (portal form action)', () => {
 	});
 
 	it('stores a new reply file as a corrective action under a cleaned name, audited, downloadable by the supplier', async () => {
-		const res = await reply('Our 8D report is attached.', { bytes: pdf('8D report'), name: '../../8D report.pdf', type: 'application/pdf' });
+		const res = await reply('Our 8D report is attached.', {
+			bytes: pdf('8D report'),
+			name: '../../8D report.pdf',
+			type: 'application/pdf'
+		});
 		expect(res).toMatchObject({ type: 'success' });
 		const stored = (await lotFiles(target.lotId)).find((d) => d.kind === 'corrective_action' && d.file_name === '8D report.pdf');
 		expect(stored).toBeDefined();
@@ -179,19 +227,27 @@ describe('supplier replies (portal form action)', () => {
 
 describe('stored files', () => {
 	it('cannot be changed in the database, not even by a superuser statement', async () => {
-		await expect(withClient(db.url, (c) => c.query(`update documents set file_name = 'x.html', mime = 'text/html' where id = $1`, [target.cocId]))).rejects.toThrow(/documents are immutable/);
+		await expect(
+			withClient(db.url, (c) => c.query(`update documents set file_name = 'x.html', mime = 'text/html' where id = $1`, [target.cocId]))
+		).rejects.toThrow(/documents are immutable/);
 		const [row] = (await lotFiles(target.lotId)).filter((d) => d.id === target.cocId);
 		expect(row.mime).toBe('application/pdf');
 	});
 
 	it('a row stored as text/html by the old reply path is served as plain bytes, as an attachment, under its last name segment', async () => {
-		const id = await withClient(db.url, async (c) =>
-			(await c.query(
-				`insert into documents (lot_id, kind, file_name, mime, size_bytes, sha256, bytes) values ($1, 'corrective_action', '../../x.html', 'text/html', $2, 'legacy-x-html', $3) returning id`,
-				[target.lotId, HTML.length, Buffer.from(HTML)]
-			)).rows[0].id
+		const id = await withClient(
+			db.url,
+			async (c) =>
+				(
+					await c.query(
+						`insert into documents (lot_id, kind, file_name, mime, size_bytes, sha256, bytes) values ($1, 'corrective_action', '../../x.html', 'text/html', $2, 'legacy-x-html', $3) returning id`,
+						[target.lotId, HTML.length, Buffer.from(HTML)]
+					)
+				).rows[0].id
 		);
-		const file = await fetch(`${app.url}/api/v1/lots/${target.lotId}/documents/${id}`, { headers: { authorization: `Bearer ${buyerToken}` } });
+		const file = await fetch(`${app.url}/api/v1/lots/${target.lotId}/documents/${id}`, {
+			headers: { authorization: `Bearer ${buyerToken}` }
+		});
 		expect(file.status).toBe(200);
 		expect(file.headers.get('content-type')).toBe('application/octet-stream');
 		expect(file.headers.get('content-disposition')).toMatch(/^attachment; filename="x\.html"/);
@@ -204,14 +260,26 @@ describe('meter files (POST /api/v1/lots/{id}/imports)', () => {
 	it('are read only when the content is CSV text or an XLSX workbook', async () => {
 		const mapping = JSON.stringify({ serial: 0, ocv: 1, temperature: 2 });
 		const png = new Uint8Array([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a, 0, 0, 0, 0]);
-		const image = await apiUpload(`/lots/${benchLotId}/imports?preview=true`, fileForm({ mapping }, { bytes: png, name: 'meter.png', type: 'image/png' }), inspectorToken);
+		const image = await apiUpload(
+			`/lots/${benchLotId}/imports?preview=true`,
+			fileForm({ mapping }, { bytes: png, name: 'meter.png', type: 'image/png' }),
+			inspectorToken
+		);
 		expect(image.status).toBe(415);
 		expect(image.json.error.issues[0].path).toBe('file');
-		const page = await apiUpload(`/lots/${benchLotId}/imports?preview=true`, fileForm({ mapping }, { bytes: HTML, name: 'meter.csv', type: 'text/csv' }), inspectorToken);
+		const page = await apiUpload(
+			`/lots/${benchLotId}/imports?preview=true`,
+			fileForm({ mapping }, { bytes: HTML, name: 'meter.csv', type: 'text/csv' }),
+			inspectorToken
+		);
 		expect(page.status).toBe(415);
 		expect(page.json.error.message).toMatch(/HTML page/);
 		const csv = new TextEncoder().encode('serial,ocv,temp\nU-1,3.61,25\n');
-		const ok = await apiUpload(`/lots/${benchLotId}/imports?preview=true`, fileForm({ mapping }, { bytes: csv, name: '../bench/meter.csv', type: 'text/csv' }), inspectorToken);
+		const ok = await apiUpload(
+			`/lots/${benchLotId}/imports?preview=true`,
+			fileForm({ mapping }, { bytes: csv, name: '../bench/meter.csv', type: 'text/csv' }),
+			inspectorToken
+		);
 		expect(ok.status).toBe(200);
 		expect(ok.json).toMatchObject({ file_name: 'meter.csv', format: 'csv', valid_rows: 1 });
 	});

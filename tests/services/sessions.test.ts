@@ -10,7 +10,8 @@ import { createToken, userForToken } from '$lib/server/services/tokens';
 import { useServiceDatabase } from '../helpers/service-db';
 
 const db = useServiceDatabase('svc_sessions', { demo: false });
-const person = async (email: string) => (await db.sql<{ id: string; email: string }>('select id, email from "user" where email = $1', [email]))[0];
+const person = async (email: string) =>
+	(await db.sql<{ id: string; email: string }>('select id, email from "user" where email = $1', [email]))[0];
 
 describe('sessions', () => {
 	it('a live session names its person; an ended one names nobody', async () => {
@@ -35,7 +36,10 @@ describe('sessions', () => {
 		expect(await sessionUser(idle)).toBeNull();
 		expect(await sessionUser(fresh)).not.toBeNull();
 		// The request just made counts as activity.
-		const [row] = await db.sql<{ recent: boolean }>(`select last_seen_at > now() - interval '1 minute' as recent from user_sessions where id = $1`, [fresh]);
+		const [row] = await db.sql<{ recent: boolean }>(
+			`select last_seen_at > now() - interval '1 minute' as recent from user_sessions where id = $1`,
+			[fresh]
+		);
 		expect(row.recent).toBe(true);
 	});
 

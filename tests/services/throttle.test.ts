@@ -27,7 +27,9 @@ describe('reserveAttempt', () => {
 		expect(results.filter((r) => r !== null)).toHaveLength(20);
 		expect(await rowsFor(address.key)).toBe(20);
 		// A refused attempt writes nothing under any of its keys.
-		const accounts = await db.sql<{ n: number }>(`select count(*)::int as n from sign_in_failures where throttle_key like 'account:spray-%'`);
+		const accounts = await db.sql<{ n: number }>(
+			`select count(*)::int as n from sign_in_failures where throttle_key like 'account:spray-%'`
+		);
 		expect(accounts[0].n).toBe(20);
 	});
 

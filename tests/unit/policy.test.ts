@@ -11,28 +11,80 @@ const SUPPLIER_A = '00000000-0000-4000-8000-00000000000a';
 const SUPPLIER_B = '00000000-0000-4000-8000-00000000000b';
 
 const ACTIONS: Action[] = [
-	'lot:read', 'lot:create', 'lot:edit', 'lot:cancel', 'document:upload', 'document:read', 'reading:write',
-	'lot:submit', 'lot:decide', 'review:read', 'part:read', 'part:edit', 'part:limits', 'supplier:read',
-	'supplier:edit', 'model:read', 'model:fit', 'model:approve', 'notice:read', 'notice:acknowledge',
-	'scorecard:read', 'report:read', 'electrochem:use', 'sampling:resume', 'admin:users', 'admin:orgs',
-	'admin:tokens', 'admin:outbox', 'self:read'
+	'lot:read',
+	'lot:create',
+	'lot:edit',
+	'lot:cancel',
+	'document:upload',
+	'document:read',
+	'reading:write',
+	'lot:submit',
+	'lot:decide',
+	'review:read',
+	'part:read',
+	'part:edit',
+	'part:limits',
+	'supplier:read',
+	'supplier:edit',
+	'model:read',
+	'model:fit',
+	'model:approve',
+	'notice:read',
+	'notice:acknowledge',
+	'scorecard:read',
+	'report:read',
+	'electrochem:use',
+	'sampling:resume',
+	'admin:users',
+	'admin:orgs',
+	'admin:tokens',
+	'admin:outbox',
+	'self:read'
 ];
 
 /** Reads of the receiving company's data that the issue gives buyers ("read everything of the own company"). */
 const COMPANY_READS: Action[] = [
-	'lot:read', 'document:read', 'part:read', 'supplier:read', 'model:read', 'notice:read', 'scorecard:read', 'report:read'
+	'lot:read',
+	'document:read',
+	'part:read',
+	'supplier:read',
+	'model:read',
+	'notice:read',
+	'scorecard:read',
+	'report:read'
 ];
 
 const ALLOWED: Record<Role, Action[]> = {
 	// "buyer: create and edit lots and parts, upload lot documents, read everything of the own company,
 	//  cancel a lot before inspection". supplier:edit and electrochem:use: policy's choice.
-	buyer: [...COMPANY_READS, 'lot:create', 'lot:edit', 'part:edit', 'document:upload', 'lot:cancel', 'supplier:edit', 'electrochem:use', 'self:read'],
+	buyer: [
+		...COMPANY_READS,
+		'lot:create',
+		'lot:edit',
+		'part:edit',
+		'document:upload',
+		'lot:cancel',
+		'supplier:edit',
+		'electrochem:use',
+		'self:read'
+	],
 	// "inspector: record readings and import measurement files on lots in inspection, read lots".
 	// Submitting the readings is part of recording them; the other reads: policy's choice.
 	inspector: [...COMPANY_READS, 'reading:write', 'lot:submit', 'electrochem:use', 'self:read'],
 	// "quality: everything an inspector can read, release or reject held lots, edit part acceptance
 	//  limits and sampling settings, approve model versions". lot:submit and model:fit: policy's choice.
-	quality: [...COMPANY_READS, 'review:read', 'lot:decide', 'part:limits', 'sampling:resume', 'model:approve', 'model:fit', 'lot:submit', 'electrochem:use', 'self:read'],
+	quality: [
+		...COMPANY_READS,
+		'review:read',
+		'lot:decide',
+		'part:limits',
+		'sampling:resume',
+		'model:approve',
+		'model:fit',
+		'lot:submit',
+		'electrochem:use',
+		'self:read'
+	],
 	// "supplier: read only its own organisation's lots, dispositions, reports and notices; acknowledge a notice
 	//  and attach a response".
 	supplier: ['lot:read', 'document:read', 'report:read', 'notice:read', 'notice:acknowledge', 'self:read'],

@@ -80,7 +80,13 @@ describe('lotApiSchema', () => {
 	});
 
 	it('takes the boundaries: quantity 1 and 10,000,000; SOC 0 and 1; a 40-character PO', () => {
-		for (const patch of [{ quantity: 1 }, { quantity: 10_000_000 }, { declared_soc: 0 }, { declared_soc: 1 }, { po_number: 'P'.repeat(40) }]) {
+		for (const patch of [
+			{ quantity: 1 },
+			{ quantity: 10_000_000 },
+			{ declared_soc: 0 },
+			{ declared_soc: 1 },
+			{ po_number: 'P'.repeat(40) }
+		]) {
 			expect(lotApiSchema.safeParse({ ...api, ...patch }).success).toBe(true);
 		}
 	});
@@ -211,7 +217,10 @@ describe('contact and document schemas', () => {
 
 describe('list queries from HTML GET forms', () => {
 	it('treats empty parameters as no filter', () => {
-		expect(lotListQuerySchema.parse({ status: 'cancelled', supplier_id: '', search: '', limit: '' })).toEqual({ status: 'cancelled', limit: 25 });
+		expect(lotListQuerySchema.parse({ status: 'cancelled', supplier_id: '', search: '', limit: '' })).toEqual({
+			status: 'cancelled',
+			limit: 25
+		});
 	});
 });
 

@@ -1,13 +1,7 @@
 // One error shape for the whole core. Functions whose contract returns a Result carry it in
 // `{ ok: false, error }`; functions whose contract returns a plain value throw it as ElectrochemError.
 
-export type ElectrochemErrorCode =
-	| 'not_finite'
-	| 'not_positive'
-	| 'not_integer'
-	| 'out_of_range'
-	| 'unknown_chemistry'
-	| 'invalid_model';
+export type ElectrochemErrorCode = 'not_finite' | 'not_positive' | 'not_integer' | 'out_of_range' | 'unknown_chemistry' | 'invalid_model';
 
 export interface ElectrochemErrorInfo {
 	code: ElectrochemErrorCode;
@@ -46,23 +40,14 @@ export function checkPositive(x: number, field: string): ElectrochemErrorInfo | 
 }
 
 export function checkPositiveInteger(x: number, field: string): ElectrochemErrorInfo | null {
-	return (
-		checkPositive(x, field) ??
-		(Number.isInteger(x) ? null : fail('not_integer', field, `${field} must be a positive integer`))
-	);
+	return checkPositive(x, field) ?? (Number.isInteger(x) ? null : fail('not_integer', field, `${field} must be a positive integer`));
 }
 
 export function checkRange(x: number, lo: number, hi: number, field: string): ElectrochemErrorInfo | null {
-	return (
-		checkFinite(x, field) ??
-		(x >= lo && x <= hi ? null : fail('out_of_range', field, `${field} must be within [${lo}, ${hi}]`))
-	);
+	return checkFinite(x, field) ?? (x >= lo && x <= hi ? null : fail('out_of_range', field, `${field} must be within [${lo}, ${hi}]`));
 }
 
 /** A Celsius temperature must be finite and above absolute zero. */
 export function checkCelsius(t_c: number, field: string): ElectrochemErrorInfo | null {
-	return (
-		checkFinite(t_c, field) ??
-		(t_c > -273.15 ? null : fail('out_of_range', field, `${field} must be above -273.15 °C`))
-	);
+	return checkFinite(t_c, field) ?? (t_c > -273.15 ? null : fail('out_of_range', field, `${field} must be above -273.15 °C`));
 }

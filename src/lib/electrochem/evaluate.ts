@@ -56,8 +56,7 @@ function evaluatePrepared(p: PreparedModel, reading: ReadingInput, o: ResolvedOp
 	const sigma = Math.sqrt(o.meterSigmaCellV ** 2 + model.sigma_model_v ** 2);
 	const inv = invertPrepared(p, ocvCell, t_c, sigma);
 	const determinate = inv.soc_high - inv.soc_low <= o.width;
-	const expected =
-		o.declaredSoc === null ? null : p.fn.value(o.declaredSoc) + entropicShiftV(p.entropic, o.declaredSoc, t_c);
+	const expected = o.declaredSoc === null ? null : p.fn.value(o.declaredSoc) + entropicShiftV(p.entropic, o.declaredSoc, t_c);
 	return {
 		soc: inv.soc,
 		soc_sigma: inv.soc_sigma,

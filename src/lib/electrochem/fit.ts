@@ -30,13 +30,20 @@ export function leastSquares(rows: number[][], target: number[], weights?: numbe
 	const a = new Matrix(rows.map((r, i) => r.map((v) => v * Math.sqrt(w[i]))));
 	const norms = Array.from({ length: a.columns }, (_, j) => a.getColumnVector(j).norm());
 	if (norms.some((n) => !(n > 0) || !Number.isFinite(n))) return null;
-	for (let j = 0; j < a.columns; j++) a.setColumn(j, a.getColumn(j).map((v) => v / norms[j]));
+	for (let j = 0; j < a.columns; j++)
+		a.setColumn(
+			j,
+			a.getColumn(j).map((v) => v / norms[j])
+		);
 	const b = Matrix.columnVector(target.map((v, i) => v * Math.sqrt(w[i])));
 	const qr = new QrDecomposition(a);
 	const r = qr.upperTriangularMatrix;
 	const diag = Array.from({ length: a.columns }, (_, j) => Math.abs(r.get(j, j)));
 	if (Math.min(...diag) <= RANK_TOLERANCE * Math.max(...diag)) return null;
-	return qr.solve(b).getColumn(0).map((x, j) => x / norms[j]);
+	return qr
+		.solve(b)
+		.getColumn(0)
+		.map((x, j) => x / norms[j]);
 }
 
 export function residualStats(fn: FormFunctions, points: CurvePoint[]): { rmse_v: number; max_error_v: number } {
@@ -52,7 +59,11 @@ export function residualStats(fn: FormFunctions, points: CurvePoint[]): { rmse_v
 
 export function fitCombinedParams(points: CurvePoint[], epsilon: number, weights?: number[]): CombinedParams | null {
 	const rows = points.map((p) => combinedBasis(scaledSoc(p.soc, epsilon)));
-	const k = leastSquares(rows, points.map((p) => p.ocv_v), weights);
+	const k = leastSquares(
+		rows,
+		points.map((p) => p.ocv_v),
+		weights
+	);
 	return k ? { k0: k[0], k1: k[1], k2: k[2], k3: k[3], k4: k[4], epsilon } : null;
 }
 
@@ -104,7 +115,13 @@ function round(x: number, digits: number): number {
 	return Math.round(x * f) / f;
 }
 
-function fittedModel(chemistry: ChemistryCode, params: CombinedParams, temperature_c: number, n: number, stats: { rmse_v: number; max_error_v: number }): OcvModel {
+function fittedModel(
+	chemistry: ChemistryCode,
+	params: CombinedParams,
+	temperature_c: number,
+	n: number,
+	stats: { rmse_v: number; max_error_v: number }
+): OcvModel {
 	const base = getLibraryModel(chemistry);
 	const fn = combinedFunctions(params);
 	return {
@@ -157,7 +174,9 @@ function fitAtEpsilon(chemistry: ChemistryCode, points: CurvePoint[], epsilon: n
 	const stats = residualStats(fn, points);
 	const monotonic = isIncreasing(fn, 0.02, 0.98, 193);
 	const parameters = { ...params };
-	if (!monotonic) return { ok: false, parameters, ...stats, monotonic, model: null, error: 'fitted curve is not increasing over [0.02, 0.98]' };
-	if (!isIncreasing(fn)) return { ok: false, parameters, ...stats, monotonic, model: null, error: 'fitted curve is not increasing near z = 0 or z = 1' };
+	if (!monotonic)
+		return { ok: false, parameters, ...stats, monotonic, model: null, error: 'fitted curve is not increasing over [0.02, 0.98]' };
+	if (!isIncreasing(fn))
+		return { ok: false, parameters, ...stats, monotonic, model: null, error: 'fitted curve is not increasing near z = 0 or z = 1' };
 	return { ok: true, parameters, ...stats, monotonic, model: fittedModel(chemistry, params, temperature_c, points.length, stats) };
 }

@@ -2,24 +2,14 @@
 //   E = E° − (RT/nF)·ln Q = E° − (ln10·RT/nF)·log10 Q
 //   ΔG° = −nFE°,  ΔG = −nFE,  K = exp(nFE°/RT),  E° = (RT/nF)·ln K
 import { FARADAY, celsiusToKelvin, thermalVoltage } from './constants';
-import {
-	type ElectrochemErrorInfo,
-	type Result,
-	checkFinite,
-	checkPositive,
-	checkPositiveInteger
-} from './errors';
+import { type ElectrochemErrorInfo, type Result, checkFinite, checkPositive, checkPositiveInteger } from './errors';
 
 function firstError(...checks: Array<ElectrochemErrorInfo | null>): ElectrochemErrorInfo | null {
 	return checks.find((c) => c !== null) ?? null;
 }
 
 function nernstInputError(e0_v: number, n: number, temperature_k: number): ElectrochemErrorInfo | null {
-	return firstError(
-		checkFinite(e0_v, 'e0_v'),
-		checkPositiveInteger(n, 'n'),
-		checkPositive(temperature_k, 'temperature_k')
-	);
+	return firstError(checkFinite(e0_v, 'e0_v'), checkPositiveInteger(n, 'n'), checkPositive(temperature_k, 'temperature_k'));
 }
 
 /** E = E° − (RT/nF)·ln Q. */
@@ -30,12 +20,7 @@ export function nernstPotential(args: { e0_v: number; n: number; temperature_k: 
 }
 
 /** Same relation written with log10 Q, the form used in most textbooks at 25 °C. */
-export function nernstPotentialLog10(args: {
-	e0_v: number;
-	n: number;
-	temperature_k: number;
-	log10_q: number;
-}): Result<number> {
+export function nernstPotentialLog10(args: { e0_v: number; n: number; temperature_k: number; log10_q: number }): Result<number> {
 	const error = firstError(nernstInputError(args.e0_v, args.n, args.temperature_k), checkFinite(args.log10_q, 'log10_q'));
 	if (error) return { ok: false, error };
 	const slope = (Math.LN10 * thermalVoltage(args.temperature_k)) / args.n;

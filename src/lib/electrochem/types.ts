@@ -1,18 +1,6 @@
 // Shared types of the electrochemistry core.
 
-export type ChemistryCode =
-	| 'LCO'
-	| 'NMC'
-	| 'NCA'
-	| 'LMO'
-	| 'LFP'
-	| 'LTO'
-	| 'NIMH'
-	| 'NICD'
-	| 'PBACID'
-	| 'ALKALINE'
-	| 'LIMNO2'
-	| 'LISOCL2';
+export type ChemistryCode = 'LCO' | 'NMC' | 'NCA' | 'LMO' | 'LFP' | 'LTO' | 'NIMH' | 'NICD' | 'PBACID' | 'ALKALINE' | 'LIMNO2' | 'LISOCL2';
 
 export const CHEMISTRY_CODES: readonly ChemistryCode[] = Object.freeze([
 	'LCO',
@@ -91,12 +79,7 @@ export interface OcvModel {
 }
 
 export type FlagCode =
-	| 'deep_discharge'
-	| 'over_voltage'
-	| 'soc_indeterminate'
-	| 'temperature_out_of_range'
-	| 'below_window'
-	| 'above_window';
+	'deep_discharge' | 'over_voltage' | 'soc_indeterminate' | 'temperature_out_of_range' | 'below_window' | 'above_window';
 
 export interface ReadingInput {
 	ocv_v: number;

@@ -72,11 +72,7 @@ export interface Reason {
 }
 
 export type UnitFlag =
-	| UnitResult['flags'][number]
-	| 'outlier'
-	| 'residual_over_tolerance'
-	| 'self_discharge_over_limit'
-	| 'outside_part_window';
+	UnitResult['flags'][number] | 'outlier' | 'residual_over_tolerance' | 'self_discharge_over_limit' | 'outside_part_window';
 
 export interface UnitDisposition extends UnitResult {
 	serial: string;
@@ -109,7 +105,11 @@ const NC_FLAGS: ReadonlySet<UnitFlag> = new Set<UnitFlag>([
 /** Unit-level findings that count as nonconforming and are also listed as information. */
 const INFO_REASONS: ReadonlyArray<{ code: ReasonCode; flag: UnitFlag; message: string }> = [
 	{ code: 'outliers_present', flag: 'outlier', message: 'OCV far from the lot median (robust outlier rule); counted as nonconforming.' },
-	{ code: 'self_discharge_over_limit', flag: 'self_discharge_over_limit', message: 'Voltage drop per day above the part limit; counted as nonconforming.' },
+	{
+		code: 'self_discharge_over_limit',
+		flag: 'self_discharge_over_limit',
+		message: 'Voltage drop per day above the part limit; counted as nonconforming.'
+	},
 	{ code: 'outside_part_window', flag: 'outside_part_window', message: "OCV outside the part's window; counted as nonconforming." },
 	{
 		code: 'residual_over_tolerance',
@@ -164,7 +164,10 @@ function socReasons(lot: LotInfo, limits: PartLimits, units: readonly UnitDispos
 		const over = units.filter((u) => u.soc_low > AIR_SOC_LIMIT).map((u) => u.serial);
 		const declaredOver = lot.declared_soc !== null && lot.declared_soc > AIR_SOC_LIMIT;
 		if (over.length > 0 || declaredOver) {
-			const what = over.length > 0 ? `${over.length} unit(s) read wholly above ${pct(AIR_SOC_LIMIT)} SOC` : `declared SOC ${pct(lot.declared_soc ?? 0)}`;
+			const what =
+				over.length > 0
+					? `${over.length} unit(s) read wholly above ${pct(AIR_SOC_LIMIT)} SOC`
+					: `declared SOC ${pct(lot.declared_soc ?? 0)}`;
 			reasons.push({
 				code: 'dg_soc_over_limit',
 				severity: 'hold',
@@ -346,6 +349,9 @@ function unitOf(serial: string, list: readonly TimedUnitReading[]): UnitInput {
 	const times = list.map((r) => Date.parse(r.measured_at));
 	let latest = 0;
 	for (let i = 1; i < list.length; i++) if (times[i] > times[latest]) latest = i;
-	const sd = selfDischargeOfParsed(times, list.map((r) => r.result.ocv_at_25c_v));
+	const sd = selfDischargeOfParsed(
+		times,
+		list.map((r) => r.result.ocv_at_25c_v)
+	);
 	return { serial, result: list[latest].result, self_discharge_mv_per_day: sd };
 }

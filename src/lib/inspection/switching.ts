@@ -66,12 +66,7 @@ function planNumbers(severity: Severity, letter: CodeLetter, aqlIdx: number) {
 }
 
 /** ISO 2859-1:1999 9.3.3.2 a): update of the switching score after a lot on normal inspection. */
-export function nextSwitchingScore(
-	score: number,
-	lot: LotOutcome,
-	normalAccept: number,
-	tighterAccept: number | null
-): number {
+export function nextSwitchingScore(score: number, lot: LotOutcome, normalAccept: number, tighterAccept: number | null): number {
 	if (!lot.accepted) return 0;
 	if (normalAccept <= 1) return score + 2;
 	// Ac >= 2: +3 only if the lot would also pass one AQL step tighter; unknown counts cannot earn it.
@@ -152,16 +147,30 @@ export function switchingState(entries: readonly SwitchingEntry[], opts: Switchi
 		if (entry.kind === 'resume') {
 			if (from === 'discontinued') {
 				enter(t, 'tightened');
-				history.push({ lot_id: null, from, to: 'tightened', reason: 'Inspection resumed on tightened inspection after corrective action was approved (ISO 2859-1:1999 9.4).' });
+				history.push({
+					lot_id: null,
+					from,
+					to: 'tightened',
+					reason: 'Inspection resumed on tightened inspection after corrective action was approved (ISO 2859-1:1999 9.4).'
+				});
 			}
 			continue;
 		}
 		if (from === 'discontinued') {
-			history.push({ lot_id: entry.lot_id, from, to: from, reason: 'Lot ignored for switching: inspection is discontinued until an explicit resume.' });
+			history.push({
+				lot_id: entry.lot_id,
+				from,
+				to: from,
+				reason: 'Lot ignored for switching: inspection is discontinued until an explicit resume.'
+			});
 			continue;
 		}
 		const reason =
-			from === 'normal' ? onNormal(t, entry, opts, aqlIdx) : from === 'tightened' ? onTightened(t, entry) : onReduced(t, entry, opts, aqlIdx);
+			from === 'normal'
+				? onNormal(t, entry, opts, aqlIdx)
+				: from === 'tightened'
+					? onTightened(t, entry)
+					: onReduced(t, entry, opts, aqlIdx);
 		if (reason) history.push({ lot_id: entry.lot_id, from, to: t.state, reason });
 	}
 	return { severity: t.state, switching_score: t.score, history };

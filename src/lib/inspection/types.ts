@@ -5,8 +5,7 @@ export type InspectionLevel = 'I' | 'II' | 'III' | 'S-1' | 'S-2' | 'S-3' | 'S-4'
 export type Severity = 'normal' | 'tightened' | 'reduced';
 export type SwitchingState = Severity | 'discontinued';
 
-export type CodeLetter =
-	| 'A' | 'B' | 'C' | 'D' | 'E' | 'F' | 'G' | 'H' | 'J' | 'K' | 'L' | 'M' | 'N' | 'P' | 'Q' | 'R' | 'S';
+export type CodeLetter = 'A' | 'B' | 'C' | 'D' | 'E' | 'F' | 'G' | 'H' | 'J' | 'K' | 'L' | 'M' | 'N' | 'P' | 'Q' | 'R' | 'S';
 
 export interface SamplingPlan {
 	/** Letter from Table I for the lot size and level. */
@@ -20,11 +19,7 @@ export interface SamplingPlan {
 	hundred_percent: boolean;
 }
 
-export type InspectionErrorCode =
-	| 'lot_size_invalid'
-	| 'aql_not_preferred'
-	| 'level_invalid'
-	| 'severity_invalid';
+export type InspectionErrorCode = 'lot_size_invalid' | 'aql_not_preferred' | 'level_invalid' | 'severity_invalid';
 
 /** Typed validation error so callers can map it to a form message without parsing text. */
 export class InspectionInputError extends Error {

@@ -64,8 +64,7 @@ export function moments(values: readonly number[]): Moments {
 	}
 	const sd = n >= 2 ? Math.sqrt(m2 / (n - 1)) : NaN;
 	const skewness = n >= 3 && m2 > 0 ? (n * m3) / ((n - 1) * (n - 2) * sd ** 3) : null;
-	const kurtosis =
-		n >= 4 && m2 > 0 ? ((n - 1) / ((n - 2) * (n - 3))) * ((n * (n + 1) * m4) / (m2 * m2) - 3 * (n - 1)) : null;
+	const kurtosis = n >= 4 && m2 > 0 ? ((n - 1) / ((n - 2) * (n - 3))) * ((n * (n + 1) * m4) / (m2 * m2) - 3 * (n - 1)) : null;
 	return { n, mean, sd, skewness, kurtosis };
 }
 

@@ -25,6 +25,8 @@ export const replySchema = z.object({
 export const noticesQuery = z.object({ lot_id: z.uuid().optional() });
 
 export const lotListExportQuery = z.object({
-	status: z.enum(['draft', 'awaiting_arrival', 'in_inspection', 'pending_decision', 'accepted', 'on_hold', 'rejected', 'cancelled']).optional(),
+	status: z
+		.enum(['draft', 'awaiting_arrival', 'in_inspection', 'pending_decision', 'accepted', 'on_hold', 'rejected', 'cancelled'])
+		.optional(),
 	supplier_id: z.uuid().optional()
 });

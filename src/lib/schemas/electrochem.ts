@@ -59,7 +59,8 @@ export function readingsIssues(readings: unknown[]): ReadingIssue[] {
 		const t = r.temperature_c;
 		if (typeof v !== 'number' || !Number.isFinite(v)) issues.push({ path: `readings.${i}.ocv_v`, message: 'must be a finite number (V)' });
 		else if (v < 0) issues.push({ path: `readings.${i}.ocv_v`, message: 'must be >= 0 V (check the probe polarity)' });
-		if (typeof t !== 'number' || !Number.isFinite(t)) issues.push({ path: `readings.${i}.temperature_c`, message: 'must be a finite number (°C)' });
+		if (typeof t !== 'number' || !Number.isFinite(t))
+			issues.push({ path: `readings.${i}.temperature_c`, message: 'must be a finite number (°C)' });
 		else if (t <= -273.15) issues.push({ path: `readings.${i}.temperature_c`, message: 'must be above absolute zero (−273.15 °C)' });
 	}
 	return issues;

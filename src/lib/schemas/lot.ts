@@ -70,25 +70,27 @@ const isoDate = z.iso
 	.refine((v) => v >= '2000-01-01' && v <= '2099-12-31', 'Use a date between 2000 and 2099');
 
 /** The register form: declared SOC in percent; empty optional fields arrive as ''. */
-export const lotFormSchema = z.object({
-	po_number: poNumber,
-	supplier_id: uuidField('supplier'),
-	part_id: uuidField('part'),
-	quantity,
-	// Nullable so an untouched field reads as "not entered" rather than a silent 0 %.
-	declared_soc_pct: z
-		.number({ error: 'Enter the declared SOC in %' })
-		.min(0, 'The declared SOC is between 0 and 100 %')
-		.max(100, 'The declared SOC is between 0 and 100 %')
-		.nullable()
-		.default(null),
-	transport,
-	un_number: unNumber.default(''),
-	expected_arrival: z.union([z.literal(''), isoDate]).default('')
-}).refine((v) => v.declared_soc_pct !== null, {
-	path: ['declared_soc_pct'],
-	message: 'Enter the declared SOC at shipment in %'
-});
+export const lotFormSchema = z
+	.object({
+		po_number: poNumber,
+		supplier_id: uuidField('supplier'),
+		part_id: uuidField('part'),
+		quantity,
+		// Nullable so an untouched field reads as "not entered" rather than a silent 0 %.
+		declared_soc_pct: z
+			.number({ error: 'Enter the declared SOC in %' })
+			.min(0, 'The declared SOC is between 0 and 100 %')
+			.max(100, 'The declared SOC is between 0 and 100 %')
+			.nullable()
+			.default(null),
+		transport,
+		un_number: unNumber.default(''),
+		expected_arrival: z.union([z.literal(''), isoDate]).default('')
+	})
+	.refine((v) => v.declared_soc_pct !== null, {
+		path: ['declared_soc_pct'],
+		message: 'Enter the declared SOC at shipment in %'
+	});
 export type LotForm = z.infer<typeof lotFormSchema>;
 
 /** The API body: declared SOC as a fraction; strict types (a string where a number belongs is refused). */
@@ -158,8 +160,7 @@ export const LOT_FIELD: Record<keyof LotInput, string> = {
 };
 
 /** An empty query parameter (`?status=`) means "no filter", as HTML GET forms send it. */
-export const blankAsMissing = <T extends z.ZodType>(schema: T) =>
-	z.preprocess((v) => (v === '' ? undefined : v), schema.optional());
+export const blankAsMissing = <T extends z.ZodType>(schema: T) => z.preprocess((v) => (v === '' ? undefined : v), schema.optional());
 
 /** GET /api/v1/lots query. */
 export const lotListQuerySchema = z.object({
@@ -171,7 +172,12 @@ export const lotListQuerySchema = z.object({
 	serial: blankAsMissing(text().trim().max(64, 'serial is at most 64 characters')),
 	limit: z.preprocess(
 		(v) => (v === '' || v === undefined ? 25 : v),
-		fromText(wholeNumber('limit must be a whole number from 1 to 100').min(1, 'limit must be a whole number from 1 to 100').max(100, 'limit must be a whole number from 1 to 100'), { whole: true })
+		fromText(
+			wholeNumber('limit must be a whole number from 1 to 100')
+				.min(1, 'limit must be a whole number from 1 to 100')
+				.max(100, 'limit must be a whole number from 1 to 100'),
+			{ whole: true }
+		)
 	),
 	cursor: blankAsMissing(text().max(200))
 });

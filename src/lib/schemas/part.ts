@@ -12,13 +12,9 @@ export const INSPECTION_LEVELS = ['I', 'II', 'III', 'S-1', 'S-2', 'S-3', 'S-4'] 
 export const REQUIRED_DOCUMENT_KINDS = ['coc', 'un38_3_summary', 'sds'] as const;
 
 const positiveInt = (what: string, max: number) =>
-	wholeNumber(`Enter ${what} as a whole number`)
-		.min(1, `${what} is at least 1`)
-		.max(max, `${what} is at most ${max}`);
+	wholeNumber(`Enter ${what} as a whole number`).min(1, `${what} is at least 1`).max(max, `${what} is at most ${max}`);
 const positive = (what: string, max: number) =>
-	decimal(`Enter ${what} as a number`)
-		.positive(`${what} must be more than 0`)
-		.max(max, `${what} is at most ${max}`);
+	decimal(`Enter ${what} as a number`).positive(`${what} must be more than 0`).max(max, `${what} is at most ${max}`);
 
 export const partDescriptiveSchema = z.object({
 	supplier_id: z.uuid({ error: 'Choose a supplier' }),

@@ -74,7 +74,9 @@ export function jsonSyntaxIssues(text: string, error: Error): ApiIssue[] | undef
 	const keys = [...text.slice(0, position).matchAll(/"((?:[^"\\]|\\.)*)"\s*:/g)];
 	const key = keys.at(-1)?.[1];
 	if (key === undefined) return undefined;
-	return [{ path: key, message: 'is not valid JSON here: write numbers like 12 or 1.5 (no comma decimals, no units) and text in double quotes' }];
+	return [
+		{ path: key, message: 'is not valid JSON here: write numbers like 12 or 1.5 (no comma decimals, no units) and text in double quotes' }
+	];
 }
 
 export function parseWith<T extends z.ZodType>(schema: T, value: unknown, what: string): z.infer<T> {
@@ -162,7 +164,6 @@ function failure(event: RequestEvent, error: unknown): Response {
 	if (isDatabaseUnavailable(error)) return errorResponse(databaseUnavailable());
 	return errorJson(500, 'internal', 'Something went wrong on the server');
 }
-
 
 function isKitResponse(error: unknown): boolean {
 	return typeof error === 'object' && error !== null && 'status' in error && ('location' in error || 'body' in error);

@@ -44,18 +44,52 @@ const SELF_ACTIONS: readonly Action[] = ['self:read'];
 /** What each role may do, before resource checks. */
 const GRANTS: Record<Role, readonly Action[]> = {
 	buyer: [
-		'lot:read', 'lot:create', 'lot:edit', 'lot:cancel', 'document:upload', 'document:read',
-		'part:read', 'part:edit', 'supplier:read', 'supplier:edit', 'model:read', 'notice:read',
-		'scorecard:read', 'report:read', 'electrochem:use'
+		'lot:read',
+		'lot:create',
+		'lot:edit',
+		'lot:cancel',
+		'document:upload',
+		'document:read',
+		'part:read',
+		'part:edit',
+		'supplier:read',
+		'supplier:edit',
+		'model:read',
+		'notice:read',
+		'scorecard:read',
+		'report:read',
+		'electrochem:use'
 	],
 	inspector: [
-		'lot:read', 'document:read', 'reading:write', 'lot:submit', 'part:read', 'supplier:read',
-		'model:read', 'notice:read', 'report:read', 'electrochem:use', 'scorecard:read'
+		'lot:read',
+		'document:read',
+		'reading:write',
+		'lot:submit',
+		'part:read',
+		'supplier:read',
+		'model:read',
+		'notice:read',
+		'report:read',
+		'electrochem:use',
+		'scorecard:read'
 	],
 	quality: [
-		'lot:read', 'document:read', 'lot:submit', 'lot:decide', 'review:read', 'part:read', 'part:limits',
-		'supplier:read', 'model:read', 'model:fit', 'model:approve', 'notice:read', 'scorecard:read',
-		'report:read', 'electrochem:use', 'sampling:resume'
+		'lot:read',
+		'document:read',
+		'lot:submit',
+		'lot:decide',
+		'review:read',
+		'part:read',
+		'part:limits',
+		'supplier:read',
+		'model:read',
+		'model:fit',
+		'model:approve',
+		'notice:read',
+		'scorecard:read',
+		'report:read',
+		'electrochem:use',
+		'sampling:resume'
 	],
 	supplier: ['lot:read', 'document:read', 'notice:read', 'notice:acknowledge', 'report:read'],
 	admin: ['admin:users', 'admin:orgs', 'admin:tokens', 'admin:outbox', 'electrochem:use']

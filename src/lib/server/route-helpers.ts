@@ -9,7 +9,11 @@ import { lotForAction } from './services/portal';
 import type { LotView } from './services/lots';
 
 /** 401 when nobody is signed in, then the lot the signed-in person may do `action` on (403/404). */
-export async function requireLot(event: Pick<RequestEvent, 'locals'>, lotId: string, action: Action): Promise<{ user: SessionUser; lot: LotView }> {
+export async function requireLot(
+	event: Pick<RequestEvent, 'locals'>,
+	lotId: string,
+	action: Action
+): Promise<{ user: SessionUser; lot: LotView }> {
 	const me = event.locals.user;
 	const user = authorize(event, action, me?.role === 'supplier' ? { supplierId: me.organisationId } : undefined);
 	return { user, lot: await lotForAction(getDb(), user, lotId, action) };

@@ -13,7 +13,12 @@ export const FILE_TYPES = {
 		declared: ['application/vnd.openxmlformats-officedocument.spreadsheetml.sheet', 'application/zip', 'application/x-zip-compressed']
 	},
 	// Windows registers .csv to Excel, so browsers there declare CSV as application/vnd.ms-excel.
-	csv: { label: 'CSV', mime: 'text/csv', extensions: ['csv'], declared: ['text/csv', 'text/plain', 'application/csv', 'text/comma-separated-values', 'application/vnd.ms-excel'] },
+	csv: {
+		label: 'CSV',
+		mime: 'text/csv',
+		extensions: ['csv'],
+		declared: ['text/csv', 'text/plain', 'application/csv', 'text/comma-separated-values', 'application/vnd.ms-excel']
+	},
 	txt: { label: 'text', mime: 'text/plain', extensions: ['txt'], declared: ['text/plain'] }
 } as const;
 
@@ -27,9 +32,55 @@ export const GENERIC_DECLARED = ['', 'application/octet-stream', 'binary/octet-s
  * content that contradicts what we found, so it is refused rather than quietly renamed.
  */
 export const FOREIGN_EXTENSIONS = [
-	'html', 'htm', 'xhtml', 'shtml', 'svg', 'svgz', 'xml', 'xsl', 'js', 'mjs', 'cjs', 'css', 'php', 'asp', 'aspx', 'jsp',
-	'exe', 'dll', 'msi', 'bat', 'cmd', 'com', 'scr', 'ps1', 'sh', 'vbs', 'jar', 'apk', 'app',
-	'zip', '7z', 'rar', 'gz', 'tar', 'docx', 'docm', 'xlsm', 'xls', 'doc', 'pptx', 'ppt', 'odt', 'ods', 'rtf', 'gif', 'webp', 'bmp', 'tif', 'tiff'
+	'html',
+	'htm',
+	'xhtml',
+	'shtml',
+	'svg',
+	'svgz',
+	'xml',
+	'xsl',
+	'js',
+	'mjs',
+	'cjs',
+	'css',
+	'php',
+	'asp',
+	'aspx',
+	'jsp',
+	'exe',
+	'dll',
+	'msi',
+	'bat',
+	'cmd',
+	'com',
+	'scr',
+	'ps1',
+	'sh',
+	'vbs',
+	'jar',
+	'apk',
+	'app',
+	'zip',
+	'7z',
+	'rar',
+	'gz',
+	'tar',
+	'docx',
+	'docm',
+	'xlsm',
+	'xls',
+	'doc',
+	'pptx',
+	'ppt',
+	'odt',
+	'ods',
+	'rtf',
+	'gif',
+	'webp',
+	'bmp',
+	'tif',
+	'tiff'
 ];
 
 /** The file type an extension belongs to, among those given. */

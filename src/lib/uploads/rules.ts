@@ -61,23 +61,30 @@ const SNIFFED_WORDS: Record<Sniffed, string> = {
 	empty: 'empty'
 };
 
-
 /** The display form of the client's name for messages: its last segment, printable, short. */
 const shown = (name: string) => {
 	// eslint-disable-next-line no-control-regex -- finding control characters is what this pattern is for
 	const segment = (name.split(/[\\/]/).pop() ?? '').replace(/[\u0000-\u001f\u007f-\u009f]/g, '').trim();
-	return Array.from(segment || 'the file').slice(0, 80).join('');
+	return Array.from(segment || 'the file')
+		.slice(0, 80)
+		.join('');
 };
 
 /** What the bytes are, among the types this use allows; text becomes CSV or plain text by name. */
 function typeOfContent(sniffed: Sniffed, ext: string, allowed: readonly FileType[]): FileType | null {
 	if (sniffed !== 'text') return (allowed as readonly string[]).includes(sniffed) ? (sniffed as FileType) : null;
-	const byName = typeOfExtension(ext, allowed.filter((t) => t === 'csv' || t === 'txt'));
+	const byName = typeOfExtension(
+		ext,
+		allowed.filter((t) => t === 'csv' || t === 'txt')
+	);
 	if (byName) return byName;
 	return allowed.includes('txt') ? 'txt' : allowed.includes('csv') ? 'csv' : null;
 }
 
-const refuse = (status: UploadRefusal['status'], code: UploadRefusal['code'], message: string): UploadVerdict => ({ ok: false, refusal: { status, code, message } });
+const refuse = (status: UploadRefusal['status'], code: UploadRefusal['code'], message: string): UploadVerdict => ({
+	ok: false,
+	refusal: { status, code, message }
+});
 
 export function checkUpload(use: UploadUse, file: IncomingFile): UploadVerdict {
 	const rule = UPLOAD_USES[use];
@@ -104,5 +111,8 @@ export function checkUpload(use: UploadUse, file: IncomingFile): UploadVerdict {
 	if (!GENERIC_DECLARED.includes(declared) && !(FILE_TYPES[type].declared as readonly string[]).includes(declared)) {
 		return refuse(415, 'type_mismatch', `“${name}” was sent as ${declared.slice(0, 80)} but its content is ${label}. ${wanted}`);
 	}
-	return { ok: true, file: { type, mime: FILE_TYPES[type].mime, fileName: cleanFileName(file.name, type, rule.fallbackName), bytes: file.bytes } };
+	return {
+		ok: true,
+		file: { type, mime: FILE_TYPES[type].mime, fileName: cleanFileName(file.name, type, rule.fallbackName), bytes: file.bytes }
+	};
 }

@@ -27,7 +27,24 @@ export function containsAscii(bytes: Uint8Array, text: string): boolean {
 }
 
 // WHATWG MIME Sniffing, 7.1: each tag is followed by a space or ">" (a "tag-terminating byte").
-const HTML_TAGS = ['!DOCTYPE HTML', 'HTML', 'HEAD', 'SCRIPT', 'IFRAME', 'H1', 'DIV', 'FONT', 'TABLE', 'A', 'STYLE', 'TITLE', 'B', 'BODY', 'BR', 'P'];
+const HTML_TAGS = [
+	'!DOCTYPE HTML',
+	'HTML',
+	'HEAD',
+	'SCRIPT',
+	'IFRAME',
+	'H1',
+	'DIV',
+	'FONT',
+	'TABLE',
+	'A',
+	'STYLE',
+	'TITLE',
+	'B',
+	'BODY',
+	'BR',
+	'P'
+];
 const WHITESPACE = new Set([0x09, 0x0a, 0x0c, 0x0d, 0x20]);
 
 /** "html" or "xml" when the text opens with markup (after a BOM and white space), else null. */
@@ -64,7 +81,8 @@ export function sniff(bytes: Uint8Array): Sniffed {
 	if (startsWith(bytes, PDF)) return 'pdf';
 	if (startsWith(bytes, PNG)) return 'png';
 	if (startsWith(bytes, JPEG)) return 'jpeg';
-	if (startsWith(bytes, ZIP)) return containsAscii(bytes, '[Content_Types].xml') && containsAscii(bytes, 'xl/workbook.xml') ? 'xlsx' : 'zip';
+	if (startsWith(bytes, ZIP))
+		return containsAscii(bytes, '[Content_Types].xml') && containsAscii(bytes, 'xl/workbook.xml') ? 'xlsx' : 'zip';
 	if (!isPlainText(bytes)) return 'binary';
 	return sniffMarkup(bytes) ?? 'text';
 }

@@ -84,7 +84,11 @@ export function syntheticReadings(count: number, seed = 1): SyntheticReading[] {
 		const soc = BENCH_DECLARED_SOC + (random() - 0.5) * 0.04;
 		const temperature = Math.round((20 + random() * 6) * 10) / 10;
 		const ocv = ocvAt(model, soc, temperature) + (random() - 0.5) * 0.002;
-		out.push({ serial: `BX${String(seed).padStart(2, '0')}-${String(i + 1).padStart(6, '0')}`, ocv_v: Math.round(ocv * 10_000) / 10_000, temperature_c: temperature });
+		out.push({
+			serial: `BX${String(seed).padStart(2, '0')}-${String(i + 1).padStart(6, '0')}`,
+			ocv_v: Math.round(ocv * 10_000) / 10_000,
+			temperature_c: temperature
+		});
 	}
 	return out;
 }
@@ -98,16 +102,31 @@ export async function insertReadings(client: pg.Client, lotId: string, readings:
 	);
 }
 
-const STATUSES = ['draft', 'awaiting_arrival', 'in_inspection', 'pending_decision', 'accepted', 'accepted', 'on_hold', 'rejected', 'accepted', 'cancelled'];
+const STATUSES = [
+	'draft',
+	'awaiting_arrival',
+	'in_inspection',
+	'pending_decision',
+	'accepted',
+	'accepted',
+	'on_hold',
+	'rejected',
+	'accepted',
+	'cancelled'
+];
 
 /**
  * SCALE_LOTS lots over the seeded parts (one every 2 minutes back from now: about two years at the
  * default size, mixed statuses) and READINGS_PER_SCALE_LOT readings each, in INSERT … SELECT
  * generate_series statements; `log` reports progress.
  */
-export async function loadScaleData(client: pg.Client, log: (text: string) => void): Promise<{ lots: number; readings: number; reused: boolean }> {
+export async function loadScaleData(
+	client: pg.Client,
+	log: (text: string) => void
+): Promise<{ lots: number; readings: number; reused: boolean }> {
 	const counts = async () =>
-		(await client.query(`select (select count(*) from lots)::int as lots, (select count(*) from readings)::bigint::float8 as readings`)).rows[0];
+		(await client.query(`select (select count(*) from lots)::int as lots, (select count(*) from readings)::bigint::float8 as readings`))
+			.rows[0];
 	const before = await counts();
 	if (before.lots >= SCALE_LOTS) return { ...before, reused: true }; // a database kept from an earlier run
 	await client.query(

@@ -39,7 +39,12 @@ function autocannon(url: string, seconds: number, headers: Record<string, string
 		child.on('exit', (code) => {
 			if (code !== 0) return reject(new Error(`autocannon exited ${code}: ${err}`));
 			const json = JSON.parse(out.trim().split('\n').at(-1) ?? '{}');
-			resolve({ requestsPerSecond: json.requests.average, p99: json.latency.p99, non2xx: json.non2xx, errors: json.errors + json.timeouts });
+			resolve({
+				requestsPerSecond: json.requests.average,
+				p99: json.latency.p99,
+				non2xx: json.non2xx,
+				errors: json.errors + json.timeouts
+			});
 		});
 	});
 }

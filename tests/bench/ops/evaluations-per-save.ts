@@ -20,7 +20,11 @@ const SAVES = 5;
 /** The page's own requests, with its session cookie (and Origin on writes, as a browser sends it). */
 function pageClient(baseUrl: string, cookie: string) {
 	const request = async (path: string, init: RequestInit = {}) => {
-		const response = await fetch(`${baseUrl}${path}`, { ...init, redirect: 'manual', headers: { cookie, origin: baseUrl, ...init.headers } });
+		const response = await fetch(`${baseUrl}${path}`, {
+			...init,
+			redirect: 'manual',
+			headers: { cookie, origin: baseUrl, ...init.headers }
+		});
 		const text = await response.text();
 		if (!response.ok) throw new Error(`${init.method ?? 'GET'} ${path} answered ${response.status}: ${text.slice(0, 200)}`);
 		return text;

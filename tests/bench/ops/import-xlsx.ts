@@ -15,7 +15,10 @@ const ROWS = 10_000;
 
 async function meterWorkbook(readings: SyntheticReading[], times: string[]): Promise<Buffer> {
 	const workbook = await XlsxPopulate.fromBlankAsync();
-	const rows = [['Serial', 'OCV (V)', 'Temperature (°C)', 'Measured at'], ...readings.map((r, i) => [r.serial, r.ocv_v, r.temperature_c, times[i]])];
+	const rows = [
+		['Serial', 'OCV (V)', 'Temperature (°C)', 'Measured at'],
+		...readings.map((r, i) => [r.serial, r.ocv_v, r.temperature_c, times[i]])
+	];
 	workbook.sheet(0)!.range(1, 1, rows.length, 4).value(rows);
 	return (await workbook.outputAsync()) as Buffer;
 }
@@ -37,7 +40,11 @@ export async function benchImportXlsx(ctx: BenchContext): Promise<BenchLine> {
 	const importOnce = async () => {
 		const lotId = await withClient(ctx.databaseUrl, (c) => createBenchLot(c, ctx.part, 100_000, 'IMP'));
 		const form = new FormData();
-		form.set('file', new Blob([new Uint8Array(xlsx)], { type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet' }), 'meter.xlsx');
+		form.set(
+			'file',
+			new Blob([new Uint8Array(xlsx)], { type: 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet' }),
+			'meter.xlsx'
+		);
 		form.set('mapping', mapping);
 		const ms = await timeMs(async () => {
 			const response = await fetch(`${ctx.app.url}/api/v1/lots/${lotId}/imports`, {

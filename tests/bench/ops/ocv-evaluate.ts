@@ -24,7 +24,8 @@ export async function benchOcvEvaluate(ctx: BenchContext): Promise<BenchLine> {
 			headers: { ...bearer(ctx.token), 'content-type': 'application/json' }
 		});
 		const bytes = new Uint8Array(await response.arrayBuffer());
-		if (response.status !== 200) throw new Error(`POST /api/v1/ocv/evaluate answered ${response.status}: ${new TextDecoder().decode(bytes.subarray(0, 200))}`);
+		if (response.status !== 200)
+			throw new Error(`POST /api/v1/ocv/evaluate answered ${response.status}: ${new TextDecoder().decode(bytes.subarray(0, 200))}`);
 		return bytes;
 	};
 	const results = (JSON.parse(new TextDecoder().decode(await call())) as { results?: unknown[] }).results;
@@ -33,7 +34,11 @@ export async function benchOcvEvaluate(ctx: BenchContext): Promise<BenchLine> {
 	const model = getLibraryModel('NMC');
 	let sink = 0; // keeps the optimiser from dropping the floor's work
 	const compute = () => (sink += evaluateReadings(model, readings, options).length);
-	const result = await interleaved(() => timeMs(call), () => timeMs(compute), { warmup: 3, rounds: 20 });
+	const result = await interleaved(
+		() => timeMs(call),
+		() => timeMs(compute),
+		{ warmup: 3, rounds: 20 }
+	);
 	if (sink === 0) throw new Error('the floor evaluated nothing');
 	return { name: 'ocv-evaluate-10000', value: result.op, floor: result.floor, unit: 'ms', target: { op: '<=', value: 5 } };
 }

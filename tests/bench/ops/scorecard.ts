@@ -33,7 +33,8 @@ export async function benchScorecard(ctx: BenchContext): Promise<BenchLine> {
 	const card = await supplierScorecard(db, supplierId);
 	const { rows } = await pool.query<{ received: string }>(BARE_AGGREGATE, [supplierId]);
 	const received = rows.reduce((n, r) => n + Number(r.received), 0);
-	if (card.totals.lotsReceived !== received) throw new Error(`the scorecard counts ${card.totals.lotsReceived} lots received, the aggregate ${received}`);
+	if (card.totals.lotsReceived !== received)
+		throw new Error(`the scorecard counts ${card.totals.lotsReceived} lots received, the aggregate ${received}`);
 	const result = await interleaved(
 		() => timeMs(() => supplierScorecard(db, supplierId)),
 		() => timeMs(() => pool.query(BARE_AGGREGATE, [supplierId])),

@@ -52,7 +52,8 @@ const KINDS: Record<ErrorKind, number> = {
 	unavailable: 503
 };
 
-const event = (method = 'GET') => ({ request: new Request('http://app.test/api/v1/x', { method }), url: new URL('http://app.test/api/v1/x') }) as RequestEvent;
+const event = (method = 'GET') =>
+	({ request: new Request('http://app.test/api/v1/x', { method }), url: new URL('http://app.test/api/v1/x') }) as RequestEvent;
 
 describe('statusOf', () => {
 	it.each(Object.entries(KINDS))('%s → %i', (kind, status) => {
@@ -117,7 +118,13 @@ describe('the API mapping', () => {
 
 describe('the action and page mapping', () => {
 	it('gives a refusal with the action status, the message and the first field', () => {
-		expect(refusalOf(new Conflict('The lot moved on'))).toEqual({ status: 409, code: 'conflict', message: 'The lot moved on', issues: [], field: null });
+		expect(refusalOf(new Conflict('The lot moved on'))).toEqual({
+			status: 409,
+			code: 'conflict',
+			message: 'The lot moved on',
+			issues: [],
+			field: null
+		});
 		const refusal = refusalOf(invalidFields([{ path: 'part_number', message: 'taken' }]));
 		expect(refusal).toMatchObject({ status: 400, code: 'unprocessable', field: 'part_number' });
 	});
@@ -131,7 +138,9 @@ describe('the action and page mapping', () => {
 	it('puts field issues on a superform and other refusals in its message', async () => {
 		const schema = z.object({ part_number: z.string(), name: z.string() });
 		const form = await superValidate({ part_number: 'P-1', name: 'Cell' }, zod4(schema));
-		expect(refuseForm(form, invalidFields([{ path: 'part_number', message: 'This supplier already has a part with this number' }]))).toBe(400);
+		expect(refuseForm(form, invalidFields([{ path: 'part_number', message: 'This supplier already has a part with this number' }]))).toBe(
+			400
+		);
 		expect(form.errors.part_number).toEqual(['This supplier already has a part with this number']);
 		expect(form.valid).toBe(false);
 
@@ -140,10 +149,13 @@ describe('the action and page mapping', () => {
 		expect(other.message).toBe('Inspection of this part is normal');
 	});
 
-	it.each(CASES.map(([e, status]) => [e.code, e, status] as const))('a load that throws %s shows the error page with its status', async (_code, e, status) => {
-		const thrown = await orErrorPage(Promise.reject(e)).catch((x: unknown) => x);
-		expect(isHttpError(thrown)).toBe(true);
-		expect(isHttpError(thrown) && thrown.status).toBe(status);
-		expect(isHttpError(thrown) && thrown.body).toEqual({ message: e.message, code: e.code });
-	});
+	it.each(CASES.map(([e, status]) => [e.code, e, status] as const))(
+		'a load that throws %s shows the error page with its status',
+		async (_code, e, status) => {
+			const thrown = await orErrorPage(Promise.reject(e)).catch((x: unknown) => x);
+			expect(isHttpError(thrown)).toBe(true);
+			expect(isHttpError(thrown) && thrown.status).toBe(status);
+			expect(isHttpError(thrown) && thrown.body).toEqual({ message: e.message, code: e.code });
+		}
+	);
 });

@@ -49,7 +49,10 @@ describe('ModelCurveChart', () => {
 	});
 
 	it('labels the min-safe line below the window lines', () => {
-		const lineYs = (cls: string) => elements(body, 'line').filter((l) => l.attrs.class === cls).map((l) => num(l.attrs.y1));
+		const lineYs = (cls: string) =>
+			elements(body, 'line')
+				.filter((l) => l.attrs.class === cls)
+				.map((l) => num(l.attrs.y1));
 		const [safeY] = lineYs('min-safe-line');
 		const windowYs = lineYs('window-line');
 		expect(windowYs).toHaveLength(2);

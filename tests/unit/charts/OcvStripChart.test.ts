@@ -63,7 +63,9 @@ describe('OcvStripChart', () => {
 		const cy = (serial: string) => num(dataMarkers(body).find((m) => m.tag === 'circle' && m.title?.startsWith(`${serial}:`))?.attrs.cy);
 		expect(cy('DM-HIGH')).toBeLessThan(cy('DM-00001'));
 		expect(cy('DM-00001')).toBeLessThan(cy('DM-LOW'));
-		const ys = dataMarkers(body).filter((m) => m.tag === 'circle').map((m) => num(m.attrs.cy));
+		const ys = dataMarkers(body)
+			.filter((m) => m.tag === 'circle')
+			.map((m) => num(m.attrs.cy));
 		expect(Math.min(...ys)).toBeGreaterThanOrEqual(30);
 		expect(Math.max(...ys)).toBeLessThanOrEqual(380);
 	});

@@ -61,7 +61,8 @@ describe('TrendChart', () => {
 		expect(words).toContain('rejected (ppm)');
 		expect(words.filter((t) => /^[\d,]+ ppm$/.test(t)).length).toBeGreaterThanOrEqual(3);
 		// triangle paths start at their apex "M{x},{y}"
-		const ppmY = (period: string) => num(/^M[\d.]+,([\d.]+)/.exec(dataMarkers(body, 'triangle').find((m) => m.title?.startsWith(period))?.attrs.d ?? '')?.[1]);
+		const ppmY = (period: string) =>
+			num(/^M[\d.]+,([\d.]+)/.exec(dataMarkers(body, 'triangle').find((m) => m.title?.startsWith(period))?.attrs.d ?? '')?.[1]);
 		expect(ppmY('2025-04')).toBeLessThan(ppmY('2025-01'));
 		const noPpm = render(TrendChart, { props: { points: points.map((p) => ({ ...p, ppm: undefined })) } }).body;
 		expect(dataMarkers(noPpm, 'triangle')).toHaveLength(0);

@@ -34,9 +34,7 @@ export function elements(markup: string, tag?: string): SvgElement[] {
 /** Visible text: every <text> and <tspan> content, with no-break spaces made plain. */
 export function texts(markup: string): string[] {
 	const html = clean(markup);
-	return [...html.matchAll(/<(text|tspan)\b[^>]*>([^<]*)/g)]
-		.map((m) => decode(m[2]).trim())
-		.filter((t) => t.length > 0);
+	return [...html.matchAll(/<(text|tspan)\b[^>]*>([^<]*)/g)].map((m) => decode(m[2]).trim()).filter((t) => t.length > 0);
 }
 
 /** Markers that stand for data (they carry a tooltip); legend markers have none. */

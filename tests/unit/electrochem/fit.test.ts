@@ -63,7 +63,15 @@ describe('fitCombinedModel', () => {
 	});
 
 	it.each([
-		['too few points', { points: [{ soc: 0, ocv_v: 3 }, { soc: 1, ocv_v: 4 }] }],
+		[
+			'too few points',
+			{
+				points: [
+					{ soc: 0, ocv_v: 3 },
+					{ soc: 1, ocv_v: 4 }
+				]
+			}
+		],
 		['soc outside [0, 1]', { points: Array.from({ length: 8 }, (_, i) => ({ soc: i / 5, ocv_v: 3 + i / 10 })) }],
 		['NaN voltage', { points: Array.from({ length: 8 }, (_, i) => ({ soc: i / 7, ocv_v: i === 3 ? NaN : 3 + i / 10 })) }],
 		['unknown chemistry', { chemistry: 'XYZ', points: curve(getLibraryModel('NMC'), 25, 11) }]
@@ -81,7 +89,10 @@ describe('least-squares engine', () => {
 		// simple-statistics linearRegression (ordinary least squares) as an outside reference
 		const xs = [0, 0.1, 0.25, 0.4, 0.55, 0.7, 0.9, 1];
 		const ys = xs.map((x, i) => 2.0 + 0.15 * x + (i % 2 ? 0.003 : -0.002));
-		const ours = leastSquares(xs.map((x) => [1, x]), ys);
+		const ours = leastSquares(
+			xs.map((x) => [1, x]),
+			ys
+		);
 		const ref = linearRegression(xs.map((x, i) => [x, ys[i]]));
 		expect(ours).not.toBeNull();
 		if (ours) {
@@ -92,7 +103,16 @@ describe('least-squares engine', () => {
 
 	it('reports rank deficiency instead of inventing parameters', () => {
 		// a design matrix with dependent columns has no unique least-squares solution (Golub & Van Loan; from memory)
-		expect(leastSquares([[1, 2], [2, 4], [3, 6]], [1, 2, 3])).toBeNull();
+		expect(
+			leastSquares(
+				[
+					[1, 2],
+					[2, 4],
+					[3, 6]
+				],
+				[1, 2, 3]
+			)
+		).toBeNull();
 	});
 
 	it('recovers the Redlich–Kister NiMH coefficients from its own curve', () => {

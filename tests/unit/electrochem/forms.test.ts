@@ -53,7 +53,15 @@ describe('validateModel', () => {
 		expect(validateModel({ ...good, form: 'other' })).toBeNull();
 		expect(validateModel({ ...good, ocv_empty_v: 5 })).toBeNull();
 		expect(validateModel({ ...good, temperature_range_c: [30, 10] })).toBeNull();
-		expect(validateModel({ ...good, entropic_mv_per_k: [[0.5, 0], [0.2, 0]] })).toBeNull();
+		expect(
+			validateModel({
+				...good,
+				entropic_mv_per_k: [
+					[0.5, 0],
+					[0.2, 0]
+				]
+			})
+		).toBeNull();
 		const p = good.params as Record<string, number>;
 		const flipped = { k0: -p.k0, k1: -p.k1, k2: -p.k2, k3: -p.k3, k4: -p.k4, epsilon: p.epsilon };
 		expect(validateModel({ ...good, params: flipped })).toBeNull();

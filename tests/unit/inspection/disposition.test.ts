@@ -3,18 +3,20 @@
 // lithium-ion cells shipped alone by air is from the IATA DG Regulations (PI 965/968 Section IA/IB,
 // from memory) and the "do not recharge a deep-discharged Li-ion cell" rule is common practice.
 import { describe, expect, it } from 'vitest';
-import {
-	decideLot,
-	evaluateLot,
-	samplingPlan,
-	type DispositionInput,
-	type UnitInput,
-	type UnitResult
-} from '../../../src/lib/inspection';
+import { decideLot, evaluateLot, samplingPlan, type DispositionInput, type UnitInput, type UnitResult } from '../../../src/lib/inspection';
 
 const result = (o: Partial<UnitResult> = {}): UnitResult => ({
-	soc: 0.25, soc_sigma: 0.02, soc_low: 0.21, soc_high: 0.29, determinate: true, ocv_cell_v: 3.65,
-	ocv_at_25c_v: 3.65, expected_ocv_v: 3.65, residual_v: 0, flags: [], ...o
+	soc: 0.25,
+	soc_sigma: 0.02,
+	soc_low: 0.21,
+	soc_high: 0.29,
+	determinate: true,
+	ocv_cell_v: 3.65,
+	ocv_at_25c_v: 3.65,
+	expected_ocv_v: 3.65,
+	residual_v: 0,
+	flags: [],
+	...o
 });
 // 13 units with a small, deterministic spread (±3 mV).
 const goodUnits = (n = 13): UnitInput[] =>
@@ -27,8 +29,13 @@ const base = (units = goodUnits()): DispositionInput => ({
 	plan: samplingPlan({ lotSize: 60, aql: 6.5, level: 'II', severity: 'normal' }), // E: n 13, Ac 2, Re 3
 	severity: 'normal',
 	limits: {
-		ocv_min_v: 3.5, ocv_max_v: 3.8, residual_tolerance_v: 0.02, spread_limit_mv: 30, outlier_k: 4,
-		self_discharge_limit_mv_per_day: 3, declared_soc_tolerance: 0.1
+		ocv_min_v: 3.5,
+		ocv_max_v: 3.8,
+		residual_tolerance_v: 0.02,
+		spread_limit_mv: 30,
+		outlier_k: 4,
+		self_discharge_limit_mv_per_day: 3,
+		declared_soc_tolerance: 0.1
 	},
 	units
 });
@@ -60,7 +67,9 @@ describe('decideLot reasons', () => {
 		units = with_(2, { self_discharge_mv_per_day: 5 }, units);
 		const three = decideLot({ ...input, units });
 		expect(three.status).toBe('reject');
-		expect(codes(three)).toEqual(expect.arrayContaining(['nonconforming_over_limit', 'outside_part_window', 'residual_over_tolerance', 'self_discharge_over_limit']));
+		expect(codes(three)).toEqual(
+			expect.arrayContaining(['nonconforming_over_limit', 'outside_part_window', 'residual_over_tolerance', 'self_discharge_over_limit'])
+		);
 		expect(three.nonconforming_serials).toEqual(['RV-001', 'RV-002', 'RV-003']);
 	});
 	it('sample_incomplete -> pending', () => {
@@ -87,7 +96,10 @@ describe('decideLot reasons', () => {
 		expect(decideLot(ok).status).toBe('accept');
 	});
 	it('soc_indeterminate -> hold when most units have no SOC and a rule needs it', () => {
-		const flat = goodUnits().map((u) => ({ ...u, result: result({ determinate: false, soc_low: 0.1, soc_high: 0.9, flags: ['soc_indeterminate'] }) }));
+		const flat = goodUnits().map((u) => ({
+			...u,
+			result: result({ determinate: false, soc_low: 0.1, soc_high: 0.9, flags: ['soc_indeterminate'] })
+		}));
 		const d = decideLot(base(flat));
 		expect(d.status).toBe('hold');
 		expect(codes(d)).toEqual(['soc_indeterminate']);
@@ -173,7 +185,11 @@ describe('evaluateLot', () => {
 		const input = base();
 		const readings = input.units.flatMap((u, i) => [
 			{ serial: u.serial, measured_at: '2025-06-02T09:00:00Z', result: u.result },
-			{ serial: u.serial, measured_at: '2025-06-01T09:00:00Z', result: { ...u.result, ocv_at_25c_v: u.result.ocv_at_25c_v + (i === 5 ? 0.006 : 0.001) } }
+			{
+				serial: u.serial,
+				measured_at: '2025-06-01T09:00:00Z',
+				result: { ...u.result, ocv_at_25c_v: u.result.ocv_at_25c_v + (i === 5 ? 0.006 : 0.001) }
+			}
 		]);
 		const { units: _u, ...rest } = input;
 		const d = evaluateLot({ ...rest, readings });

@@ -12,10 +12,26 @@ import { NORMAL_GRID, diagonalCell } from '../../../src/lib/inspection/iso2859/t
 
 describe('Table I code letters [105E-I]', () => {
 	const cases: Array<[number, InspectionLevel, string]> = [
-		[8, 'II', 'A'], [8, 'III', 'B'], [15, 'II', 'B'], [25, 'S-3', 'B'], [50, 'S-1', 'A'], [90, 'II', 'E'],
-		[150, 'S-4', 'D'], [280, 'I', 'E'], [500, 'III', 'J'], [1200, 'II', 'J'], [1201, 'II', 'K'], [3200, 'II', 'K'],
-		[3201, 'II', 'L'], [10000, 'I', 'J'], [35000, 'S-4', 'H'], [150000, 'II', 'N'], [500000, 'III', 'Q'],
-		[500001, 'III', 'R'], [1_000_000, 'S-1', 'D'], [2, 'S-2', 'A']
+		[8, 'II', 'A'],
+		[8, 'III', 'B'],
+		[15, 'II', 'B'],
+		[25, 'S-3', 'B'],
+		[50, 'S-1', 'A'],
+		[90, 'II', 'E'],
+		[150, 'S-4', 'D'],
+		[280, 'I', 'E'],
+		[500, 'III', 'J'],
+		[1200, 'II', 'J'],
+		[1201, 'II', 'K'],
+		[3200, 'II', 'K'],
+		[3201, 'II', 'L'],
+		[10000, 'I', 'J'],
+		[35000, 'S-4', 'H'],
+		[150000, 'II', 'N'],
+		[500000, 'III', 'Q'],
+		[500001, 'III', 'R'],
+		[1_000_000, 'S-1', 'D'],
+		[2, 'S-2', 'A']
 	];
 	it.each(cases)('lot %i at level %s -> %s', (lot, level, letter) => {
 		expect(codeLetter(lot, level)).toBe(letter);
@@ -26,7 +42,14 @@ type Row = [lot: number, aql: number, letter: string, planLetter: string, n: num
 const check = (severity: 'normal' | 'tightened' | 'reduced', level: InspectionLevel) => (row: Row) => {
 	const [lot, aql, letter, planLetter, n, ac, re] = row;
 	const plan = samplingPlan({ lotSize: lot, aql, level, severity });
-	expect(plan).toEqual({ code_letter: letter, plan_code_letter: planLetter, sample_size: n, accept: ac, reject: re, hundred_percent: false });
+	expect(plan).toEqual({
+		code_letter: letter,
+		plan_code_letter: planLetter,
+		sample_size: n,
+		accept: ac,
+		reject: re,
+		hundred_percent: false
+	});
 };
 
 describe('Table II-A normal, general level II [NIBS]', () => {
@@ -104,7 +127,12 @@ describe('Table II-C reduced (from memory)', () => {
 describe('arrows, 100 % inspection and validation', () => {
 	it('letter A at AQL 0.65 follows the arrow down to F (n 20) and inspects all 5 units (MIL-STD-105E II-A note)', () => {
 		expect(samplingPlan({ lotSize: 5, aql: 0.65, level: 'II', severity: 'normal' })).toEqual({
-			code_letter: 'A', plan_code_letter: 'F', sample_size: 5, accept: 0, reject: 1, hundred_percent: true
+			code_letter: 'A',
+			plan_code_letter: 'F',
+			sample_size: 5,
+			accept: 0,
+			reject: 1,
+			hundred_percent: true
 		});
 	});
 	it('sample equal to the lot is 100 % inspection', () => {

@@ -8,7 +8,8 @@ const lot = (accepted: boolean, nonconforming?: number): SwitchingEntry => {
 	seq += 1;
 	return { lot_id: `LOT-${seq}`, accepted, nonconforming, decided_at: new Date(Date.UTC(2025, 0, seq)).toISOString() };
 };
-const many = (count: number, accepted: boolean, nonconforming?: number) => Array.from({ length: count }, () => lot(accepted, nonconforming));
+const many = (count: number, accepted: boolean, nonconforming?: number) =>
+	Array.from({ length: count }, () => lot(accepted, nonconforming));
 // K at AQL 0.10 -> Ac 0 (score +2 per accepted lot); K at AQL 1.0 -> Ac 3, one step tighter (0.65) Ac 2.
 const ACZERO = { aql: 0.1, code_letter: 'K' as const };
 const ACTHREE = { aql: 1.0, code_letter: 'K' as const };
@@ -39,8 +40,8 @@ describe('tightened -> normal (9.3.2: 5 consecutive lots accepted)', () => {
 describe('discontinuation (9.4: 5 lots not accepted on tightened)', () => {
 	// Two rejections on normal start tightened; the next five rejections (with accepted lots between) count.
 	const four = [lot(false), lot(false), lot(false), lot(true), lot(false), lot(true), lot(false), lot(false)];
-	it("four rejections on tightened are not enough", () => {
-		expect(switchingState(four, ACZERO).severity).toBe("tightened");
+	it('four rejections on tightened are not enough', () => {
+		expect(switchingState(four, ACZERO).severity).toBe('tightened');
 	});
 	const history = [...four, lot(false)];
 	it('discontinues at the fifth cumulative rejection on tightened', () => {

@@ -55,7 +55,10 @@ describe('outbox settings', () => {
 	it('reads its poll interval and attempt budget from the environment with safe defaults', () => {
 		expect(outboxOptionsFromEnv({})).toMatchObject({ pollMs: 2000, maxAttempts: 12 });
 		expect(outboxOptionsFromEnv({ OUTBOX_POLL_MS: '150', OUTBOX_MAX_ATTEMPTS: '1' })).toMatchObject({ pollMs: 150, maxAttempts: 1 });
-		expect(outboxOptionsFromEnv({ OUTBOX_POLL_MS: 'nonsense', OUTBOX_MAX_ATTEMPTS: '0.5' })).toMatchObject({ pollMs: 2000, maxAttempts: 12 });
+		expect(outboxOptionsFromEnv({ OUTBOX_POLL_MS: 'nonsense', OUTBOX_MAX_ATTEMPTS: '0.5' })).toMatchObject({
+			pollMs: 2000,
+			maxAttempts: 12
+		});
 	});
 
 	it('gives every notice one deterministic Message-ID', () => {

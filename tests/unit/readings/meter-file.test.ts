@@ -1,7 +1,15 @@
 // CSV parsing through papaparse (RFC 4180, https://www.rfc-editor.org/rfc/rfc4180), header guessing and
 // column mapping of meter files. Expected values are worked out by hand from the inputs written here.
 import { describe, expect, it } from 'vitest';
-import { CsvSyntaxError, detectDelimiter, guessMapping, mapTable, parseCsv, parseNumber, parseTime } from '../../../src/lib/server/services/meter-file';
+import {
+	CsvSyntaxError,
+	detectDelimiter,
+	guessMapping,
+	mapTable,
+	parseCsv,
+	parseNumber,
+	parseTime
+} from '../../../src/lib/server/services/meter-file';
 import { importMappingSchema } from '../../../src/lib/schemas/readings';
 
 describe('parseCsv', () => {
@@ -75,7 +83,13 @@ describe('parseNumber and parseTime', () => {
 describe('guessMapping and mapTable', () => {
 	it('guesses the columns from a header and the OCV unit from "mV"', () => {
 		expect(guessMapping(['Serial', 'OCV (mV)', 'Temp (°C)', 'ACIR (mΩ)', 'Time'])).toEqual({
-			serial: 0, ocv: 1, ocv_unit: 'mV', temperature: 2, ac_resistance: 3, time: 4, first_row: 1
+			serial: 0,
+			ocv: 1,
+			ocv_unit: 'mV',
+			temperature: 2,
+			ac_resistance: 3,
+			time: 4,
+			first_row: 1
 		});
 		expect(guessMapping(['Barcode', 'Temperature', 'Voltage V'])).toMatchObject({ serial: 0, temperature: 1, ocv: 2, ocv_unit: 'V' });
 	});
@@ -99,8 +113,24 @@ describe('guessMapping and mapTable', () => {
 
 	it('uses the default temperature when the file has no temperature column', () => {
 		const mapping = importMappingSchema.parse({ serial: 0, ocv: 1, default_temperature_c: 22 });
-		expect(mapTable([['s', 'v'], ['B1', '3.3']], mapping).rows).toEqual([{ serial: 'B1', ocv_v: 3.3, temperature_c: 22, ac_resistance_mohm: null, measured_at: null }]);
+		expect(
+			mapTable(
+				[
+					['s', 'v'],
+					['B1', '3.3']
+				],
+				mapping
+			).rows
+		).toEqual([{ serial: 'B1', ocv_v: 3.3, temperature_c: 22, ac_resistance_mohm: null, measured_at: null }]);
 		const none = importMappingSchema.parse({ serial: 0, ocv: 1 });
-		expect(mapTable([['s', 'v'], ['B1', '3.3']], none).errors[0]).toMatchObject({ row: 2, column: 'temperature' });
+		expect(
+			mapTable(
+				[
+					['s', 'v'],
+					['B1', '3.3']
+				],
+				none
+			).errors[0]
+		).toMatchObject({ row: 2, column: 'temperature' });
 	});
 });

@@ -57,7 +57,9 @@ describe('readXlsxTable: the first sheet as text', () => {
 		const bytes = await workbookWith((wb) => {
 			const rich = new RichText();
 			rich.add('Cell ', { bold: true }).add('A&B', { italic: true }).add(' <ok>');
-			wb.sheet(0)!.cell('A1').value(rich as unknown as string);
+			wb.sheet(0)!
+				.cell('A1')
+				.value(rich as unknown as string);
 			wb.sheet(0)!.cell('B1').value('plain');
 		});
 		expect(await readXlsxTable(bytes)).toEqual([['Cell A&B <ok>', 'plain']]);
@@ -65,7 +67,12 @@ describe('readXlsxTable: the first sheet as text', () => {
 
 	it('writes an error value as its code (xlsx-populate reads #N/A cells as a FormulaError but cannot write one)', () => {
 		expect(xlsxCellText(FormulaError.NA)).toBe('#N/A');
-		expect([xlsxCellText(undefined), xlsxCellText(null), xlsxCellText(false), xlsxCellText(0.1 + 0.2)]).toEqual(['', '', 'false', '0.30000000000000004']);
+		expect([xlsxCellText(undefined), xlsxCellText(null), xlsxCellText(false), xlsxCellText(0.1 + 0.2)]).toEqual([
+			'',
+			'',
+			'false',
+			'0.30000000000000004'
+		]);
 	});
 
 	it('reads the first sheet when the workbook has several, and nothing from an empty sheet', async () => {
@@ -86,10 +93,19 @@ describe('readXlsxTable: the first sheet as text', () => {
 describe('an XLSX meter file through the mapping', () => {
 	it('maps 2,000 generated rows to readings: guessed columns, serial-day times, one row number per file row', async () => {
 		const start = 46083.5; // 2026-03-02 12:00 UTC as a spreadsheet serial day (1899-12-30 epoch)
-		const rows = Array.from({ length: 2000 }, (_, i) => [`S-${String(i).padStart(5, '0')}`, 3.6 + (i % 97) / 1000, 20 + (i % 7) * 0.5, start + i / 1440]);
+		const rows = Array.from({ length: 2000 }, (_, i) => [
+			`S-${String(i).padStart(5, '0')}`,
+			3.6 + (i % 97) / 1000,
+			20 + (i % 7) * 0.5,
+			start + i / 1440
+		]);
 		const bytes = await workbookWith((wb) => {
-			wb.sheet(0)!.range('A1:D1').value([['Serial', 'OCV (V)', 'Temperature (°C)', 'Measured at']]);
-			wb.sheet(0)!.range(2, 1, rows.length + 1, 4).value(rows);
+			wb.sheet(0)!
+				.range('A1:D1')
+				.value([['Serial', 'OCV (V)', 'Temperature (°C)', 'Measured at']]);
+			wb.sheet(0)!
+				.range(2, 1, rows.length + 1, 4)
+				.value(rows);
 		});
 		const table = await readXlsxTable(bytes);
 		const guessed = guessMapping(table[0]);
@@ -98,8 +114,20 @@ describe('an XLSX meter file through the mapping', () => {
 		expect(mapped.errors).toEqual([]);
 		expect(mapped.rows.length).toBe(2000);
 		expect(mapped.fileRows[1999]).toBe(2001);
-		expect(mapped.rows[0]).toEqual({ serial: 'S-00000', ocv_v: 3.6, temperature_c: 20, ac_resistance_mohm: null, measured_at: '2026-03-02T12:00:00.000Z' });
+		expect(mapped.rows[0]).toEqual({
+			serial: 'S-00000',
+			ocv_v: 3.6,
+			temperature_c: 20,
+			ac_resistance_mohm: null,
+			measured_at: '2026-03-02T12:00:00.000Z'
+		});
 		// Row 1441 of the data is 1440 minutes = one day later; 1440 % 97 = 82 and 1440 % 7 = 5.
-		expect(mapped.rows[1440]).toEqual({ serial: 'S-01440', ocv_v: 3.6 + 82 / 1000, temperature_c: 22.5, ac_resistance_mohm: null, measured_at: '2026-03-03T12:00:00.000Z' });
+		expect(mapped.rows[1440]).toEqual({
+			serial: 'S-01440',
+			ocv_v: 3.6 + 82 / 1000,
+			temperature_c: 22.5,
+			ac_resistance_mohm: null,
+			measured_at: '2026-03-03T12:00:00.000Z'
+		});
 	});
 });

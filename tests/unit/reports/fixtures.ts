@@ -60,14 +60,28 @@ export function makeReport(overrides: Partial<ReportData> = {}, unitCount = 300)
 			cells_in_parallel: 1,
 			nominal_capacity_ah: 4.8
 		},
-		plan: { code_letter: 'L', plan_code_letter: 'L', sample_size: 200, accept: 3, reject: 4, aql: 0.65, level: 'II', hundred_percent: false },
+		plan: {
+			code_letter: 'L',
+			plan_code_letter: 'L',
+			sample_size: 200,
+			accept: 3,
+			reject: 4,
+			aql: 0.65,
+			level: 'II',
+			hundred_percent: false
+		},
 		severity: 'normal',
 		disposition: {
 			status: 'reject',
 			safety: true,
 			nonconforming: 3,
 			reasons: [
-				{ code: 'DEEP_DISCHARGE', severity: 'reject', message: 'Three units rest below the minimum cell voltage of 2.500 V and must not be recharged.', units: deepAt.map((i) => units[i].serial) },
+				{
+					code: 'DEEP_DISCHARGE',
+					severity: 'reject',
+					message: 'Three units rest below the minimum cell voltage of 2.500 V and must not be recharged.',
+					units: deepAt.map((i) => units[i].serial)
+				},
 				{ code: 'SOC_DECLARED', severity: 'info', message: 'Estimated lot SOC agrees with the declared 30 % within its uncertainty.' }
 			]
 		},

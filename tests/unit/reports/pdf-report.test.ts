@@ -60,7 +60,15 @@ describe('renderInspectionReport', () => {
 
 	it('shows HOLD for a held lot and formats readings to the instrument precision', async () => {
 		const data = makeReport(
-			{ disposition: { status: 'hold', safety: false, nonconforming: 0, reasons: [{ code: 'SOC_HIGH', severity: 'hold', message: 'Estimated SOC is above the declared value.' }] }, decision: null },
+			{
+				disposition: {
+					status: 'hold',
+					safety: false,
+					nonconforming: 0,
+					reasons: [{ code: 'SOC_HIGH', severity: 'hold', message: 'Estimated SOC is above the declared value.' }]
+				},
+				decision: null
+			},
 			12
 		);
 		const file = writeTemp('hold.pdf', await renderInspectionReport(data));
@@ -73,7 +81,10 @@ describe('renderInspectionReport', () => {
 	});
 
 	it('renders a lot without readings, plan or statistics', async () => {
-		const data = makeReport({ plan: null, stats: null, variables: null, disposition: { status: 'pending', safety: false, nonconforming: 0, reasons: [] } }, 0);
+		const data = makeReport(
+			{ plan: null, stats: null, variables: null, disposition: { status: 'pending', safety: false, nonconforming: 0, reasons: [] } },
+			0
+		);
 		const file = writeTemp('empty.pdf', await renderInspectionReport(data));
 		const text = pdfText(file);
 		expect(text).toContain('SAMPLE INCOMPLETE'); // src/lib/status.ts: the verdict word for an incomplete sample
@@ -92,8 +103,17 @@ describe('renderInspectionReport', () => {
 	});
 	it('prints the e-signature manifest of a quality override, and none for the engine’s own decision', async () => {
 		const hash = 'a3f1c09e5b7d2468' + '0'.repeat(48);
-		const signature = { signer: 'Ines Varga <quality@kestrel-mobility.example>', meaning: 'release of a held lot', signed_at: '2031-05-15T10:05:00.000Z', revision: 9, content_sha256: hash, challenge_id: '5e0c2b7a-1f4d-4c3e-9b8a-7d6e5f4c3b2a' };
-		const data = makeReport({ decision: { by: 'Ines Varga', at: signature.signed_at, kind: 'override', reason: 'Summary received and checked', signature } });
+		const signature = {
+			signer: 'Ines Varga <quality@kestrel-mobility.example>',
+			meaning: 'release of a held lot',
+			signed_at: '2031-05-15T10:05:00.000Z',
+			revision: 9,
+			content_sha256: hash,
+			challenge_id: '5e0c2b7a-1f4d-4c3e-9b8a-7d6e5f4c3b2a'
+		};
+		const data = makeReport({
+			decision: { by: 'Ines Varga', at: signature.signed_at, kind: 'override', reason: 'Summary received and checked', signature }
+		});
 		const text = pdfText(writeTemp('signed.pdf', await renderInspectionReport(data)));
 		expect(text).toContain('Electronic signature of the quality decision');
 		expect(text).toContain('Ines Varga');

@@ -14,10 +14,13 @@ export function writeTemp(name: string, bytes: Uint8Array): string {
 export function pdfInfo(file: string): Record<string, string> {
 	const out = execFileSync('pdfinfo', [file], { encoding: 'utf8' });
 	return Object.fromEntries(
-		out.split('\n').filter((line) => line.includes(':')).map((line) => {
-			const at = line.indexOf(':');
-			return [line.slice(0, at).trim(), line.slice(at + 1).trim()];
-		})
+		out
+			.split('\n')
+			.filter((line) => line.includes(':'))
+			.map((line) => {
+				const at = line.indexOf(':');
+				return [line.slice(0, at).trim(), line.slice(at + 1).trim()];
+			})
 	);
 }
 

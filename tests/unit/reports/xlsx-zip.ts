@@ -7,7 +7,12 @@ export interface RawCell {
 }
 
 const decode = (xml: string): string =>
-	xml.replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&quot;/g, '"').replace(/&apos;/g, "'").replace(/&amp;/g, '&');
+	xml
+		.replace(/&lt;/g, '<')
+		.replace(/&gt;/g, '>')
+		.replace(/&quot;/g, '"')
+		.replace(/&apos;/g, "'")
+		.replace(/&amp;/g, '&');
 
 function sharedStrings(xml: string): string[] {
 	return [...xml.matchAll(/<si>([\s\S]*?)<\/si>/g)].map(([, si]) =>

@@ -68,8 +68,30 @@ describe('lotReadingsXlsx', () => {
 
 describe('lotListXlsx', () => {
 	const rows: LotListRow[] = [
-		{ lot_code: 'LV-2031-0457', po_number: 'PO-88120', supplier: 'Ostrand Cellworks Co.', part_number: 'OC-2S1P-21700-48', chemistry: 'NMC', quantity: 3200, status: 'rejected', declared_soc: 0.3, transport: 'air', created_at: '2031-05-02T09:00:00.000Z' },
-		{ lot_code: 'LV-2031-0461', po_number: 'PO-88131', supplier: 'Brindle & Vask Energy', part_number: 'BV-LFP-32140', chemistry: 'LFP', quantity: 480, status: 'on_hold', declared_soc: null, transport: 'sea', created_at: '2031-05-06T11:30:00.000Z' }
+		{
+			lot_code: 'LV-2031-0457',
+			po_number: 'PO-88120',
+			supplier: 'Ostrand Cellworks Co.',
+			part_number: 'OC-2S1P-21700-48',
+			chemistry: 'NMC',
+			quantity: 3200,
+			status: 'rejected',
+			declared_soc: 0.3,
+			transport: 'air',
+			created_at: '2031-05-02T09:00:00.000Z'
+		},
+		{
+			lot_code: 'LV-2031-0461',
+			po_number: 'PO-88131',
+			supplier: 'Brindle & Vask Energy',
+			part_number: 'BV-LFP-32140',
+			chemistry: 'LFP',
+			quantity: 480,
+			status: 'on_hold',
+			declared_soc: null,
+			transport: 'sea',
+			created_at: '2031-05-06T11:30:00.000Z'
+		}
 	];
 
 	it('puts the filter note first, then the header and one row per lot', async () => {

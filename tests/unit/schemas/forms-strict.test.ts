@@ -21,7 +21,10 @@ function files(dir: string, match: (name: string) => boolean): string[] {
 
 /** Every exported zod schema of the shared and route-local schema modules, by name. */
 async function exportedSchemas(): Promise<Map<string, z.ZodType>> {
-	const modules = [...files(join(root, 'src/lib/schemas'), (n) => n.endsWith('.ts')), ...files(join(root, 'src/routes'), (n) => n === 'schemas.ts')];
+	const modules = [
+		...files(join(root, 'src/lib/schemas'), (n) => n.endsWith('.ts')),
+		...files(join(root, 'src/routes'), (n) => n === 'schemas.ts')
+	];
 	const found = new Map<string, z.ZodType>();
 	for (const path of modules) {
 		const mod = (await import(path)) as Record<string, unknown>;
@@ -51,7 +54,8 @@ describe('form posts with number fields', () => {
 				// A schema declared in the route file itself: judged by what it is built from.
 				const hasNumbers = schema
 					? numberFields(zod4(schema as never).jsonSchema as never).size > 0
-					: new RegExp(`const ${name} = z[\\s\\S]*?\\n\\}\\)`).exec(source)?.[0].match(/z\.(number|int|coerce)|wholeNumber|decimal/) !== null;
+					: new RegExp(`const ${name} = z[\\s\\S]*?\\n\\}\\)`).exec(source)?.[0].match(/z\.(number|int|coerce)|wholeNumber|decimal/) !==
+						null;
 				if (hasNumbers) offenders.push(`${relative(root, path)}: ${name}`);
 			}
 		}

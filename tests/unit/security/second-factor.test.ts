@@ -53,7 +53,12 @@ describe('sealing the secret at rest', () => {
 		const [nonce, tag, body] = [bytes.subarray(0, 12), bytes.subarray(12, 28), bytes.subarray(28)];
 		const material = await crypto.subtle.importKey('raw', new TextEncoder().encode(AUTH_SECRET), 'HKDF', false, ['deriveKey']);
 		const key = await crypto.subtle.deriveKey(
-			{ name: 'HKDF', hash: 'SHA-256', salt: new TextEncoder().encode('restvolt'), info: new TextEncoder().encode('restvolt second-factor secret v1') },
+			{
+				name: 'HKDF',
+				hash: 'SHA-256',
+				salt: new TextEncoder().encode('restvolt'),
+				info: new TextEncoder().encode('restvolt second-factor secret v1')
+			},
 			material,
 			{ name: 'AES-GCM', length: 256 },
 			false,
@@ -113,6 +118,12 @@ describe('TOTP codes (RFC 6238 Appendix B, SHA-1, last 6 of the 8 digits)', () =
 		expect(uri.protocol).toBe('otpauth:');
 		expect(uri.host).toBe('totp');
 		expect(decodeURIComponent(uri.pathname)).toBe('/Restvolt:quality@example.test');
-		expect(Object.fromEntries(uri.searchParams)).toMatchObject({ secret: RFC_SEED, issuer: 'Restvolt', algorithm: 'SHA1', digits: '6', period: '30' });
+		expect(Object.fromEntries(uri.searchParams)).toMatchObject({
+			secret: RFC_SEED,
+			issuer: 'Restvolt',
+			algorithm: 'SHA1',
+			digits: '6',
+			period: '30'
+		});
 	});
 });

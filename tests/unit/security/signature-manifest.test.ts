@@ -54,6 +54,8 @@ describe('signature manifest', () => {
 			hash_algorithm: 'SHA-256',
 			content_sha256: contentHash(signed)
 		});
-		expect(signatureManifest({ id: 'u-7', name: null, email: 'q@x.example' }, { ...signed, decision: 'reject' }, 'c-2', at).meaning).toBe('rejection of a held lot');
+		expect(signatureManifest({ id: 'u-7', name: null, email: 'q@x.example' }, { ...signed, decision: 'reject' }, 'c-2', at).meaning).toBe(
+			'rejection of a held lot'
+		);
 	});
 });

@@ -42,9 +42,7 @@ describe('no SQL built from strings', () => {
 	it('the app, its seed and its services contain none of them', () => {
 		const files = [...walk(join(root, 'src')), ...walk(join(root, 'seed'))];
 		expect(files.length).toBeGreaterThan(20);
-		const offending = files.flatMap((file) =>
-			findings(readFileSync(file, 'utf8')).map((rule) => `${relative(root, file)}: ${rule}`)
-		);
+		const offending = files.flatMap((file) => findings(readFileSync(file, 'utf8')).map((rule) => `${relative(root, file)}: ${rule}`));
 		expect(offending).toEqual([]);
 	});
 });

@@ -51,7 +51,18 @@ describe('sniff', () => {
 
 	it('reads HTML as HTML even after a BOM and white space, whatever tag opens it', () => {
 		expect(sniff(HTML)).toBe('html');
-		for (const opening of ['<html>', '<HEAD>', '<script src=x>', '<iframe ', '<p>', '<a href=x>', '<!-- x -->', '<body>', '<br>', '<TITLE>']) {
+		for (const opening of [
+			'<html>',
+			'<HEAD>',
+			'<script src=x>',
+			'<iframe ',
+			'<p>',
+			'<a href=x>',
+			'<!-- x -->',
+			'<body>',
+			'<br>',
+			'<TITLE>'
+		]) {
 			expect(sniff(text(`  ${opening}hello`)), opening).toBe('html');
 		}
 		expect(sniff(text('<?xml version="1.0"?><svg/>'))).toBe('xml');
@@ -128,7 +139,10 @@ describe('checkUpload', () => {
 	});
 
 	it('refuses empty and oversized files before looking at the content', () => {
-		expect(refusal(checkUpload('lot_document', { name: 'a.pdf', declaredType: '', bytes: new Uint8Array() }))).toMatchObject({ status: 400, code: 'empty_file' });
+		expect(refusal(checkUpload('lot_document', { name: 'a.pdf', declaredType: '', bytes: new Uint8Array() }))).toMatchObject({
+			status: 400,
+			code: 'empty_file'
+		});
 		const big = new Uint8Array(UPLOAD_USES.lot_document.maxBytes + 1);
 		big.set(PDF);
 		const r = refusal(checkUpload('lot_document', { name: 'big.pdf', declaredType: 'application/pdf', bytes: big }));
@@ -150,9 +164,21 @@ describe('checkUpload', () => {
 	});
 
 	it('keeps each use to its own allow-list', async () => {
-		expect(refusal(checkUpload('lot_document', { name: 'a.csv', declaredType: 'text/csv', bytes: CSV }))).toMatchObject({ status: 415, code: 'unsupported_type' });
-		expect(refusal(checkUpload('meter_file', { name: 'a.png', declaredType: 'image/png', bytes: PNG }))).toMatchObject({ status: 415, code: 'unsupported_type' });
-		expect(refusal(checkUpload('supplier_reply', { name: 'a.docx', declaredType: '', bytes: wordZip() }))).toMatchObject({ status: 415, code: 'unsupported_type' });
-		expect(refusal(checkUpload('meter_file', { name: 'meter.csv', declaredType: 'text/csv', bytes: await workbook() }))).toMatchObject({ status: 415, code: 'type_mismatch' });
+		expect(refusal(checkUpload('lot_document', { name: 'a.csv', declaredType: 'text/csv', bytes: CSV }))).toMatchObject({
+			status: 415,
+			code: 'unsupported_type'
+		});
+		expect(refusal(checkUpload('meter_file', { name: 'a.png', declaredType: 'image/png', bytes: PNG }))).toMatchObject({
+			status: 415,
+			code: 'unsupported_type'
+		});
+		expect(refusal(checkUpload('supplier_reply', { name: 'a.docx', declaredType: '', bytes: wordZip() }))).toMatchObject({
+			status: 415,
+			code: 'unsupported_type'
+		});
+		expect(refusal(checkUpload('meter_file', { name: 'meter.csv', declaredType: 'text/csv', bytes: await workbook() }))).toMatchObject({
+			status: 415,
+			code: 'type_mismatch'
+		});
 	});
 });

@@ -10,11 +10,7 @@ export function decimalsForStep(step: number, min: number, max: number): number 
 }
 
 /** Ticks of a linear scale, placed and labelled. */
-export function linearTicks(
-	scale: ScaleLinear<number, number>,
-	count: number,
-	format: (value: number, step: number) => string
-): Tick[] {
+export function linearTicks(scale: ScaleLinear<number, number>, count: number, format: (value: number, step: number) => string): Tick[] {
 	const values = scale.ticks(count);
 	const step = values.length > 1 ? values[1] - values[0] : 1;
 	return values.map((value) => ({ value, pos: Math.round(scale(value) * 100) / 100, label: format(value, step) }));
@@ -34,11 +30,7 @@ export function countTicks(scale: ScaleLinear<number, number>, count: number): T
  * Domain that covers every finite value with `padFraction` of the span on each side.
  * `minSpan` keeps a single value (or a perfectly uniform lot) from collapsing the axis.
  */
-export function paddedDomain(
-	values: Array<number | null | undefined>,
-	padFraction: number,
-	minSpan: number
-): [number, number] {
+export function paddedDomain(values: Array<number | null | undefined>, padFraction: number, minSpan: number): [number, number] {
 	const range = extent(values.filter((v): v is number => typeof v === 'number'));
 	if (!range) return [0, minSpan];
 	let [lo, hi] = range;

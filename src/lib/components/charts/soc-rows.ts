@@ -19,9 +19,7 @@ export interface SocRow {
 
 /** Units ranked by SOC (highest first), evenly thinned to at most `limit` rows. */
 export function socRows(units: SocUnit[], limit = ROW_LIMIT): SocRow[] {
-	const ranked = [...units]
-		.sort((a, b) => b.soc - a.soc || a.serial.localeCompare(b.serial))
-		.map((unit, i) => ({ unit, rank: i + 1 }));
+	const ranked = [...units].sort((a, b) => b.soc - a.soc || a.serial.localeCompare(b.serial)).map((unit, i) => ({ unit, rank: i + 1 }));
 	return evenSample(ranked, limit);
 }
 

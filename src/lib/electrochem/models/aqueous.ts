@@ -40,7 +40,10 @@ export const NIMH: OcvModel = {
 	// strong hysteresis and slow relaxation of the nickel electrode
 	sigma_model_v: 0.015,
 	temperature_range_c: [10, 35],
-	entropic_mv_per_k: [[0, -0.5], [1, -0.4]],
+	entropic_mv_per_k: [
+		[0, -0.5],
+		[1, -0.4]
+	],
 	source: `${RK_FORM_NOTE} ${ANCHOR_NOTE} Nominal 1.2 V and limits: common practice. ${ENTROPIC_NOTE}`,
 	ocv_information: 'poor'
 };
@@ -58,7 +61,10 @@ export const NICD: OcvModel = {
 	max_v: 1.45,
 	sigma_model_v: 0.015,
 	temperature_range_c: [10, 35],
-	entropic_mv_per_k: [[0, -0.5], [1, -0.5]],
+	entropic_mv_per_k: [
+		[0, -0.5],
+		[1, -0.5]
+	],
 	source: `${RK_FORM_NOTE} ${ANCHOR_NOTE} Nominal 1.2 V and limits: common practice. ${ENTROPIC_NOTE}`,
 	ocv_information: 'poor'
 };
@@ -78,7 +84,10 @@ export const PBACID: OcvModel = {
 	max_v: 2.2,
 	sigma_model_v: 0.01,
 	temperature_range_c: [0, 40],
-	entropic_mv_per_k: [[0, -0.1], [1, 0.2]],
+	entropic_mv_per_k: [
+		[0, -0.1],
+		[1, 0.2]
+	],
 	source:
 		`${COMBINED_FORM_NOTE} Linear special case from OCV per cell ≈ SG + 0.84 V, SG ${LEAD_ACID_SG_EMPTY} empty to ${LEAD_ACID_SG_FULL} full ` +
 		`(common practice). Limits: common practice. ${ENTROPIC_NOTE}`,

@@ -28,7 +28,13 @@ export const LCO = liIon({
 	min_safe_v: 2.5,
 	max_v: 4.25,
 	sigma_model_v: 0.005,
-	entropic_mv_per_k: [[0, -0.2], [0.3, -0.1], [0.5, 0.05], [0.8, 0.1], [1, 0.05]],
+	entropic_mv_per_k: [
+		[0, -0.2],
+		[0.3, -0.1],
+		[0.5, 0.05],
+		[0.8, 0.1],
+		[1, 0.05]
+	],
 	ocv_information: 'good'
 });
 
@@ -42,7 +48,14 @@ export const NMC = liIon({
 	min_safe_v: 2.5,
 	max_v: 4.25,
 	sigma_model_v: 0.005,
-	entropic_mv_per_k: [[0, -0.4], [0.2, -0.2], [0.4, -0.1], [0.6, -0.05], [0.8, 0], [1, 0.05]],
+	entropic_mv_per_k: [
+		[0, -0.4],
+		[0.2, -0.2],
+		[0.4, -0.1],
+		[0.6, -0.05],
+		[0.8, 0],
+		[1, 0.05]
+	],
 	ocv_information: 'good'
 });
 
@@ -56,7 +69,12 @@ export const NCA = liIon({
 	min_safe_v: 2.5,
 	max_v: 4.25,
 	sigma_model_v: 0.005,
-	entropic_mv_per_k: [[0, -0.3], [0.3, -0.15], [0.6, -0.05], [1, 0]],
+	entropic_mv_per_k: [
+		[0, -0.3],
+		[0.3, -0.15],
+		[0.6, -0.05],
+		[1, 0]
+	],
 	ocv_information: 'good'
 });
 
@@ -70,7 +88,11 @@ export const LMO = liIon({
 	min_safe_v: 2.5,
 	max_v: 4.25,
 	sigma_model_v: 0.006,
-	entropic_mv_per_k: [[0, -0.3], [0.5, -0.1], [1, 0]],
+	entropic_mv_per_k: [
+		[0, -0.3],
+		[0.5, -0.1],
+		[1, 0]
+	],
 	ocv_information: 'good'
 });
 
@@ -86,7 +108,13 @@ export const LFP = liIon({
 	max_v: 3.65,
 	// hysteresis between charge and discharge branches is tens of mV on the plateau
 	sigma_model_v: 0.012,
-	entropic_mv_per_k: [[0, -0.1], [0.2, -0.05], [0.5, -0.03], [0.8, -0.05], [1, -0.1]],
+	entropic_mv_per_k: [
+		[0, -0.1],
+		[0.2, -0.05],
+		[0.5, -0.03],
+		[0.8, -0.05],
+		[1, -0.1]
+	],
 	ocv_information: 'poor'
 });
 
@@ -100,6 +128,9 @@ export const LTO = liIon({
 	min_safe_v: 1.5,
 	max_v: 2.85,
 	sigma_model_v: 0.008,
-	entropic_mv_per_k: [[0, -0.1], [1, -0.05]],
+	entropic_mv_per_k: [
+		[0, -0.1],
+		[1, -0.05]
+	],
 	ocv_information: 'good'
 });

@@ -17,7 +17,15 @@ const PRIMARY = {
 } as const;
 
 function primary(m: Omit<OcvModel, keyof typeof PRIMARY>): OcvModel {
-	return { ...PRIMARY, ...m, temperature_range_c: [10, 35], entropic_mv_per_k: [[0, 0], [1, 0]] };
+	return {
+		...PRIMARY,
+		...m,
+		temperature_range_c: [10, 35],
+		entropic_mv_per_k: [
+			[0, 0],
+			[1, 0]
+		]
+	};
 }
 
 export const ALKALINE = primary({

@@ -10,13 +10,7 @@ import {
 	tableOneLetter,
 	type Cell
 } from './tables';
-import {
-	InspectionInputError,
-	type CodeLetter,
-	type InspectionLevel,
-	type SamplingPlan,
-	type Severity
-} from '../types';
+import { InspectionInputError, type CodeLetter, type InspectionLevel, type SamplingPlan, type Severity } from '../types';
 
 const LEVELS: readonly InspectionLevel[] = ['I', 'II', 'III', 'S-1', 'S-2', 'S-3', 'S-4'];
 const SEVERITIES: readonly Severity[] = ['normal', 'tightened', 'reduced'];

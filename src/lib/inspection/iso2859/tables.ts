@@ -12,25 +12,52 @@ import type { CodeLetter, InspectionLevel } from '../types';
 
 /** Preferred AQL series (percent nonconforming up to 10, nonconformities per 100 units above). */
 export const AQL_SERIES = [
-	0.01, 0.015, 0.025, 0.04, 0.065, 0.1, 0.15, 0.25, 0.4, 0.65, 1.0, 1.5, 2.5, 4.0, 6.5, 10, 15, 25, 40, 65,
-	100, 150, 250, 400, 650, 1000
+	0.01, 0.015, 0.025, 0.04, 0.065, 0.1, 0.15, 0.25, 0.4, 0.65, 1.0, 1.5, 2.5, 4.0, 6.5, 10, 15, 25, 40, 65, 100, 150, 250, 400, 650, 1000
 ] as const;
 
 /** Code letters in table order; S exists only in the tightened table (II-B), reached by an arrow. */
-export const LETTERS: readonly CodeLetter[] = [
-	'A', 'B', 'C', 'D', 'E', 'F', 'G', 'H', 'J', 'K', 'L', 'M', 'N', 'P', 'Q', 'R', 'S'
-];
+export const LETTERS: readonly CodeLetter[] = ['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H', 'J', 'K', 'L', 'M', 'N', 'P', 'Q', 'R', 'S'];
 
 /** Sample sizes of normal and tightened plans (Tables II-A, II-B). */
 export const SAMPLE_SIZE: Readonly<Record<CodeLetter, number>> = {
-	A: 2, B: 3, C: 5, D: 8, E: 13, F: 20, G: 32, H: 50, J: 80, K: 125, L: 200, M: 315, N: 500, P: 800,
-	Q: 1250, R: 2000, S: 3150
+	A: 2,
+	B: 3,
+	C: 5,
+	D: 8,
+	E: 13,
+	F: 20,
+	G: 32,
+	H: 50,
+	J: 80,
+	K: 125,
+	L: 200,
+	M: 315,
+	N: 500,
+	P: 800,
+	Q: 1250,
+	R: 2000,
+	S: 3150
 };
 
 /** Sample sizes of reduced plans (Table II-C): the normal size two letters earlier, never below 2. */
 export const REDUCED_SAMPLE_SIZE: Readonly<Record<CodeLetter, number>> = {
-	A: 2, B: 2, C: 2, D: 3, E: 5, F: 8, G: 13, H: 20, J: 32, K: 50, L: 80, M: 125, N: 200, P: 315,
-	Q: 500, R: 800, S: 800
+	A: 2,
+	B: 2,
+	C: 2,
+	D: 3,
+	E: 5,
+	F: 8,
+	G: 13,
+	H: 20,
+	J: 32,
+	K: 50,
+	L: 80,
+	M: 125,
+	N: 200,
+	P: 315,
+	Q: 500,
+	R: 800,
+	S: 800
 };
 
 /** Table I: upper bound of each lot-size range and its letter per level (columns S-1..S-4, I, II, III). */
@@ -141,11 +168,7 @@ export const DIAGONAL_SEQUENCE: Readonly<Record<'normal' | 'tightened' | 'reduce
 const WIDE_LAST_ROW = 4;
 
 /** Cell generated from the diagonal structure; also answers for rows just past the table's edges. */
-export function diagonalCell(
-	severity: 'normal' | 'tightened' | 'reduced',
-	letterIndex: number,
-	aqlIndex: number
-): Cell {
+export function diagonalCell(severity: 'normal' | 'tightened' | 'reduced', letterIndex: number, aqlIndex: number): Cell {
 	const pattern = DIAGONAL_SEQUENCE[severity];
 	const offset = letterIndex + aqlIndex - pattern.first;
 	if (offset < 0) return 'down';

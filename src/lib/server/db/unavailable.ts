@@ -17,13 +17,20 @@ const UNAVAILABLE_CODES = new Set([
 	'ETIMEDOUT',
 	'EHOSTUNREACH'
 ]);
-const UNAVAILABLE_MESSAGE = /Connection terminated|terminating connection due to administrator command|Client has encountered a connection error|the database system is (starting up|shutting down)/;
+const UNAVAILABLE_MESSAGE =
+	/Connection terminated|terminating connection due to administrator command|Client has encountered a connection error|the database system is (starting up|shutting down)/;
 
 export function isDatabaseUnavailable(error: unknown): boolean {
 	// Drizzle wraps the driver's error as `cause`, Auth.js as `cause.err`; a refused connect to
 	// several addresses is an AggregateError.
 	for (let e: unknown = error, depth = 0; e && typeof e === 'object' && depth < 6; depth++) {
-		const { code, message, errors, err, cause } = e as { code?: unknown; message?: unknown; errors?: unknown; err?: unknown; cause?: unknown };
+		const { code, message, errors, err, cause } = e as {
+			code?: unknown;
+			message?: unknown;
+			errors?: unknown;
+			err?: unknown;
+			cause?: unknown;
+		};
 		if (typeof code === 'string' && UNAVAILABLE_CODES.has(code)) return true;
 		if (typeof message === 'string' && UNAVAILABLE_MESSAGE.test(message)) return true;
 		e = cause ?? err ?? (Array.isArray(errors) ? errors[0] : undefined);

@@ -69,13 +69,25 @@ export async function markSent(db: Database, notice: OutboxNotice, attempt: numb
 }
 
 /** Record a failed attempt; after the job's last attempt the notice is 'failed' (graphile-worker keeps the job). */
-export async function markAttemptFailed(db: Database, notice: OutboxNotice, attempt: number, lastAttempt: boolean, error: string): Promise<void> {
+export async function markAttemptFailed(
+	db: Database,
+	notice: OutboxNotice,
+	attempt: number,
+	lastAttempt: boolean,
+	error: string
+): Promise<void> {
 	await db
 		.update(notices)
 		.set(lastAttempt ? { status: 'failed', attempts: attempt, lastError: error } : { attempts: attempt, lastError: error })
 		.where(and(eq(notices.id, notice.id), eq(notices.status, 'pending')));
 	if (lastAttempt) {
-		await recordAudit(db, { action: 'notice.failed', entityType: 'notice', entityId: notice.id, lotId: notice.lotId, details: { attempts: attempt, error } });
+		await recordAudit(db, {
+			action: 'notice.failed',
+			entityType: 'notice',
+			entityId: notice.id,
+			lotId: notice.lotId,
+			details: { attempts: attempt, error }
+		});
 	}
 }
 
@@ -97,14 +109,16 @@ export interface OutboxRow {
 /** For the admin page: everything not yet sent, then the latest sent ones. */
 export async function listOutbox(db: Database, sentLimit = 20): Promise<{ open: OutboxRow[]; sent: OutboxRow[] }> {
 	// The next attempt is the waiting job's run_at (none once sent or given up).
-	const nextAttemptAt = sql<string | null>`(select j.run_at from graphile_worker.jobs j where j.key = 'notice:' || ${notices.id} and j.attempts < j.max_attempts)`;
+	const nextAttemptAt = sql<
+		string | null
+	>`(select j.run_at from graphile_worker.jobs j where j.key = 'notice:' || ${notices.id} and j.attempts < j.max_attempts)`;
 	const select = () =>
-		db
-			.select({ n: notices, lotCode: lots.lotCode, nextAttemptAt })
-			.from(notices)
-			.innerJoin(lots, eq(lots.id, notices.lotId));
+		db.select({ n: notices, lotCode: lots.lotCode, nextAttemptAt }).from(notices).innerJoin(lots, eq(lots.id, notices.lotId));
 	const [open, sent] = await Promise.all([
-		select().where(inArray(notices.status, ['pending', 'failed'])).orderBy(asc(notices.createdAt)).limit(500),
+		select()
+			.where(inArray(notices.status, ['pending', 'failed']))
+			.orderBy(asc(notices.createdAt))
+			.limit(500),
 		select().where(eq(notices.status, 'sent')).orderBy(desc(notices.sentAt)).limit(sentLimit)
 	]);
 	const shape = ({ n, lotCode, nextAttemptAt }: { n: OutboxNotice; lotCode: string; nextAttemptAt: string | null }): OutboxRow => ({
@@ -137,7 +151,14 @@ export async function retryFailedNotice(db: Database, id: string, actor: { id: s
 			.returning({ id: notices.id, lotId: notices.lotId });
 		if (!row) return false;
 		await enqueueNoticeSend(tx, id);
-		await recordAudit(tx, { actorId: actor.id, actorEmail: actor.email, action: 'notice.retry', entityType: 'notice', entityId: id, lotId: row.lotId });
+		await recordAudit(tx, {
+			actorId: actor.id,
+			actorEmail: actor.email,
+			action: 'notice.retry',
+			entityType: 'notice',
+			entityId: id,
+			lotId: row.lotId
+		});
 		return true;
 	});
 }

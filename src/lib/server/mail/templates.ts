@@ -69,7 +69,9 @@ export function noticeCautions(n: Pick<NoticeInput, 'status' | 'lithium' | 'safe
 		'A lithium-ion cell that has rested below its minimum voltage must not be recharged: it may have internal damage and can heat up when charged.',
 		'Returning cells is a dangerous-goods shipment. Damaged or defective lithium cells and batteries fall under special provisions and are generally not accepted by air. Lithium-ion cells and batteries shipped by air packed on their own must be at no more than 30 % SOC.'
 	];
-	cautions.push('Follow your site procedure, local codes and the current dangerous-goods regulations before handling or shipping these units.');
+	cautions.push(
+		'Follow your site procedure, local codes and the current dangerous-goods regulations before handling or shipping these units.'
+	);
 	return cautions;
 }
 
@@ -97,7 +99,12 @@ function textBody(n: NoticeInput): string {
 	lines.push('', 'What we ask of you:', ...actionsFor(n).map((a) => `- ${a}`));
 	const cautions = noticeCautions(n);
 	if (cautions.length) lines.push('', 'Handling cautions:', ...cautions.map((c) => `- ${c}`));
-	lines.push('', `The inspection report is attached as a PDF. Supplier portal: ${n.portalUrl}`, '', `${n.companyName} receiving inspection (sent by Restvolt)`);
+	lines.push(
+		'',
+		`The inspection report is attached as a PDF. Supplier portal: ${n.portalUrl}`,
+		'',
+		`${n.companyName} receiving inspection (sent by Restvolt)`
+	);
 	return lines.join('\n');
 }
 

@@ -14,7 +14,15 @@ import { notices } from '../db/schema';
 import { renderInspectionReport } from '../reports';
 import { buildReportData } from '../services/report-data';
 import { createTransport, mailFrom } from './transport';
-import { markAttemptFailed, markSent, noticeMessageId, outboxOptionsFromEnv, SEND_NOTICE_TASK, type OutboxNotice, type OutboxOptions } from './outbox';
+import {
+	markAttemptFailed,
+	markSent,
+	noticeMessageId,
+	outboxOptionsFromEnv,
+	SEND_NOTICE_TASK,
+	type OutboxNotice,
+	type OutboxOptions
+} from './outbox';
 
 async function reportAttachment(notice: OutboxNotice) {
 	// The report as of the notice's own decision, even when the mail goes out after a later one.

@@ -67,7 +67,9 @@ function drawReason(cursor: Cursor, reason: ReportReason): void {
 	cursor.ensure(lines.length * 12 + 12);
 	const style = { size: 7.5, color: reason.severity === 'info' ? palette.inkSoft : TONE[reason.severity].ink, strong: true };
 	drawText(cursor.page, cursor.fonts, REASON_SEVERITY[reason.severity].word.toUpperCase(), MARGIN, cursor.y - 9, style);
-	lines.forEach((line, i) => drawText(cursor.page, cursor.fonts, line, MARGIN + tagWidth, cursor.y - 9 - i * 12, { size: 9, color: palette.ink }));
+	lines.forEach((line, i) =>
+		drawText(cursor.page, cursor.fonts, line, MARGIN + tagWidth, cursor.y - 9 - i * 12, { size: 9, color: palette.ink })
+	);
 	cursor.gap(lines.length * 12);
 	drawText(cursor.page, cursor.fonts, codeLine, MARGIN + tagWidth, cursor.y - 7, { size: 7, color: palette.inkSoft });
 	cursor.gap(13);

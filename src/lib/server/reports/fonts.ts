@@ -24,10 +24,7 @@ function fontPath(script: 'latin' | 'greek'): string {
 
 export async function embedFonts(doc: PDFDocument): Promise<FontSet> {
 	doc.registerFontkit(fontkit);
-	const [latinBytes, greekBytes] = await Promise.all([
-		readFile(fontPath('latin')),
-		readFile(fontPath('greek'))
-	]);
+	const [latinBytes, greekBytes] = await Promise.all([readFile(fontPath('latin')), readFile(fontPath('greek'))]);
 	const latin = await doc.embedFont(latinBytes, { subset: true });
 	const greek = await doc.embedFont(greekBytes, { subset: true });
 	const latinGlyphs = fontkit.create(latinBytes) as unknown as GlyphSource;

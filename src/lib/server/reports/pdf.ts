@@ -55,7 +55,11 @@ function setMetadata(doc: PDFDocument, data: ReportData): void {
 
 function drawTitle(cursor: Cursor, data: ReportData): void {
 	const { page, fonts } = cursor;
-	drawText(page, fonts, fitText(fonts, `Lot ${data.lot.lot_code}`, 20, CONTENT_WIDTH), MARGIN, cursor.y - 18, { size: 20, color: palette.ink, strong: true });
+	drawText(page, fonts, fitText(fonts, `Lot ${data.lot.lot_code}`, 20, CONTENT_WIDTH), MARGIN, cursor.y - 18, {
+		size: 20,
+		color: palette.ink,
+		strong: true
+	});
 	const subtitle = `${data.supplier.name} · ${data.part.part_number} · PO ${data.lot.po_number} · prepared for ${data.company.name}`;
 	drawText(page, fonts, fitText(fonts, subtitle, 9, CONTENT_WIDTH), MARGIN, cursor.y - 33, { size: 9, color: palette.inkSoft });
 	cursor.gap(46);

@@ -22,7 +22,9 @@ export function linearAxis(values: number[], range: [number, number], tickCount:
 
 /** Unit index axis (1…n): whole-number ticks only. */
 export function indexAxis(count: number, range: [number, number]): Axis {
-	const scale = scaleLinear().domain([0.5, Math.max(count, 1) + 0.5]).range(range);
+	const scale = scaleLinear()
+		.domain([0.5, Math.max(count, 1) + 0.5])
+		.range(range);
 	const ticks = count === 0 ? [] : scaleLinear().domain([1, count]).ticks(8).filter(Number.isInteger);
 	return { toPage: (v) => scale(v), ticks, decimals: 0 };
 }

@@ -44,7 +44,14 @@ export function drawOcvPlot(page: PDFPage, fonts: FontSet, box: PlotBox, data: R
 		if (unit.nonconforming) cross(page, x, y, 2.6, palette.reject, 1.1);
 		else dot(page, x, y, 1.7, palette.teal);
 	});
-	page.drawRectangle({ x: frame.left, y: frame.bottom, width: frame.right - frame.left, height: frame.top - frame.bottom, borderColor: palette.inkSoft, borderWidth: 0.6 });
+	page.drawRectangle({
+		x: frame.left,
+		y: frame.bottom,
+		width: frame.right - frame.left,
+		height: frame.top - frame.bottom,
+		borderColor: palette.inkSoft,
+		borderWidth: 0.6
+	});
 	drawAxisTitles(page, fonts, frame);
 	drawLegend(page, fonts, box.x + LEFT_GUTTER, box.y + 2);
 }
@@ -54,7 +61,8 @@ type Frame = { left: number; right: number; bottom: number; top: number };
 function drawWindowBand(page: PDFPage, frame: Frame, yAxis: Axis, min: number, max: number): void {
 	const low = Math.max(frame.bottom, yAxis.toPage(min));
 	const high = Math.min(frame.top, yAxis.toPage(max));
-	if (high > low) page.drawRectangle({ x: frame.left, y: low, width: frame.right - frame.left, height: high - low, color: palette.tealMist });
+	if (high > low)
+		page.drawRectangle({ x: frame.left, y: low, width: frame.right - frame.left, height: high - low, color: palette.tealMist });
 }
 
 function drawGrid(page: PDFPage, fonts: FontSet, frame: Frame, xAxis: Axis, yAxis: Axis): void {
@@ -117,7 +125,13 @@ function drawLegend(page: PDFPage, fonts: FontSet, x: number, y: number): void {
 	cursor += 9 + drawText(page, fonts, 'conforming unit', cursor + 9, mid, style) + 16;
 	cross(page, cursor + 3, mid + 2.5, 2.6, palette.reject, 1.1);
 	cursor += 9 + drawText(page, fonts, 'nonconforming unit', cursor + 9, mid, style) + 16;
-	page.drawLine({ start: { x: cursor, y: mid + 2.5 }, end: { x: cursor + 16, y: mid + 2.5 }, thickness: 0.9, color: palette.teal, dashArray: [4, 3] });
+	page.drawLine({
+		start: { x: cursor, y: mid + 2.5 },
+		end: { x: cursor + 16, y: mid + 2.5 },
+		thickness: 0.9,
+		color: palette.teal,
+		dashArray: [4, 3]
+	});
 	cursor += 20 + drawText(page, fonts, 'part window', cursor + 20, mid, style) + 16;
 	page.drawLine({ start: { x: cursor, y: mid + 2.5 }, end: { x: cursor + 16, y: mid + 2.5 }, thickness: 1, color: palette.tealDeep });
 	drawText(page, fonts, 'expected OCV at declared SOC', cursor + 20, mid, style);

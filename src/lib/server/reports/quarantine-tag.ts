@@ -96,7 +96,15 @@ function drawCaution(page: PDFPage, fonts: FontSet, tag: TagData): void {
 	const [width] = A6_LANDSCAPE;
 	const lines = wrapText(fonts, tagCaution(tag), 8.5, width - 2 * EDGE - 36).slice(0, 4);
 	const boxHeight = Math.max(34, lines.length * 10.5 + 16);
-	page.drawRectangle({ x: EDGE, y: EDGE, width: width - 2 * EDGE, height: boxHeight, color: palette.holdMist, borderColor: palette.hold, borderWidth: 0.8 });
+	page.drawRectangle({
+		x: EDGE,
+		y: EDGE,
+		width: width - 2 * EDGE,
+		height: boxHeight,
+		color: palette.holdMist,
+		borderColor: palette.hold,
+		borderWidth: 0.8
+	});
 	triangle(page, EDGE + 14, EDGE + boxHeight - 16, 8, palette.hold);
 	drawText(page, fonts, '!', EDGE + 12.6, EDGE + boxHeight - 20.5, { size: 9, color: palette.white, strong: true });
 	lines.forEach((line, i) => drawText(page, fonts, line, EDGE + 30, EDGE + boxHeight - 14 - i * 10.5, { size: 8.5, color: palette.ink }));

@@ -10,7 +10,8 @@ import type { ReportUnit } from './types';
 
 /** SOC with its 1σ spread, or the plausible range when the OCV curve is too flat to decide. */
 function socCell(unit: ReportUnit): string {
-	if (!unit.determinate) return `${VERDICT.indeterminate.word.toLowerCase()} ${fixed(unit.soc_low * 100, 0)}–${fixed(unit.soc_high * 100, 0)}`;
+	if (!unit.determinate)
+		return `${VERDICT.indeterminate.word.toLowerCase()} ${fixed(unit.soc_low * 100, 0)}–${fixed(unit.soc_high * 100, 0)}`;
 	return `${fixed(unit.soc * 100, 1)} ± ${fixed(unit.soc_sigma * 100, 1)}`;
 }
 

@@ -35,7 +35,10 @@ export function drawPlanSection(cursor: Cursor, data: ReportData): void {
 	sectionTitle(cursor, 'Sampling plan (ISO 2859-1)');
 	const { plan } = data;
 	if (!plan) {
-		paragraph(cursor, `No sampling plan recorded. Inspection severity: ${wordOf(INSPECTION_SEVERITY, data.severity)}.`, { size: 9, color: palette.ink });
+		paragraph(cursor, `No sampling plan recorded. Inspection severity: ${wordOf(INSPECTION_SEVERITY, data.severity)}.`, {
+			size: 9,
+			color: palette.ink
+		});
 		cursor.gap(8);
 		return;
 	}
@@ -76,7 +79,10 @@ export function drawStatsSection(cursor: Cursor, data: ReportData): void {
 		pairColumns(cursor, left, right);
 	}
 	if (variables) {
-		paragraph(cursor, `Variables check (${variables.method}): ${wordOf(VARIABLES_RESULT, variables.result)}. ${variables.detail}`, { size: 9, color: palette.ink });
+		paragraph(cursor, `Variables check (${variables.method}): ${wordOf(VARIABLES_RESULT, variables.result)}. ${variables.detail}`, {
+			size: 9,
+			color: palette.ink
+		});
 		cursor.gap(6);
 	}
 }

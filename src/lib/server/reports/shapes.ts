@@ -53,7 +53,12 @@ export function statusShape(page: PDFPage, shape: Shape, x: number, y: number, h
 			return;
 		case 'slash':
 			ring(page, x, y, half, color);
-			page.drawLine({ start: { x: x - half * 0.7, y: y - half * 0.7 }, end: { x: x + half * 0.7, y: y + half * 0.7 }, thickness: 1.2, color });
+			page.drawLine({
+				start: { x: x - half * 0.7, y: y - half * 0.7 },
+				end: { x: x + half * 0.7, y: y + half * 0.7 },
+				thickness: 1.2,
+				color
+			});
 			return;
 		case 'clock':
 			ring(page, x, y, half, color);

@@ -40,7 +40,12 @@ export function drawTable<Row>(cursor: Cursor, columns: Column<Row>[], rows: Row
 		drawCells(cursor, columns, widths, (column) => column.cell(row, index), palette.ink);
 		cursor.gap(ROW);
 	});
-	cursor.page.drawLine({ start: { x: MARGIN, y: cursor.y }, end: { x: MARGIN + CONTENT_WIDTH, y: cursor.y }, thickness: 0.6, color: palette.teal });
+	cursor.page.drawLine({
+		start: { x: MARGIN, y: cursor.y },
+		end: { x: MARGIN + CONTENT_WIDTH, y: cursor.y },
+		thickness: 0.6,
+		color: palette.teal
+	});
 	cursor.gap(10);
 }
 
@@ -57,7 +62,13 @@ function drawHeader<Row>(cursor: Cursor, columns: Column<Row>[], widths: number[
 	cursor.y = saved - HEADER;
 }
 
-function drawCells<Row>(cursor: Cursor, columns: Column<Row>[], widths: number[], text: (c: Column<Row>) => string, color: typeof palette.ink): void {
+function drawCells<Row>(
+	cursor: Cursor,
+	columns: Column<Row>[],
+	widths: number[],
+	text: (c: Column<Row>) => string,
+	color: typeof palette.ink
+): void {
 	let x = MARGIN;
 	columns.forEach((column, i) => {
 		const inner = widths[i] - 2 * PAD;

@@ -48,7 +48,12 @@ const READING_COLUMNS: Array<{ title: string; width: number; format?: string; va
 
 /** Writes a header row and data rows from row `firstRow`; null stays an empty cell. */
 function writeTable(sheet: Sheet, firstRow: number, headers: string[], rows: Cell[][]): void {
-	headers.forEach((title, c) => sheet.cell(firstRow, c + 1).value(title).style(HEADER_STYLE));
+	headers.forEach((title, c) =>
+		sheet
+			.cell(firstRow, c + 1)
+			.value(title)
+			.style(HEADER_STYLE)
+	);
 	rows.forEach((row, r) => {
 		row.forEach((value, c) => {
 			if (value !== null) sheet.cell(firstRow + 1 + r, c + 1).value(value);
@@ -61,7 +66,12 @@ export async function lotReadingsXlsx(data: ReportData): Promise<Buffer> {
 	const workbook = await XlsxPopulate.fromBlankAsync();
 	const readings = workbook.sheet(0)!.name('Readings');
 	const rows = data.units.map((unit, i) => READING_COLUMNS.map((column) => column.value(unit, i)));
-	writeTable(readings, 1, READING_COLUMNS.map((c) => c.title), rows);
+	writeTable(
+		readings,
+		1,
+		READING_COLUMNS.map((c) => c.title),
+		rows
+	);
 	READING_COLUMNS.forEach((column, c) => {
 		readings.column(c + 1).width(column.width);
 		if (column.format && rows.length) readings.range(2, c + 1, rows.length + 1, c + 1).style({ numberFormat: column.format });
@@ -102,7 +112,10 @@ function summaryPairs(data: ReportData): Array<[string, Cell]> {
 function writeSummary(sheet: Sheet, data: ReportData): void {
 	const pairs = summaryPairs(data);
 	pairs.forEach(([label, value], r) => {
-		sheet.cell(r + 1, 1).value(label).style({ bold: true });
+		sheet
+			.cell(r + 1, 1)
+			.value(label)
+			.style({ bold: true });
 		if (value !== null) sheet.cell(r + 1, 2).value(value);
 	});
 	const reasonRows = data.disposition.reasons.map((reason): Cell[] => [
@@ -147,7 +160,12 @@ export async function lotListXlsx(rows: LotListRow[], filters: Record<string, st
 	const workbook = await XlsxPopulate.fromBlankAsync();
 	const sheet = workbook.sheet(0)!.name('Lots');
 	sheet.cell(1, 1).value(filterNote(filters)).style(NOTE_STYLE);
-	writeTable(sheet, 2, LOT_COLUMNS.map((c) => c.title), rows.map((row) => LOT_COLUMNS.map((c) => c.value(row))));
+	writeTable(
+		sheet,
+		2,
+		LOT_COLUMNS.map((c) => c.title),
+		rows.map((row) => LOT_COLUMNS.map((c) => c.value(row)))
+	);
 	LOT_COLUMNS.forEach((column, c) => sheet.column(c + 1).width(column.width));
 	sheet.freezePanes(0, 2);
 	return workbook.outputAsync();

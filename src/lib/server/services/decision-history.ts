@@ -72,7 +72,10 @@ async function userNames(db: Db, ids: (string | null)[]): Promise<Map<string, st
 
 export async function listEvaluations(db: Db, lotId: string): Promise<HistoryEvaluation[]> {
 	const rows = await db.select().from(evaluations).where(eq(evaluations.lotId, lotId)).orderBy(desc(evaluations.id));
-	const names = await userNames(db, rows.map((r) => r.createdBy));
+	const names = await userNames(
+		db,
+		rows.map((r) => r.createdBy)
+	);
 	return rows.map((r) => ({
 		id: r.id,
 		at: r.createdAt.toISOString(),
@@ -94,7 +97,10 @@ export function reasonsOf(result: unknown): HistoryEvaluation['reasons'] {
 
 export async function listDecisions(db: Db, lotId: string): Promise<HistoryDecision[]> {
 	const rows = await db.select().from(decisions).where(eq(decisions.lotId, lotId)).orderBy(desc(decisions.decidedAt));
-	const names = await userNames(db, rows.map((r) => r.decidedBy));
+	const names = await userNames(
+		db,
+		rows.map((r) => r.decidedBy)
+	);
 	return rows.map((r) => ({
 		id: r.id,
 		at: r.decidedAt.toISOString(),
@@ -143,11 +149,7 @@ export async function listNoticesWithReplies(db: Db, lotId: string, replyLink: (
 }
 
 /** The whole paper trail of a lot the user may see (the caller checked access). */
-export async function decisionTrail(
-	db: Database,
-	user: { role: string },
-	lot: { id: string; status: string }
-): Promise<DecisionTrail> {
+export async function decisionTrail(db: Database, user: { role: string }, lot: { id: string; status: string }): Promise<DecisionTrail> {
 	const base = `/api/v1/lots/${lot.id}`;
 	const [evals, decs, notes] = await Promise.all([
 		listEvaluations(db, lot.id),
@@ -158,7 +160,8 @@ export async function decisionTrail(
 	return {
 		lotId: lot.id,
 		status: lot.status,
-		canSubmit: (user.role === 'inspector' || user.role === 'quality') && (lot.status === 'in_inspection' || lot.status === 'pending_decision'),
+		canSubmit:
+			(user.role === 'inspector' || user.role === 'quality') && (lot.status === 'in_inspection' || lot.status === 'pending_decision'),
 		links: { report: `${base}/report.pdf`, quarantineTag: held ? `${base}/quarantine-tag.pdf` : null, readings: `${base}/readings.xlsx` },
 		evaluations: evals,
 		decisions: decs,

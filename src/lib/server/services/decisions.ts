@@ -123,7 +123,9 @@ export async function submitLot(user: SessionUser, lotId: string): Promise<Decis
 		const lot = await lockLot(tx, user, lotId);
 		if (!can(user, 'lot:submit', { supplierId: lot.supplierId })) throw new Forbidden('Your role may not submit lots');
 		if (!SUBMITTABLE.includes(lot.status)) {
-			throw new Conflict(`The lot is ${lotStateInText(lot.status)}; only a lot on the bench or awaiting decision can be submitted for decision`);
+			throw new Conflict(
+				`The lot is ${lotStateInText(lot.status)}; only a lot on the bench or awaiting decision can be submitted for decision`
+			);
 		}
 		const evaluation = await evaluateLotNow(tx, lotId);
 		assertSampleComplete(evaluation);
@@ -146,8 +148,24 @@ export async function reevaluateLot(user: SessionUser, lotId: string): Promise<D
 		assertSampleComplete(evaluation);
 		const evaluationId = await storeEvaluation(tx, user, evaluation);
 		if (STATUS_OF[evaluation.status] === 'on_hold') {
-			await recordAudit(tx, { actorId: user.id, actorEmail: user.email, action: 'lot.reevaluated', entityType: 'lot', entityId: lotId, lotId, details: { evaluationId, result: 'hold' } });
-			return { lotId, previousStatus: lot.status, status: 'on_hold', evaluationId, decisionId: null, noticeId: null, evaluation: withoutInputs(evaluation) };
+			await recordAudit(tx, {
+				actorId: user.id,
+				actorEmail: user.email,
+				action: 'lot.reevaluated',
+				entityType: 'lot',
+				entityId: lotId,
+				lotId,
+				details: { evaluationId, result: 'hold' }
+			});
+			return {
+				lotId,
+				previousStatus: lot.status,
+				status: 'on_hold',
+				evaluationId,
+				decisionId: null,
+				noticeId: null,
+				evaluation: withoutInputs(evaluation)
+			};
 		}
 		const applied = await applyAutomatic(tx, user, lot, evaluation, lot.status, evaluationId, 'Re-evaluated after corrected readings');
 		return { lotId, previousStatus: lot.status, evaluationId, ...applied, evaluation: withoutInputs(evaluation) };
@@ -208,9 +226,15 @@ async function alreadyDecided(tx: Tx, lotId: string, status: LotStatus): Promise
  * simultaneous overrides win, and none win on a lot that changed since the challenge was issued.
  * The stored manifest follows 21 CFR Part 11, §11.50 and §11.70 (see signature-manifest.ts).
  */
-export async function decideOverride(user: SessionUser, lotId: string, input: OverrideInput, ip: string | null = null): Promise<DecisionOutcome> {
+export async function decideOverride(
+	user: SessionUser,
+	lotId: string,
+	input: OverrideInput,
+	ip: string | null = null
+): Promise<DecisionOutcome> {
 	const reason = input.reason.trim();
-	if (reason.length < 5) throw new Invalid('Give a reason for the decision (at least 5 characters)', [{ path: 'reason', message: 'Required' }]);
+	if (reason.length < 5)
+		throw new Invalid('Give a reason for the decision (at least 5 characters)', [{ path: 'reason', message: 'Required' }]);
 	const [visible] = await getDb().select({ supplierId: lots.supplierId }).from(lots).where(eq(lots.id, lotId));
 	if (!visible || !can(user, 'lot:read', { supplierId: visible.supplierId })) throw new NotFound('lot');
 	if (!can(user, 'lot:decide', { supplierId: visible.supplierId })) throw new Forbidden('Only quality managers decide held lots');
@@ -233,11 +257,28 @@ export async function decideOverride(user: SessionUser, lotId: string, input: Ov
 			throw lotChanged(challenge.revision, now.revision);
 		}
 		const signedAt = new Date();
-		const signed = { lot_id: lotId, lot_code: won.lotCode, revision: challenge.revision, decision: input.decision, reason, evaluation_id: latest?.id ?? null };
+		const signed = {
+			lot_id: lotId,
+			lot_code: won.lotCode,
+			revision: challenge.revision,
+			decision: input.decision,
+			reason,
+			evaluation_id: latest?.id ?? null
+		};
 		const signature = signatureManifest(user, signed, challenge.id, signedAt);
 		const [decision] = await tx
 			.insert(decisions)
-			.values({ lotId, evaluationId: latest?.id ?? null, kind: 'override', fromStatus: 'on_hold', toStatus: status, reason, signature, decidedBy: user.id, decidedAt: signedAt })
+			.values({
+				lotId,
+				evaluationId: latest?.id ?? null,
+				kind: 'override',
+				fromStatus: 'on_hold',
+				toStatus: status,
+				reason,
+				signature,
+				decidedBy: user.id,
+				decidedAt: signedAt
+			})
 			.returning({ id: decisions.id });
 		await refreshSamplingState(tx, visible.supplierId, won.partId);
 		const noticeId = await queueNotice(tx, {
@@ -259,7 +300,15 @@ export async function decideOverride(user: SessionUser, lotId: string, input: Ov
 			ip,
 			details: { from: 'on_hold', to: status, signature }
 		});
-		return { lotId, previousStatus: 'on_hold' as const, status, evaluationId: latest?.id ?? null, decisionId: decision.id, noticeId, evaluation: null };
+		return {
+			lotId,
+			previousStatus: 'on_hold' as const,
+			status,
+			evaluationId: latest?.id ?? null,
+			decisionId: decision.id,
+			noticeId,
+			evaluation: null
+		};
 	});
 }
 

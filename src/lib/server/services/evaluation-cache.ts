@@ -47,7 +47,8 @@ export async function computeAndCache(db: Database, lot: LotRevision): Promise<s
 }
 
 /** Entity tag of one representation of a lot's evaluation at a revision. */
-export const evaluationEtag = (revision: number, variant: 'full' | 'summary') => `"rev-${revision}${variant === 'summary' ? '-summary' : ''}"`;
+export const evaluationEtag = (revision: number, variant: 'full' | 'summary') =>
+	`"rev-${revision}${variant === 'summary' ? '-summary' : ''}"`;
 
 /** True when an If-None-Match header names this tag (or is `*`). */
 export function etagMatches(ifNoneMatch: string | null, etag: string): boolean {

@@ -34,7 +34,16 @@ export type EvaluationReason = Reason | DiscontinuedReason;
 
 export interface EvaluationInputs {
 	lot: LotInfo & { id: string; lot_code: string; status: string };
-	part: { id: string; part_number: string; chemistry: string; cells_in_series: number; cells_in_parallel: number; meter_accuracy_v: number; aql: number; inspection_level: InspectionLevel };
+	part: {
+		id: string;
+		part_number: string;
+		chemistry: string;
+		cells_in_series: number;
+		cells_in_parallel: number;
+		meter_accuracy_v: number;
+		aql: number;
+		inspection_level: InspectionLevel;
+	};
 	limits: PartLimits;
 	plan_request: { lot_size: number; aql: number; level: InspectionLevel; severity: Severity };
 	switching_state: SwitchingState;
@@ -63,7 +72,10 @@ export interface LotEvaluation {
 }
 
 export class EvaluationError extends Error {
-	constructor(readonly code: 'lot_not_found' | 'model_invalid' | 'part_invalid', message: string) {
+	constructor(
+		readonly code: 'lot_not_found' | 'model_invalid' | 'part_invalid',
+		message: string
+	) {
 		super(message);
 	}
 }
@@ -192,7 +204,11 @@ export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<
 		model: model.ocv,
 		readings: stored
 	};
-	return { ...computeEvaluation(inputs, plan), lot_id: lot.id, model: { id: model.id, version: model.version, chemistry: model.chemistry, source: model.source } };
+	return {
+		...computeEvaluation(inputs, plan),
+		lot_id: lot.id,
+		model: { id: model.id, version: model.version, chemistry: model.chemistry, source: model.source }
+	};
 }
 
 /** The pure part: inputs snapshot → evaluation. Re-running it on a stored snapshot reproduces the result. */
@@ -205,7 +221,14 @@ export function computeEvaluation(inputs: EvaluationInputs, plan = planOf(inputs
 	);
 	const timed: TimedUnitReading[] = results.map((result, i) => ({ serial: r.serial[i], measured_at: r.measured_at[i], result }));
 	const { id: _id, lot_code: _code, status: _status, ...lot } = inputs.lot;
-	const disposition = evaluateLot({ lot, plan, severity: inputs.plan_request.severity, limits: inputs.limits, readings: timed, aql: inputs.part.aql });
+	const disposition = evaluateLot({
+		lot,
+		plan,
+		severity: inputs.plan_request.severity,
+		limits: inputs.limits,
+		readings: timed,
+		aql: inputs.part.aql
+	});
 	// With no readings at all the core still reports the SOC rules as "indeterminate"; nothing was
 	// measured yet, so only "sample incomplete" applies (reported to the inspection core's owner).
 	const reasons: EvaluationReason[] = disposition.reasons.filter((x) => r.serial.length > 0 || x.code !== 'soc_indeterminate');
@@ -214,7 +237,8 @@ export function computeEvaluation(inputs: EvaluationInputs, plan = planOf(inputs
 		reasons.unshift({
 			code: 'inspection_discontinued',
 			severity: 'hold',
-			message: 'Inspection of this supplier and part is discontinued (5 lots not accepted on tightened inspection). Quality must approve the supplier’s corrective action and resume inspection.'
+			message:
+				'Inspection of this supplier and part is discontinued (5 lots not accepted on tightened inspection). Quality must approve the supplier’s corrective action and resume inspection.'
 		});
 		if (status === 'accept') status = 'hold';
 	}

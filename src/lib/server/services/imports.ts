@@ -33,7 +33,14 @@ export interface ImportPreview {
 	valid_rows: number;
 	errors: RowError[];
 	/** The first mapped rows, to show next to the errors. */
-	rows: Array<{ row: number; serial: string; ocv_v: number; temperature_c: number; ac_resistance_mohm: number | null; measured_at: string | null }>;
+	rows: Array<{
+		row: number;
+		serial: string;
+		ocv_v: number;
+		temperature_c: number;
+		ac_resistance_mohm: number | null;
+		measured_at: string | null;
+	}>;
 	already_imported_at: string | null;
 }
 
@@ -51,7 +58,9 @@ async function readXlsx(bytes: Uint8Array): Promise<Table> {
 	try {
 		return await readXlsxTable(bytes);
 	} catch {
-		throw new Invalid('The file looks like a spreadsheet but could not be read as XLSX', [{ path: 'file', message: 'not a readable XLSX workbook' }]);
+		throw new Invalid('The file looks like a spreadsheet but could not be read as XLSX', [
+			{ path: 'file', message: 'not a readable XLSX workbook' }
+		]);
 	}
 }
 
@@ -62,7 +71,9 @@ function readCsv(bytes: Uint8Array): Table {
 		return parseCsv(text);
 	} catch (error) {
 		if (!(error instanceof CsvSyntaxError)) throw error;
-		throw new Invalid(`The CSV file could not be read: broken quoting in row ${error.row}`, [{ path: `row ${error.row}`, message: error.message }]);
+		throw new Invalid(`The CSV file could not be read: broken quoting in row ${error.row}`, [
+			{ path: `row ${error.row}`, message: error.message }
+		]);
 	}
 }
 
@@ -116,7 +127,13 @@ function completeMapping(g: Partial<ImportMapping>): ImportMapping | null {
 }
 
 /** Write the import, all or nothing. Rows with errors refuse the file unless mapping.skip_invalid. */
-export async function commitImport(db: Database, user: SessionUser, lotId: string, file: MeterFile, mapping: ImportMapping): Promise<ImportResult> {
+export async function commitImport(
+	db: Database,
+	user: SessionUser,
+	lotId: string,
+	file: MeterFile,
+	mapping: ImportMapping
+): Promise<ImportResult> {
 	const { table } = await readTable(file);
 	const sha = sha256Hex(file.bytes);
 	const mapped = mapTable(table, mapping);
@@ -128,7 +145,10 @@ export async function commitImport(db: Database, user: SessionUser, lotId: strin
 	}
 	if (mapped.rows.length === 0) throw new Invalid('The file has no valid readings with this mapping');
 	if (mapped.rows.length > MAX_READINGS_PER_CALL) {
-		throw new TooLarge(`A meter file may hold at most ${MAX_READINGS_PER_CALL} readings (this one has ${mapped.rows.length})`, 'too_many_readings');
+		throw new TooLarge(
+			`A meter file may hold at most ${MAX_READINGS_PER_CALL} readings (this one has ${mapped.rows.length})`,
+			'too_many_readings'
+		);
 	}
 	const skipped = new Set(mapped.errors.map((e) => e.row)).size;
 	return db.transaction(async (tx) => {
@@ -143,7 +163,16 @@ export async function commitImport(db: Database, user: SessionUser, lotId: strin
 				.from(readingImports)
 				.innerJoin(lots, eq(lots.id, readingImports.lotId))
 				.where(and(eq(readingImports.lotId, lotId), eq(readingImports.fileSha256, sha)));
-			return { inserted: 0, duplicates: mapped.rows.length, lot_status: previous?.status ?? '', arrived: false, stored: [], import_id: null, already_imported_at: previous?.at.toISOString() ?? null, skipped_invalid: skipped };
+			return {
+				inserted: 0,
+				duplicates: mapped.rows.length,
+				lot_status: previous?.status ?? '',
+				arrived: false,
+				stored: [],
+				import_id: null,
+				already_imported_at: previous?.at.toISOString() ?? null,
+				skipped_invalid: skipped
+			};
 		}
 		const added = await addReadingsTx(tx, user, lotId, mapped.rows, 'import', created.id);
 		return { ...added, import_id: created.id, already_imported_at: null, skipped_invalid: skipped };

@@ -18,11 +18,7 @@ export class LotConflictError extends Conflict {
 		readonly expected: readonly LotStatus[],
 		readonly actual: LotStatus | null
 	) {
-		super(
-			actual
-				? `The lot is ${actual.replace('_', ' ')} now, so this step no longer applies`
-				: 'The lot no longer exists'
-		);
+		super(actual ? `The lot is ${actual.replace('_', ' ')} now, so this step no longer applies` : 'The lot no longer exists');
 	}
 }
 
@@ -173,7 +169,8 @@ function listConditions(db: Database, user: SessionUser, filter: LotListFilter):
 		conditions.push(or(ilike(lots.poNumber, like), ilike(lots.lotCode, like))!);
 	}
 	// A serial trace: the lots holding a reading of this unit (index readings_serial_idx).
-	if (filter.serial) conditions.push(inArray(lots.id, db.select({ lotId: readings.lotId }).from(readings).where(eq(readings.serial, filter.serial))));
+	if (filter.serial)
+		conditions.push(inArray(lots.id, db.select({ lotId: readings.lotId }).from(readings).where(eq(readings.serial, filter.serial))));
 	if (filter.cursor) {
 		const { at, id } = decodeCursor(filter.cursor);
 		conditions.push(sql`(${lots.createdAt}, ${lots.id}) < (${at}::timestamptz, ${id}::uuid)`);
@@ -295,14 +292,7 @@ export async function recordArrival(tx: Tx, actor: SessionUser, lotId: string): 
 	return row;
 }
 
-function audit(
-	tx: Tx,
-	actor: SessionUser,
-	lotId: string,
-	action: string,
-	details: Record<string, unknown>,
-	ip?: string | null
-) {
+function audit(tx: Tx, actor: SessionUser, lotId: string, action: string, details: Record<string, unknown>, ip?: string | null) {
 	return recordAudit(tx, {
 		actorId: actor.id,
 		actorEmail: actor.email,

@@ -104,7 +104,10 @@ export function guessMapping(header: string[]): Partial<ImportMapping> {
 
 /** Numbers as meters write them: "3.712", "3,712" (decimal comma), " 3712 mV", "+25.1". */
 export function parseNumber(raw: string): number | null {
-	const s = raw.trim().replace(/\s*(m?v|°?c|m?ω|mohm|ohm)$/i, '').replace(/\s/g, '');
+	const s = raw
+		.trim()
+		.replace(/\s*(m?v|°?c|m?ω|mohm|ohm)$/i, '')
+		.replace(/\s/g, '');
 	if (s === '') return null;
 	const normal = /^[+-]?\d+,\d+$/.test(s) ? s.replace(',', '.') : s;
 	if (!/^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i.test(normal)) return Number.NaN;
@@ -138,7 +141,8 @@ function mapRow(row: string[], m: ImportMapping, fileRow: number, errors: RowErr
 		return value === null || Number.isNaN(value) ? null : value;
 	};
 	const ocvRaw = number('OCV', m.ocv, true);
-	const tempRaw = m.temperature === null || m.temperature === undefined ? (m.default_temperature_c ?? null) : number('temperature', m.temperature, true);
+	const tempRaw =
+		m.temperature === null || m.temperature === undefined ? (m.default_temperature_c ?? null) : number('temperature', m.temperature, true);
 	if (tempRaw === null && (m.temperature === null || m.temperature === undefined)) {
 		rowErrors.push({ row: fileRow, column: 'temperature', message: 'no temperature column and no default temperature' });
 	}

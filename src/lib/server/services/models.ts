@@ -83,8 +83,7 @@ export async function getModelVersion(id: string): Promise<{ version: ModelVersi
 }
 
 export type SaveFitResult =
-	| { ok: true; version: ModelVersion }
-	| { ok: false; reason: string; rmse_v: number; max_error_v: number; monotonic: boolean };
+	{ ok: true; version: ModelVersion } | { ok: false; reason: string; rmse_v: number; max_error_v: number; monotonic: boolean };
 
 const FIT_PREFIX = 'fit-';
 
@@ -148,7 +147,14 @@ async function insertFitted(actor: Actor, model: OcvModel, rmse: number, maxErro
 			action: 'model.fitted',
 			entityType: 'ocv_model',
 			entityId: row.id,
-			details: { chemistry: model.chemistry, version: model.version, rmse_v: rmse, max_error_v: maxError, temperature_c: temperatureC, points: pointCount }
+			details: {
+				chemistry: model.chemistry,
+				version: model.version,
+				rmse_v: rmse,
+				max_error_v: maxError,
+				temperature_c: temperatureC,
+				points: pointCount
+			}
 		});
 		return row.id;
 	});

@@ -33,7 +33,15 @@ function selectViews(db: Database | Tx) {
 		.innerJoin(organisations, eq(organisations.id, parts.supplierId))
 		.leftJoin(ocvModels, eq(ocvModels.id, parts.modelId));
 }
-const flatten = ({ part, ...rest }: { part: PartRow; supplierName: string; modelVersion: string | null; modelName: string | null }): PartView => ({
+const flatten = ({
+	part,
+	...rest
+}: {
+	part: PartRow;
+	supplierName: string;
+	modelVersion: string | null;
+	modelName: string | null;
+}): PartView => ({
 	...part,
 	...rest
 });
@@ -171,7 +179,11 @@ export async function updatePartLimits(db: Database, actor: SessionUser, id: str
 			aql: form.aql,
 			inspectionLevel: form.inspection_level
 		};
-		const [row] = await tx.update(parts).set({ ...values, updatedAt: new Date() }).where(eq(parts.id, id)).returning();
+		const [row] = await tx
+			.update(parts)
+			.set({ ...values, updatedAt: new Date() })
+			.where(eq(parts.id, id))
+			.returning();
 		const before = Object.fromEntries(Object.keys(values).map((k) => [k, current[k as keyof typeof values]]));
 		await audit(tx, actor, id, 'part.limits', { before, after: values });
 		return row;

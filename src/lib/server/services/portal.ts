@@ -121,7 +121,10 @@ export async function portalNotices(db: Database, user: SessionUser, lotId: stri
 	const lot = await getLotForUser(db, user, lotId);
 	if (!lot) throw new NotFound('lot');
 	const rows = await db.select().from(notices).where(eq(notices.lotId, lot.id)).orderBy(desc(notices.createdAt));
-	const replies = await repliesFor(db, rows.map((n) => n.id));
+	const replies = await repliesFor(
+		db,
+		rows.map((n) => n.id)
+	);
 	return rows.map((n) => ({
 		id: n.id,
 		kind: n.kind,

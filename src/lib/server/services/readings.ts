@@ -73,13 +73,26 @@ export function validateReadings(rows: unknown[]): ReadingInputRow[] {
 	rows.forEach((row, i) => {
 		const parsed = readingSchema.safeParse(row);
 		if (parsed.success) valid.push(parsed.data);
-		else for (const issue of (parsed.error as z.ZodError).issues) issues.push({ path: ['readings', i, ...issue.path].join('.'), message: issue.message });
+		else
+			for (const issue of (parsed.error as z.ZodError).issues)
+				issues.push({ path: ['readings', i, ...issue.path].join('.'), message: issue.message });
 	});
-	if (issues.length > 0) throw new Invalid(`${new Set(issues.map((i) => i.path.split('.')[1])).size} reading(s) are not valid; nothing was stored`, issues.slice(0, 200));
+	if (issues.length > 0)
+		throw new Invalid(
+			`${new Set(issues.map((i) => i.path.split('.')[1])).size} reading(s) are not valid; nothing was stored`,
+			issues.slice(0, 200)
+		);
 	return valid;
 }
 
-async function insertChunk(tx: Tx, lotId: string, user: SessionUser, rows: ReadingInputRow[], source: ReadingSource, importId: string | null): Promise<number> {
+async function insertChunk(
+	tx: Tx,
+	lotId: string,
+	user: SessionUser,
+	rows: ReadingInputRow[],
+	source: ReadingSource,
+	importId: string | null
+): Promise<number> {
 	const now = new Date().toISOString();
 	const result = await tx.execute(sql`
 		insert into readings (lot_id, serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key, source, import_id, entered_by)
@@ -108,7 +121,9 @@ export async function addReadingsTx(
 ): Promise<AddReadingsResult> {
 	const lot = await lockLot(tx, lotId);
 	if (!(OPEN_STATUSES as readonly string[]).includes(lot.status)) {
-		throw new Conflict(`This lot is ${lotStateInText(lot.status)}; readings can only be added while it is awaiting arrival, on the bench or awaiting decision`);
+		throw new Conflict(
+			`This lot is ${lotStateInText(lot.status)}; readings can only be added while it is awaiting arrival, on the bench or awaiting decision`
+		);
 	}
 	const arrived = lot.status === 'awaiting_arrival';
 	if (arrived) await recordArrival(tx, user, lotId);
@@ -202,11 +217,23 @@ export async function listReadings(db: Database | Tx, lotId: string): Promise<St
 }
 
 /** Fix a wrongly typed value before the decision; the old and new values go to the audit trail. */
-export async function correctReading(db: Database, user: SessionUser, lotId: string, readingId: number, change: ReadingCorrection): Promise<StoredReading> {
+export async function correctReading(
+	db: Database,
+	user: SessionUser,
+	lotId: string,
+	readingId: number,
+	change: ReadingCorrection
+): Promise<StoredReading> {
 	return db.transaction(async (tx) => {
 		const lot = await lockLot(tx, lotId);
-		if (!CORRECTABLE.includes(lot.status)) throw new Conflict(`Readings can only be corrected before a final decision or while the lot is on hold (it is ${lotStateInText(lot.status)})`);
-		const [before] = await tx.select(selectColumns).from(readings).where(and(eq(readings.id, readingId), eq(readings.lotId, lotId)));
+		if (!CORRECTABLE.includes(lot.status))
+			throw new Conflict(
+				`Readings can only be corrected before a final decision or while the lot is on hold (it is ${lotStateInText(lot.status)})`
+			);
+		const [before] = await tx
+			.select(selectColumns)
+			.from(readings)
+			.where(and(eq(readings.id, readingId), eq(readings.lotId, lotId)));
 		if (!before) throw new NotFound('reading');
 		const patch = {
 			...(change.serial !== undefined ? { serial: change.serial } : {}),
@@ -222,7 +249,11 @@ export async function correctReading(db: Database, user: SessionUser, lotId: str
 			entityType: 'reading',
 			entityId: String(readingId),
 			lotId,
-			details: { reason: change.reason, before: { ...before, measured_at: before.measured_at.toISOString() }, after: { ...after, measured_at: after.measured_at.toISOString() } }
+			details: {
+				reason: change.reason,
+				before: { ...before, measured_at: before.measured_at.toISOString() },
+				after: { ...after, measured_at: after.measured_at.toISOString() }
+			}
 		});
 		return { ...after, measured_at: after.measured_at.toISOString() };
 	});

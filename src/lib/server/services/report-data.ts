@@ -34,7 +34,13 @@ async function engineFor(db: Db, lotId: string, evaluationId: number | null): Pr
 	const [stored] = await db.select().from(evaluations).where(which).orderBy(desc(evaluations.id)).limit(1);
 	if (stored) {
 		const result = stored.result as StoredResult;
-		return { result, plan: stored.plan as LotEvaluation['plan'], inputs: stored.inputs as EvaluationInputs, decided: true, modelSource: result.model?.source ?? 'stored' };
+		return {
+			result,
+			plan: stored.plan as LotEvaluation['plan'],
+			inputs: stored.inputs as EvaluationInputs,
+			decided: true,
+			modelSource: result.model?.source ?? 'stored'
+		};
 	}
 	const { inputs, plan, ...result } = await evaluateLotNow(db, lotId);
 	return { result, plan, inputs, decided: false, modelSource: result.model.source };
@@ -47,7 +53,8 @@ function rawBySerial(inputs: EvaluationInputs, acById: Map<number, number | null
 	r.serial.forEach((serial, i) => {
 		const at = Date.parse(r.measured_at[i]);
 		const seen = out.get(serial);
-		if (!seen || at > seen.at) out.set(serial, { ocv_v: r.ocv_v[i], temperature_c: r.temperature_c[i], ac: acById.get(r.id[i]) ?? null, at });
+		if (!seen || at > seen.at)
+			out.set(serial, { ocv_v: r.ocv_v[i], temperature_c: r.temperature_c[i], ac: acById.get(r.id[i]) ?? null, at });
 	});
 	return out;
 }
@@ -84,7 +91,9 @@ function statsOf(s: StoredResult['stats']): ReportData['stats'] {
 
 function variablesOf(v: StoredResult['variables']): ReportData['variables'] {
 	if (!v || v.status === 'not_applicable') return null;
-	const detail = [v.reason, v.k !== null ? `k = ${fixed(v.k, 3)}` : null, v.normality_warning ? 'normality doubtful' : null].filter(Boolean).join('; ');
+	const detail = [v.reason, v.k !== null ? `k = ${fixed(v.k, 3)}` : null, v.normality_warning ? 'normality doubtful' : null]
+		.filter(Boolean)
+		.join('; ');
 	return { method: 's-method (variables, advisory)', result: v.status, detail };
 }
 
@@ -112,9 +121,14 @@ async function decisionFor(db: Db, lotId: string, decisionId: string | null) {
 		.orderBy(desc(decisions.decidedAt))
 		.limit(1);
 	if (!d) return null;
-	const by = d.d.kind === 'automatic' ? `Disposition engine (submitted by ${d.name ?? d.email ?? 'unknown'})` : (d.name ?? d.email ?? 'unknown');
+	const by =
+		d.d.kind === 'automatic' ? `Disposition engine (submitted by ${d.name ?? d.email ?? 'unknown'})` : (d.name ?? d.email ?? 'unknown');
 	const signature = d.d.kind === 'override' ? signatureOf(d.d.signature) : null;
-	return { view: { by, at: d.d.decidedAt.toISOString(), kind: d.d.kind, reason: d.d.reason, signature }, toStatus: d.d.toStatus, evaluationId: d.d.evaluationId };
+	return {
+		view: { by, at: d.d.decidedAt.toISOString(), kind: d.d.kind, reason: d.d.reason, signature },
+		toStatus: d.d.toStatus,
+		evaluationId: d.d.evaluationId
+	};
 }
 
 /**
@@ -132,14 +146,24 @@ export async function buildReportData(db: Db, lotId: string, opts: { decisionId?
 	const decision = chosen?.view ?? null;
 	const status = opts.decisionId && chosen ? chosen.toStatus : lot.status;
 	const result = engine.result;
-	const reasons: ReportReason[] = result.reasons.map((r) => ({ code: r.code, severity: r.severity, message: r.message, ...('units' in r && r.units ? { units: r.units } : {}) }));
-	if (!engine.decided) reasons.unshift({ code: 'preliminary', severity: 'info', message: 'Preliminary: the lot has not been submitted for decision yet.' });
+	const reasons: ReportReason[] = result.reasons.map((r) => ({
+		code: r.code,
+		severity: r.severity,
+		message: r.message,
+		...('units' in r && r.units ? { units: r.units } : {})
+	}));
+	if (!engine.decided)
+		reasons.unshift({ code: 'preliminary', severity: 'info', message: 'Preliminary: the lot has not been submitted for decision yet.' });
 	const final = FINAL[status];
 	if (decision?.kind === 'override' && final) {
 		const engineWord = result.status.toUpperCase();
 		const said = (decision.reason ?? '').trim();
 		const stop = /[.!?]$/.test(said) ? '' : '.'; // the reason's own full stop ends the sentence
-		reasons.unshift({ code: 'quality_decision', severity: 'info', message: `Quality decision by ${decision.by} (e-signed): “${said}”${stop} The engine's evaluation was ${engineWord}.` });
+		reasons.unshift({
+			code: 'quality_decision',
+			severity: 'info',
+			message: `Quality decision by ${decision.by} (e-signed): “${said}”${stop} The engine's evaluation was ${engineWord}.`
+		});
 	}
 	const units = unitsOf(engine, new Map(acRows.map((r) => [r.id, r.ac])));
 	return {
@@ -172,10 +196,19 @@ export async function buildReportData(db: Db, lotId: string, opts: { decisionId?
 			level: engine.inputs.plan_request.level
 		},
 		severity: result.severity,
-		disposition: { status: engine.decided ? (final ?? result.status) : 'pending', safety: result.safety, reasons, nonconforming: result.nonconforming },
+		disposition: {
+			status: engine.decided ? (final ?? result.status) : 'pending',
+			safety: result.safety,
+			reasons,
+			nonconforming: result.nonconforming
+		},
 		stats: statsOf(result.stats),
 		variables: variablesOf(result.variables),
-		limits: { ocv_min_v: part.ocvMinCellV, ocv_max_v: part.ocvMaxCellV, expected_ocv_v: units.find((u) => u.expected_ocv_v !== null)?.expected_ocv_v ?? null },
+		limits: {
+			ocv_min_v: part.ocvMinCellV,
+			ocv_max_v: part.ocvMaxCellV,
+			expected_ocv_v: units.find((u) => u.expected_ocv_v !== null)?.expected_ocv_v ?? null
+		},
 		units,
 		model: { version: result.model.version, chemistry: result.model.chemistry, source: engine.modelSource },
 		decision
@@ -187,7 +220,10 @@ export function tagDataFrom(report: ReportData): TagData | null {
 	const status = report.lot.status;
 	if (status !== 'on_hold' && status !== 'rejected') return null;
 	const main = report.disposition.reasons.find((r) => r.severity !== 'info');
-	const reason = report.decision?.kind === 'override' && report.decision.reason ? report.decision.reason : (main?.message ?? 'See the inspection report');
+	const reason =
+		report.decision?.kind === 'override' && report.decision.reason
+			? report.decision.reason
+			: (main?.message ?? 'See the inspection report');
 	return {
 		lot_code: report.lot.lot_code,
 		po_number: report.lot.po_number,

@@ -52,7 +52,10 @@ export async function refreshSamplingState(tx: Tx, supplierId: string, partId: s
 	const view = await currentSeverity(tx, supplierId, partId);
 	const row = rowOf(supplierId, partId, view);
 	const { supplierId: _s, partId: _p, ...changes } = row;
-	await tx.insert(samplingStates).values(row).onConflictDoUpdate({ target: [samplingStates.supplierId, samplingStates.partId], set: changes });
+	await tx
+		.insert(samplingStates)
+		.values(row)
+		.onConflictDoUpdate({ target: [samplingStates.supplierId, samplingStates.partId], set: changes });
 	// Entering discontinuation (ISO 2859-1 9.4) alerts buyers and quality, in this same transaction.
 	const lastLot = view.lots.at(-1);
 	if (view.severity === 'discontinued' && before?.severity !== 'discontinued' && lastLot) {
@@ -68,7 +71,10 @@ async function rebuildSamplingState(db: Database | Tx, supplierId: string, partI
 		const existing = await storedRow(tx, supplierId, partId);
 		if (existing) return existing.severity;
 		const view = await currentSeverity(tx, supplierId, partId);
-		await tx.insert(samplingStates).values(rowOf(supplierId, partId, view)).onConflictDoNothing();
+		await tx
+			.insert(samplingStates)
+			.values(rowOf(supplierId, partId, view))
+			.onConflictDoNothing();
 		return view.severity;
 	});
 }
@@ -96,7 +102,9 @@ export interface ResumptionInput {
 /** Quality resumes discontinued inspection (ISO 2859-1 9.4): the resumption and the new state together. */
 export async function recordResumption(tx: Tx, input: ResumptionInput): Promise<SeverityView> {
 	await lockSamplingOfPart(tx, input.partId);
-	await tx.insert(inspectionResumptions).values({ supplierId: input.supplierId, partId: input.partId, reason: input.reason, resumedBy: input.resumedBy });
+	await tx
+		.insert(inspectionResumptions)
+		.values({ supplierId: input.supplierId, partId: input.partId, reason: input.reason, resumedBy: input.resumedBy });
 	return refreshSamplingState(tx, input.supplierId, input.partId);
 }
 
@@ -104,13 +112,19 @@ export async function recordResumption(tx: Tx, input: ResumptionInput): Promise<
  * Quality resumes discontinued inspection after accepting the supplier's corrective action
  * (ISO 2859-1 9.4); the next lots are inspected on tightened inspection.
  */
-export async function resumeInspection(db: Database, user: { id: string; email: string }, partId: string, reason: string): Promise<SeverityView> {
+export async function resumeInspection(
+	db: Database,
+	user: { id: string; email: string },
+	partId: string,
+	reason: string
+): Promise<SeverityView> {
 	return db.transaction(async (tx) => {
 		const [part] = (await tx.execute<{ supplier_id: string }>(sql`select supplier_id from parts where id = ${partId}`)).rows;
 		if (!part) throw new NotFound('part');
 		await lockSamplingOfPart(tx, partId);
 		const now = await currentSeverity(tx, part.supplier_id, partId);
-		if (now.severity !== 'discontinued') throw new Conflict(`Inspection of this part is ${now.severity}, not discontinued; there is nothing to resume.`);
+		if (now.severity !== 'discontinued')
+			throw new Conflict(`Inspection of this part is ${now.severity}, not discontinued; there is nothing to resume.`);
 		const view = await recordResumption(tx, { supplierId: part.supplier_id, partId, reason, resumedBy: user.id });
 		await recordAudit(tx, {
 			actorId: user.id,

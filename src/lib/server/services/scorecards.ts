@@ -65,7 +65,10 @@ async function lotFacts(db: Database, supplierId: string, partId?: string): Prom
 		from lots l
 		left join lateral (select result from evaluations where lot_id = l.id order by id desc limit 1) e on true
 		where l.supplier_id = ${supplierId} ${partId ? sql`and l.part_id = ${partId}` : sql``}
-		  and l.status::text in (${sql.join(RECEIVED.map((s) => sql`${s}`), sql`, `)})`);
+		  and l.status::text in (${sql.join(
+				RECEIVED.map((s) => sql`${s}`),
+				sql`, `
+			)})`);
 	return result.rows;
 }
 

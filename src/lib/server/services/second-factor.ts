@@ -45,9 +45,7 @@ export async function hasSecondFactor(userId: string): Promise<boolean> {
 }
 
 export type SecondFactorState =
-	| { state: 'on'; enabledAt: Date }
-	| { state: 'pending'; secretGrouped: string; uri: string }
-	| { state: 'off' };
+	{ state: 'on'; enabledAt: Date } | { state: 'pending'; secretGrouped: string; uri: string } | { state: 'off' };
 
 /** What the security page shows: on since when, a pending enrolment (with its secret), or off. */
 export async function secondFactorState(user: SessionUser): Promise<SecondFactorState> {
@@ -182,7 +180,14 @@ export async function removeSecondFactor(actor: { id: string; email: string }, u
 		if (!removed.length) return false;
 		await endAllSessions(tx, userId, 'second_factor_changed');
 		await tx.delete(signInCodeSteps).where(eq(signInCodeSteps.userId, userId));
-		await recordAudit(tx, { actorId: actor.id, actorEmail: actor.email, action: 'auth.second_factor_removed', entityType: 'user', entityId: userId, ip });
+		await recordAudit(tx, {
+			actorId: actor.id,
+			actorEmail: actor.email,
+			action: 'auth.second_factor_removed',
+			entityType: 'user',
+			entityId: userId,
+			ip
+		});
 		return true;
 	});
 }
@@ -241,7 +246,9 @@ export async function checkSignInCode(input: { token: string; code: string; addr
 		const used = await tx
 			.update(signInCodeSteps)
 			.set({ usedAt: new Date() })
-			.where(and(eq(signInCodeSteps.tokenHash, sha256(input.token)), isNull(signInCodeSteps.usedAt), gt(signInCodeSteps.expiresAt, sql`now()`)))
+			.where(
+				and(eq(signInCodeSteps.tokenHash, sha256(input.token)), isNull(signInCodeSteps.usedAt), gt(signInCodeSteps.expiresAt, sql`now()`))
+			)
 			.returning({ userId: signInCodeSteps.userId });
 		return used.length === 1 && (await useCode(tx, user.id, input.code, 'on'));
 	});
@@ -260,7 +267,9 @@ export async function checkSignInCode(input: { token: string; code: string; addr
 
 /** "Start again" on the sign-in page: the step ends at once. */
 export async function endCodeStep(token: string): Promise<void> {
-	await getDb().delete(signInCodeSteps).where(eq(signInCodeSteps.tokenHash, sha256(token)));
+	await getDb()
+		.delete(signInCodeSteps)
+		.where(eq(signInCodeSteps.tokenHash, sha256(token)));
 }
 
 function auditEntry(user: SessionUser, action: string, ip: string | null) {

@@ -30,7 +30,14 @@ export async function startSession(userId: string, method: string, ip: string | 
  * at most once a minute, which is what keeps an active session from idling out.
  */
 export async function sessionUser(sessionId: string): Promise<SessionUser | null> {
-	const result = await getDb().execute<{ id: string; email: string; name: string | null; role: SessionUser['role']; organisation_id: string | null; stale: boolean }>(sql`
+	const result = await getDb().execute<{
+		id: string;
+		email: string;
+		name: string | null;
+		role: SessionUser['role'];
+		organisation_id: string | null;
+		stale: boolean;
+	}>(sql`
 		select u.id, u.email, u.name, u.role::text as role, u.organisation_id,
 		       s.last_seen_at < now() - interval '1 minute' as stale
 		from ${userSessions} s join ${users} u on u.id = s.user_id and u.active
@@ -62,7 +69,9 @@ export async function endOtherSessions(db: Database | Tx, userId: string, keepSe
 	await db
 		.update(userSessions)
 		.set({ endedAt: new Date(), endedReason: reason })
-		.where(and(eq(userSessions.userId, userId), isNull(userSessions.endedAt), keepSessionId ? ne(userSessions.id, keepSessionId) : undefined));
+		.where(
+			and(eq(userSessions.userId, userId), isNull(userSessions.endedAt), keepSessionId ? ne(userSessions.id, keepSessionId) : undefined)
+		);
 }
 
 /** Everything that lets a deactivated person back in: sessions, API tokens, unused links. */

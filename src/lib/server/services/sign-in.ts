@@ -127,7 +127,14 @@ export async function userForPasswordLink(token: string) {
 		.select({ id: users.id, email: users.email, name: users.name })
 		.from(passwordResets)
 		.innerJoin(users, eq(users.id, passwordResets.userId))
-		.where(and(eq(passwordResets.tokenHash, hashLinkToken(token)), isNull(passwordResets.usedAt), gt(passwordResets.expiresAt, new Date()), eq(users.active, true)));
+		.where(
+			and(
+				eq(passwordResets.tokenHash, hashLinkToken(token)),
+				isNull(passwordResets.usedAt),
+				gt(passwordResets.expiresAt, new Date()),
+				eq(users.active, true)
+			)
+		);
 	return row ?? null;
 }
 
@@ -151,7 +158,14 @@ export async function usePasswordLink(token: string, password: string, ip: strin
 		await tx.update(passwordResets).set({ usedAt: new Date() }).where(eq(passwordResets.tokenHash, tokenHash));
 		// A new password ends every session signed in with the old one (a stolen cookie too).
 		await endAllSessions(tx, user.id, 'password_changed');
-		await recordAudit(tx, { actorId: user.id, actorEmail: user.email, action: 'auth.password_set', entityType: 'user', entityId: user.id, ip });
+		await recordAudit(tx, {
+			actorId: user.id,
+			actorEmail: user.email,
+			action: 'auth.password_set',
+			entityType: 'user',
+			entityId: user.id,
+			ip
+		});
 		return user;
 	});
 	if (done) await clearFailures(accountKey(done.email));

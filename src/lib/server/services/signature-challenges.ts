@@ -29,10 +29,14 @@ export interface IssuedChallenge {
 
 /** The held lot a quality manager may decide: 404 when not visible, 403 without the right, 409 when not on hold. */
 async function decidableLot(db: Database | Tx, user: SessionUser, lotId: string) {
-	const [lot] = await db.select({ id: lots.id, lotCode: lots.lotCode, status: lots.status, revision: lots.revision, supplierId: lots.supplierId }).from(lots).where(eq(lots.id, lotId));
+	const [lot] = await db
+		.select({ id: lots.id, lotCode: lots.lotCode, status: lots.status, revision: lots.revision, supplierId: lots.supplierId })
+		.from(lots)
+		.where(eq(lots.id, lotId));
 	if (!lot || !can(user, 'lot:read', { supplierId: lot.supplierId })) throw new NotFound('lot');
 	if (!can(user, 'lot:decide', { supplierId: lot.supplierId })) throw new Forbidden('Only quality managers decide held lots');
-	if (lot.status !== 'on_hold') throw new Conflict(`The lot is ${lotStateInText(lot.status)}; only a lot on hold can be released or rejected`);
+	if (lot.status !== 'on_hold')
+		throw new Conflict(`The lot is ${lotStateInText(lot.status)}; only a lot on hold can be released or rejected`);
 	return lot;
 }
 
@@ -41,9 +45,23 @@ export async function issueChallenge(db: Database, user: SessionUser, lotId: str
 	const lot = await decidableLot(db, user, lotId);
 	const [row] = await db
 		.insert(signatureChallenges)
-		.values({ lotId: lot.id, lotRevision: lot.revision, decision, userId: user.id, expiresAt: sql`now() + make_interval(mins => ${CHALLENGE_MINUTES})` })
+		.values({
+			lotId: lot.id,
+			lotRevision: lot.revision,
+			decision,
+			userId: user.id,
+			expiresAt: sql`now() + make_interval(mins => ${CHALLENGE_MINUTES})`
+		})
 		.returning({ id: signatureChallenges.id, expiresAt: signatureChallenges.expiresAt });
-	return { challengeId: row.id, lotId: lot.id, lotCode: lot.lotCode, revision: lot.revision, decision, meaning: MEANING[decision], expiresAt: row.expiresAt.toISOString() };
+	return {
+		challengeId: row.id,
+		lotId: lot.id,
+		lotCode: lot.lotCode,
+		revision: lot.revision,
+		decision,
+		meaning: MEANING[decision],
+		expiresAt: row.expiresAt.toISOString()
+	};
 }
 
 export const challengeJson = (c: IssuedChallenge) => ({
@@ -66,17 +84,42 @@ type ChallengeRow = typeof signatureChallenges.$inferSelect;
 
 /** Why a challenge cannot sign this decision on this lot now, or null when it can. */
 function whyNot(row: ChallengeRow | undefined, user: SessionUser, lotId: string, decision: SignedDecision, now: Date): DomainError | null {
-	if (!row || row.userId !== user.id) return refused('invalid', 'challenge_unknown', 'No signing challenge with this id was issued to you. Ask for one (POST …/decision/challenge) and sign again.');
-	if (row.lotId !== lotId) return refused('invalid', 'challenge_wrong_lot', 'This signing challenge was issued for another lot; nothing was decided.');
-	if (row.decision !== decision) return refused('invalid', 'challenge_wrong_decision', `This signing challenge was issued to ${row.decision} the lot, not to ${decision} it; nothing was decided.`);
-	if (row.usedAt) return refused('conflict', 'challenge_used', 'This signing challenge has already been used; each signature needs a new one. Nothing was decided.');
-	if (row.expiresAt <= now) return refused('conflict', 'challenge_expired', `This signing challenge expired (they last ${CHALLENGE_MINUTES} minutes); ask for a new one and sign again. Nothing was decided.`);
+	if (!row || row.userId !== user.id)
+		return refused(
+			'invalid',
+			'challenge_unknown',
+			'No signing challenge with this id was issued to you. Ask for one (POST …/decision/challenge) and sign again.'
+		);
+	if (row.lotId !== lotId)
+		return refused('invalid', 'challenge_wrong_lot', 'This signing challenge was issued for another lot; nothing was decided.');
+	if (row.decision !== decision)
+		return refused(
+			'invalid',
+			'challenge_wrong_decision',
+			`This signing challenge was issued to ${row.decision} the lot, not to ${decision} it; nothing was decided.`
+		);
+	if (row.usedAt)
+		return refused(
+			'conflict',
+			'challenge_used',
+			'This signing challenge has already been used; each signature needs a new one. Nothing was decided.'
+		);
+	if (row.expiresAt <= now)
+		return refused(
+			'conflict',
+			'challenge_expired',
+			`This signing challenge expired (they last ${CHALLENGE_MINUTES} minutes); ask for a new one and sign again. Nothing was decided.`
+		);
 	return null;
 }
 
 /** The lot moved on since the challenge was issued (a reading, a document, a limit changed). */
 export const lotChanged = (from: number, to: number) =>
-	refused('conflict', 'lot_changed', `The lot changed since the signing challenge was issued (revision ${from}, now ${to}): review it as it stands and sign again. Nothing was decided.`);
+	refused(
+		'conflict',
+		'lot_changed',
+		`The lot changed since the signing challenge was issued (revision ${from}, now ${to}): review it as it stands and sign again. Nothing was decided.`
+	);
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -85,8 +128,17 @@ const loadChallenge = async (db: Database | Tx, challengeId: string): Promise<Ch
 	UUID.test(challengeId) ? (await db.select().from(signatureChallenges).where(eq(signatureChallenges.id, challengeId)))[0] : undefined;
 
 /** Read-only check before the password is verified: refuse a wrong, used, expired or stale challenge early. */
-export async function checkChallenge(db: Database, user: SessionUser, lotId: string, decision: SignedDecision, challengeId: string): Promise<void> {
-	const [row, [lot]] = await Promise.all([loadChallenge(db, challengeId), db.select({ revision: lots.revision }).from(lots).where(eq(lots.id, lotId))]);
+export async function checkChallenge(
+	db: Database,
+	user: SessionUser,
+	lotId: string,
+	decision: SignedDecision,
+	challengeId: string
+): Promise<void> {
+	const [row, [lot]] = await Promise.all([
+		loadChallenge(db, challengeId),
+		db.select({ revision: lots.revision }).from(lots).where(eq(lots.id, lotId))
+	]);
 	const why = whyNot(row, user, lotId, decision, new Date());
 	if (why) throw why;
 	if (lot && lot.revision !== row!.lotRevision) throw lotChanged(row!.lotRevision, lot.revision);
@@ -96,7 +148,13 @@ export async function checkChallenge(db: Database, user: SessionUser, lotId: str
  * Consume the challenge inside the decision's transaction (one UPDATE … WHERE used_at IS NULL, so
  * two requests with the same challenge cannot both pass) and return the revision it was issued at.
  */
-export async function consumeChallenge(tx: Tx, user: SessionUser, lotId: string, decision: SignedDecision, challengeId: string): Promise<{ id: string; revision: number }> {
+export async function consumeChallenge(
+	tx: Tx,
+	user: SessionUser,
+	lotId: string,
+	decision: SignedDecision,
+	challengeId: string
+): Promise<{ id: string; revision: number }> {
 	const [claimed] = await tx
 		.update(signatureChallenges)
 		.set({ usedAt: sql`now()` })
@@ -112,5 +170,8 @@ export async function consumeChallenge(tx: Tx, user: SessionUser, lotId: string,
 		)
 		.returning({ id: signatureChallenges.id, revision: signatureChallenges.lotRevision });
 	if (claimed) return claimed;
-	throw whyNot(await loadChallenge(tx, challengeId), user, lotId, decision, new Date()) ?? refused('conflict', 'challenge_used', 'This signing challenge has already been used. Nothing was decided.');
+	throw (
+		whyNot(await loadChallenge(tx, challengeId), user, lotId, decision, new Date()) ??
+		refused('conflict', 'challenge_used', 'This signing challenge has already been used. Nothing was decided.')
+	);
 }

@@ -45,10 +45,16 @@ export async function alertInspectionDiscontinued(tx: Tx, lotId: string, view: S
 		'',
 		`Switching history and the resume form: ${partUrl}`,
 		'',
-		`The last decided lots: ${view.lots.slice(-8).map((l) => `${l.lot_code} ${l.accepted ? 'accepted' : 'not accepted'}`).join(', ')}.`
+		`The last decided lots: ${view.lots
+			.slice(-8)
+			.map((l) => `${l.lot_code} ${l.accepted ? 'accepted' : 'not accepted'}`)
+			.join(', ')}.`
 	];
 	const text = lines.join('\n');
-	const html = `<p>${lines.map(escapeHtml).join('<br>')}</p>`.replace(escapeHtml(partUrl), `<a href="${escapeHtml(partUrl)}">${escapeHtml(partUrl)}</a>`);
+	const html = `<p>${lines.map(escapeHtml).join('<br>')}</p>`.replace(
+		escapeHtml(partUrl),
+		`<a href="${escapeHtml(partUrl)}">${escapeHtml(partUrl)}</a>`
+	);
 	const [notice] = await tx
 		.insert(notices)
 		.values({ lotId, organisationId: own.id, kind: 'alert', recipients, subject, bodyText: text, bodyHtml: html })

@@ -69,16 +69,10 @@ export async function getSupplier(db: Database, id: string): Promise<Supplier | 
 	return all.find((s) => s.id === id) ?? null;
 }
 
-
 export class ContactNotFoundError extends Error {}
 
 /** Add a contact, or edit one when `contact_id` is set. */
-export async function saveContact(
-	db: Database,
-	actor: SessionUser,
-	supplierId: string,
-	form: ContactForm
-): Promise<SupplierContact> {
+export async function saveContact(db: Database, actor: SessionUser, supplierId: string, form: ContactForm): Promise<SupplierContact> {
 	return db.transaction(async (tx) => {
 		const values = { name: form.name, email: form.email.toLowerCase(), receivesNotices: form.receives_notices };
 		const [row] = form.contact_id

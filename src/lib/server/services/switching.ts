@@ -142,7 +142,12 @@ function entriesOf(lots: SwitchingLot[], resumes: Array<{ at: string; reason: st
  * The severity for the next lot of this supplier × part, with the switches that led to it.
  * The code letter for the switching score is the one of the median lot size in the history.
  */
-export async function currentSeverity(db: Database | Tx, supplierId: string, partId: string, opts: SeverityOptions = {}): Promise<SeverityView> {
+export async function currentSeverity(
+	db: Database | Tx,
+	supplierId: string,
+	partId: string,
+	opts: SeverityOptions = {}
+): Promise<SeverityView> {
 	const part = await partSampling(db, partId);
 	if (!part) throw new Error(`part ${partId} not found`);
 	const rows = await decidedLots(db, supplierId, partId, opts);
@@ -158,7 +163,15 @@ export async function currentSeverity(db: Database | Tx, supplierId: string, par
 		return { ...step, lot_code: lot?.lot_code ?? null, at: lot?.decided_at ?? '' };
 	});
 	fillResumeTimes(history, resumes);
-	return { severity: result.severity, switching_score: result.switching_score, history, lots, resumptions: resumes, aql: Number(part.aql), code_letter: letter };
+	return {
+		severity: result.severity,
+		switching_score: result.switching_score,
+		history,
+		lots,
+		resumptions: resumes,
+		aql: Number(part.aql),
+		code_letter: letter
+	};
 }
 
 /** Resume steps carry no lot: give each the first resumption after the step before it. */

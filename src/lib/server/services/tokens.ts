@@ -102,11 +102,23 @@ const lastUseIsStale = sql<boolean>`(${apiTokens.lastUsedAt} is null or ${apiTok
 export async function userForToken(token: string): Promise<SessionUser | null> {
 	const db = getDb();
 	const [row] = await db
-		.select({ tokenId: apiTokens.id, stale: lastUseIsStale, id: users.id, email: users.email, name: users.name, role: users.role, organisationId: users.organisationId })
+		.select({
+			tokenId: apiTokens.id,
+			stale: lastUseIsStale,
+			id: users.id,
+			email: users.email,
+			name: users.name,
+			role: users.role,
+			organisationId: users.organisationId
+		})
 		.from(apiTokens)
 		.innerJoin(users, and(eq(users.id, apiTokens.userId), eq(users.active, true)))
 		.where(and(eq(apiTokens.tokenHash, hashToken(token)), isNull(apiTokens.revokedAt)));
 	if (!row) return null;
-	if (row.stale) await db.update(apiTokens).set({ lastUsedAt: new Date() }).where(and(eq(apiTokens.id, row.tokenId), lastUseIsStale));
+	if (row.stale)
+		await db
+			.update(apiTokens)
+			.set({ lastUsedAt: new Date() })
+			.where(and(eq(apiTokens.id, row.tokenId), lastUseIsStale));
 	return toSessionUser(row);
 }

@@ -34,7 +34,10 @@ export function totpUri(secretBase32: string, accountEmail: string): string {
 
 /** The secret in groups of four for typing by hand: "ABCD EFGH …". */
 export function groupedForTyping(secretBase32: string): string {
-	return secretBase32.replace(/=+$/, '').match(/.{1,4}/g)!.join(' ');
+	return secretBase32
+		.replace(/=+$/, '')
+		.match(/.{1,4}/g)!
+		.join(' ');
 }
 
 /** The time step (30-second slot since 1970) of a moment. */

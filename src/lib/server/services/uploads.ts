@@ -57,7 +57,10 @@ export interface StoredFile {
 }
 
 async function findBySha(db: Database | Tx, lotId: string, sha256: string): Promise<DocumentMeta | null> {
-	const [row] = await db.select(metaColumns).from(documents).where(and(eq(documents.lotId, lotId), eq(documents.sha256, sha256)));
+	const [row] = await db
+		.select(metaColumns)
+		.from(documents)
+		.where(and(eq(documents.lotId, lotId), eq(documents.sha256, sha256)));
 	return row ?? null;
 }
 
@@ -67,11 +70,27 @@ async function findBySha(db: Database | Tx, lotId: string, sha256: string): Prom
  * then the existing row is returned with `existing: true` (the caller decides whether that is an
  * error). A concurrent upload of the same bytes waits on the unique index and ends the same way.
  */
-export async function storeLotFile(tx: Tx, actor: SessionUser, lotId: string, kind: DocumentKind, file: AcceptedFile, use: UploadUse): Promise<StoredFile> {
+export async function storeLotFile(
+	tx: Tx,
+	actor: SessionUser,
+	lotId: string,
+	kind: DocumentKind,
+	file: AcceptedFile,
+	use: UploadUse
+): Promise<StoredFile> {
 	const sha256 = sha256Hex(file.bytes);
 	const [row] = await tx
 		.insert(documents)
-		.values({ lotId, kind, fileName: file.fileName, mime: file.mime, sizeBytes: file.bytes.byteLength, sha256, bytes: Buffer.from(file.bytes), uploadedBy: actor.id })
+		.values({
+			lotId,
+			kind,
+			fileName: file.fileName,
+			mime: file.mime,
+			sizeBytes: file.bytes.byteLength,
+			sha256,
+			bytes: Buffer.from(file.bytes),
+			uploadedBy: actor.id
+		})
 		.onConflictDoNothing({ target: [documents.lotId, documents.sha256] })
 		.returning(metaColumns);
 	if (!row) {

@@ -17,7 +17,13 @@ const PATH = '/signin';
 export const codeStepToken = (cookies: Cookies): string | null => cookies.get(NAME) || null;
 
 export function keepCodeStep(cookies: Cookies, url: URL, token: string): void {
-	cookies.set(NAME, token, { path: PATH, httpOnly: true, sameSite: 'strict', secure: url.protocol === 'https:', maxAge: CODE_STEP_MINUTES * 60 });
+	cookies.set(NAME, token, {
+		path: PATH,
+		httpOnly: true,
+		sameSite: 'strict',
+		secure: url.protocol === 'https:',
+		maxAge: CODE_STEP_MINUTES * 60
+	});
 }
 
 export function dropCodeStep(cookies: Cookies, url: URL): void {

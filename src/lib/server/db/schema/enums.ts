@@ -7,13 +7,7 @@ export const roleEnum = pgEnum('role', ['buyer', 'inspector', 'quality', 'suppli
 export const organisationKindEnum = pgEnum('organisation_kind', ['own', 'supplier']);
 export const lotStatusEnum = pgEnum('lot_status', LOT_STATUSES);
 export const transportEnum = pgEnum('transport_mode', TRANSPORTS);
-export const documentKindEnum = pgEnum('document_kind', [
-	'coc',
-	'un38_3_summary',
-	'sds',
-	'other',
-	'corrective_action'
-]);
+export const documentKindEnum = pgEnum('document_kind', ['coc', 'un38_3_summary', 'sds', 'other', 'corrective_action']);
 export const severityEnum = pgEnum('inspection_severity', ['normal', 'tightened', 'reduced', 'discontinued']);
 export const dispositionEnum = pgEnum('disposition', ['pending', 'accept', 'hold', 'reject']);
 export const noticeStatusEnum = pgEnum('notice_status', ['pending', 'sent', 'failed']);

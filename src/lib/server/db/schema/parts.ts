@@ -28,7 +28,10 @@ export const parts = pgTable(
 		meterAccuracyV: doublePrecision('meter_accuracy_v').notNull().default(0.002),
 		aql: doublePrecision('aql').notNull().default(1),
 		inspectionLevel: text('inspection_level').notNull().default('II'),
-		requiredDocuments: text('required_documents').array().notNull().default(sql`'{coc}'::text[]`),
+		requiredDocuments: text('required_documents')
+			.array()
+			.notNull()
+			.default(sql`'{coc}'::text[]`),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
 	},

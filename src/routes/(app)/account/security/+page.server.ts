@@ -36,10 +36,7 @@ export const load: PageServerLoad = async ({ locals, url, setHeaders }) => {
 	setHeaders({ 'cache-control': 'no-store' });
 	const state = await secondFactorState(user);
 	return {
-		factor:
-			state.state === 'pending'
-				? { state: state.state, secretGrouped: state.secretGrouped, qr: await qrDataUrl(state.uri) }
-				: state,
+		factor: state.state === 'pending' ? { state: state.state, secretGrouped: state.secretGrouped, qr: await qrDataUrl(state.uri) } : state,
 		required: siteRequiresSecondFactor(user.role),
 		changed: url.searchParams.get('changed'),
 		confirmForm: await superValidate(zod4(confirmSecondFactor), { id: 'confirm' }),

@@ -6,7 +6,12 @@ import { sendInvitation } from '$lib/server/services/sign-in';
 import { peopleWithSecondFactor, removeSecondFactor } from '$lib/server/services/second-factor';
 import { clientAddress } from '$lib/server/auth';
 import { changeRole, inviteUser, listUsers, organisationChoices, setActive, UserRuleError, type Actor } from '$lib/server/services/users';
-import { changeRole as changeRoleSchema, invite, removeSecondFactor as removeSecondFactorSchema, setActive as setActiveSchema } from './schemas';
+import {
+	changeRole as changeRoleSchema,
+	invite,
+	removeSecondFactor as removeSecondFactorSchema,
+	setActive as setActiveSchema
+} from './schemas';
 import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 function admin(locals: App.Locals): Actor {
@@ -54,18 +59,31 @@ export const actions: Actions = {
 				await sendInvitation(person);
 			} catch (e) {
 				console.error('[admin] invitation mail failed', e);
-				return message(form, `Created ${person.email}, but the invitation e-mail could not be sent. Try a password reset later.`, { status: 502 });
+				return message(form, `Created ${person.email}, but the invitation e-mail could not be sent. Try a password reset later.`, {
+					status: 502
+				});
 			}
-			return message(form, `Invited ${person.email}. ${person.role === 'supplier' ? 'They sign in with an e-mailed link.' : 'They received a link to choose a password.'}`);
+			return message(
+				form,
+				`Invited ${person.email}. ${person.role === 'supplier' ? 'They sign in with an e-mailed link.' : 'They received a link to choose a password.'}`
+			);
 		} catch (e) {
 			if (e instanceof UserRuleError) return message(form, e.message, { status: 400 });
 			throw e;
 		}
 	},
 	role: (event) =>
-		rowAction(event, (fd) => changeRoleSchema.parse(Object.fromEntries(fd)), (actor, input) => changeRole(actor, input.userId, input.role)),
+		rowAction(
+			event,
+			(fd) => changeRoleSchema.parse(Object.fromEntries(fd)),
+			(actor, input) => changeRole(actor, input.userId, input.role)
+		),
 	active: (event) =>
-		rowAction(event, (fd) => setActiveSchema.parse(Object.fromEntries(fd)), (actor, input) => setActive(actor, input.userId, input.active === 'true')),
+		rowAction(
+			event,
+			(fd) => setActiveSchema.parse(Object.fromEntries(fd)),
+			(actor, input) => setActive(actor, input.userId, input.active === 'true')
+		),
 	/** A lost phone: the person signs in with the password again and sets up a new second factor. */
 	removeSecondFactor: (event) =>
 		rowAction(

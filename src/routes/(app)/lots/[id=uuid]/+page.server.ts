@@ -2,13 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { refusalOf } from '$lib/server/action-errors';
 import { can } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
-import {
-	BEFORE_INSPECTION,
-	cancelLot,
-	getLotForUser,
-	lotTimeline,
-	markAwaitingArrival
-} from '$lib/server/services/lots';
+import { BEFORE_INSPECTION, cancelLot, getLotForUser, lotTimeline, markAwaitingArrival } from '$lib/server/services/lots';
 import { listDocuments, missingDocuments } from '$lib/server/services/documents';
 import { uploadDocument } from '$lib/server/services/uploads';
 import { getPart } from '$lib/server/services/parts';
@@ -93,7 +87,9 @@ export const actions: Actions = {
 	cancel: async ({ locals, params, request }) => {
 		if (!can(locals.user, 'lot:cancel')) error(403, 'Only buyers cancel lots');
 		await lotOr404(locals, params.id);
-		const reason = String((await request.formData()).get('reason') ?? '').trim().slice(0, 500);
+		const reason = String((await request.formData()).get('reason') ?? '')
+			.trim()
+			.slice(0, 500);
 		if (hasControlCharacters(reason, { multiline: true })) {
 			return fail(400, { action: 'cancel', ok: false, message: 'The reason must not contain control characters such as NUL.' });
 		}
@@ -107,7 +103,8 @@ export const actions: Actions = {
 	upload: async ({ locals, params, request }) => {
 		if (!can(locals.user, 'document:upload')) error(403, 'Only buyers attach documents');
 		const lot = await lotOr404(locals, params.id);
-		if (lot.status === 'cancelled') return fail(409, { action: 'upload', ok: false, message: 'The lot is cancelled; documents can no longer be added.' });
+		if (lot.status === 'cancelled')
+			return fail(409, { action: 'upload', ok: false, message: 'The lot is cancelled; documents can no longer be added.' });
 		const form = await request.formData();
 		const kind = documentKindSchema.safeParse(form.get('kind'));
 		const file = form.get('file');

@@ -60,7 +60,10 @@ export const actions: Actions = {
 		try {
 			const challengeId = String(data.get(form.data.decision === 'accept' ? 'challenge_accept' : 'challenge_reject') ?? '');
 			const outcome = await decideOverride(user, event.params.id, { ...form.data, password, challengeId }, event.getClientAddress());
-			return message(form, `Recorded: the lot is now ${outcome.status === 'accepted' ? 'released (accepted)' : 'rejected'}. The supplier notice is queued.`);
+			return message(
+				form,
+				`Recorded: the lot is now ${outcome.status === 'accepted' ? 'released (accepted)' : 'rejected'}. The supplier notice is queued.`
+			);
 		} catch (e) {
 			const refusal = refusalOf(e);
 			if (refusal.code === 'signature_invalid') return setError(form, 'password', refusal.message, { status: 403 });

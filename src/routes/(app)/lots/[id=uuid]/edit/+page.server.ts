@@ -18,7 +18,8 @@ async function editableLot(user: App.Locals['user'], lotId: string) {
 	if (!can(user, 'lot:edit')) error(403, 'Only buyers edit lots');
 	const lot = await getLotForUser(getDb(), user!, lotId);
 	if (!lot) error(404, 'No such lot');
-	if (!BEFORE_INSPECTION.includes(lot.status)) error(409, `This lot is ${lotStateInText(lot.status)}: its purchase facts can no longer change`);
+	if (!BEFORE_INSPECTION.includes(lot.status))
+		error(409, `This lot is ${lotStateInText(lot.status)}: its purchase facts can no longer change`);
 	return lot;
 }
 
@@ -49,7 +50,8 @@ export const actions: Actions = {
 		try {
 			await updateLot(getDb(), locals.user!, lot.id, lotInputFromForm(form.data));
 		} catch (e) {
-			if (e instanceof LotConflictError) return setMessage(form, 'The lot reached the bench meanwhile; its purchase facts can no longer change.', { status: 409 });
+			if (e instanceof LotConflictError)
+				return setMessage(form, 'The lot reached the bench meanwhile; its purchase facts can no longer change.', { status: 409 });
 			return fail(refuseForm(form, e, formField), { form });
 		}
 		redirect(303, `/lots/${lot.id}?edited=1`);

@@ -22,7 +22,16 @@ export const load: PageServerLoad = async ({ locals, params, depends }) => {
 	const [evaluation, readings] = await Promise.all([evaluateLotNow(db, lot.id), listReadings(db, lot.id)]);
 	const { inputs } = evaluation;
 	return {
-		lot: { id: lot.id, lotCode: lot.lotCode, poNumber: lot.poNumber, status: lot.status, quantity: lot.quantity, declaredSoc: lot.declaredSoc, transport: lot.transport, supplierName: lot.supplierName },
+		lot: {
+			id: lot.id,
+			lotCode: lot.lotCode,
+			poNumber: lot.poNumber,
+			status: lot.status,
+			quantity: lot.quantity,
+			declaredSoc: lot.declaredSoc,
+			transport: lot.transport,
+			supplierName: lot.supplierName
+		},
 		part: inputs.part,
 		model: inputs.model,
 		limits: inputs.limits,

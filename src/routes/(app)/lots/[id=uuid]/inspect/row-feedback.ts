@@ -51,16 +51,21 @@ export function feedbackFor(ctx: BenchContext, ocvV: number, temperatureC: numbe
 	if (!Number.isFinite(ocvV) || !Number.isFinite(temperatureC) || ocvV < 0 || temperatureC <= -60 || temperatureC >= 120) return null;
 	let r;
 	try {
-		r = evaluateReading(ctx.model, { ocv_v: ocvV, temperature_c: temperatureC }, {
-			cells_in_series: ctx.cellsInSeries,
-			declared_soc: ctx.declaredSoc,
-			meter_accuracy_v: ctx.meterAccuracyV
-		});
+		r = evaluateReading(
+			ctx.model,
+			{ ocv_v: ocvV, temperature_c: temperatureC },
+			{
+				cells_in_series: ctx.cellsInSeries,
+				declared_soc: ctx.declaredSoc,
+				meter_accuracy_v: ctx.meterAccuracyV
+			}
+		);
 	} catch {
 		return null;
 	}
 	const findings = r.flags.filter((f) => f !== 'below_window' && f !== 'above_window').map((f) => FLAG_FINDINGS[f]);
-	if (r.ocv_at_25c_v < ctx.limits.ocv_min_v || r.ocv_at_25c_v > ctx.limits.ocv_max_v) findings.push(attention('outside_window', 'outside window'));
+	if (r.ocv_at_25c_v < ctx.limits.ocv_min_v || r.ocv_at_25c_v > ctx.limits.ocv_max_v)
+		findings.push(attention('outside_window', 'outside window'));
 	if (r.residual_v !== null && Math.abs(r.residual_v) > ctx.limits.residual_tolerance_v && r.determinate) {
 		findings.push(attention('far_from_declared_soc', 'far from declared SOC'));
 	}

@@ -97,7 +97,12 @@ export class SaveQueue {
 				headers: { 'content-type': 'application/json' },
 				body: JSON.stringify({
 					readings: batch.map(({ serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key }) => ({
-						serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key
+						serial,
+						ocv_v,
+						temperature_c,
+						ac_resistance_mohm,
+						measured_at,
+						client_key
 					}))
 				})
 			});

@@ -8,7 +8,11 @@ import type { RequestHandler } from './$types';
 
 /** GET /api/v1/lots/{id} — the lot with its documents; another supplier's lot is 404. */
 export const GET: RequestHandler = api(async (event) => {
-	const user = authorize(event, 'lot:read', event.locals.user?.role === 'supplier' ? { supplierId: event.locals.user.organisationId } : undefined);
+	const user = authorize(
+		event,
+		'lot:read',
+		event.locals.user?.role === 'supplier' ? { supplierId: event.locals.user.organisationId } : undefined
+	);
 	const db = getDb();
 	const lot = await getLotForUser(db, user, event.params.id);
 	if (!lot) throw notFound('lot');

@@ -16,7 +16,10 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = api(async (event) => {
 	const { user, lot } = await requireLot(event, event.params.id, 'lot:decide');
 	if (event.locals.authMethod !== 'session') {
-		throw new Forbidden('A quality decision is e-signed: sign in interactively and re-enter your password (API tokens cannot sign)', 'session_required');
+		throw new Forbidden(
+			'A quality decision is e-signed: sign in interactively and re-enter your password (API tokens cannot sign)',
+			'session_required'
+		);
 	}
 	const { challenge_id: challengeId, ...body } = await readJson(event.request, overrideRequestSchema);
 	const outcome = await decideOverride(user, lot.id, { ...body, challengeId }, event.getClientAddress());

@@ -32,7 +32,11 @@ export const GET: RequestHandler = api(async (event) => {
 async function readUpload(request: Request): Promise<{ kind: unknown; file: File }> {
 	const length = Number(request.headers.get('content-length') ?? 0);
 	if (length > MAX_DOCUMENT_BYTES + MULTIPART_OVERHEAD) {
-		throw new UploadRefused('too_large', 'file_too_large', `The upload is ${megabytes(length)}; the limit is ${megabytes(MAX_DOCUMENT_BYTES, 0)} per file`);
+		throw new UploadRefused(
+			'too_large',
+			'file_too_large',
+			`The upload is ${megabytes(length)}; the limit is ${megabytes(MAX_DOCUMENT_BYTES, 0)} per file`
+		);
 	}
 	let form: FormData;
 	try {
@@ -65,7 +69,15 @@ export const POST: RequestHandler = api(async (event) => {
 		return json(documentJson(doc), { status: 201, headers: { Location: `/api/v1/lots/${lot.id}/documents/${doc.id}` } });
 	} catch (error) {
 		if (!(error instanceof DuplicateDocument)) throw error; // other refusals answer through api()
-		const body = { error: { code: error.code, message: error.message, issues: error.issues, existing_document_id: error.existing.id, existing_file_name: error.existing.fileName } };
+		const body = {
+			error: {
+				code: error.code,
+				message: error.message,
+				issues: error.issues,
+				existing_document_id: error.existing.id,
+				existing_file_name: error.existing.fileName
+			}
+		};
 		return json(body, { status: statusOf(error.kind) });
 	}
 });

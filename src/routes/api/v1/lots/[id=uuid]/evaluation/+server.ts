@@ -11,7 +11,11 @@ import type { RequestHandler } from './$types';
  * unit numbers to 1e-6); `?detail=summary` also leaves out the per-unit results and the inputs.
  */
 export const GET: RequestHandler = api(async (event) => {
-	const user = authorize(event, 'lot:read', event.locals.user?.role === 'supplier' ? { supplierId: event.locals.user.organisationId } : undefined);
+	const user = authorize(
+		event,
+		'lot:read',
+		event.locals.user?.role === 'supplier' ? { supplierId: event.locals.user.organisationId } : undefined
+	);
 	const db = getDb();
 	const found = await lotRevision(db, event.params.id);
 	// Another supplier's lot is simply not there (404, not 403).
@@ -23,7 +27,10 @@ export const GET: RequestHandler = api(async (event) => {
 
 	const started = performance.now();
 	const body = found.body ?? (await computeAndCache(db, found));
-	const headers = { etag, 'server-timing': `evaluate;dur=${(performance.now() - started).toFixed(1)};desc="${found.body ? 'cached' : 'computed'}"` };
+	const headers = {
+		etag,
+		'server-timing': `evaluate;dur=${(performance.now() - started).toFixed(1)};desc="${found.body ? 'cached' : 'computed'}"`
+	};
 	if (summary) {
 		const { units, inputs: _inputs, ...rest } = JSON.parse(body) as { units: unknown[]; inputs: unknown };
 		return json({ ...rest, unit_count: units.length }, { headers });

@@ -18,7 +18,8 @@ async function readForm(request: Request): Promise<FormData> {
 /** The `file` field through the one upload path (CSV or XLSX by content, size limit, cleaned name). */
 async function fileOf(form: FormData): Promise<MeterFile> {
 	const value = form.get('file');
-	if (!(value instanceof File)) throw unprocessable('The `file` field is missing', [{ path: 'file', message: 'choose a CSV or XLSX file' }]);
+	if (!(value instanceof File))
+		throw unprocessable('The `file` field is missing', [{ path: 'file', message: 'choose a CSV or XLSX file' }]);
 	const incoming = await incomingFile(value);
 	if (!incoming) throw new UploadRefused('malformed', 'empty_file', `“${value.name || 'the file'}” is empty.`);
 	const accepted = acceptUpload('meter_file', incoming);

@@ -16,7 +16,10 @@ import type { RequestHandler } from './$types';
 export const POST: RequestHandler = api(async (event) => {
 	const { user, lot } = await requireLot(event, event.params.id, 'lot:decide');
 	if (event.locals.authMethod !== 'session') {
-		throw new Forbidden('A quality decision is e-signed: sign in interactively to ask for a signing challenge (API tokens cannot sign)', 'session_required');
+		throw new Forbidden(
+			'A quality decision is e-signed: sign in interactively to ask for a signing challenge (API tokens cannot sign)',
+			'session_required'
+		);
 	}
 	const { decision } = await readJson(event.request, challengeRequestSchema);
 	const challenge = await issueChallenge(getDb(), user, lot.id, decision);
