@@ -172,12 +172,16 @@ test('the buyer sees the decisions, notices and the reply on the lot page', asyn
 	await shot(page, 'lot-decision-panel');
 });
 
-test('the buyer reads the supplier scorecard, drawn from the API in the browser', async ({ page }) => {
+test('the buyer reads the supplier scorecard, rendered by the server', async ({ page }) => {
 	const supplierId = await withClient(
 		db.url,
 		async (c) => (await c.query('select supplier_id from lots where id = $1', [held.id])).rows[0].supplier_id
 	);
 	await signInPage(page, app.url, 'buyer@kestrel-mobility.example');
+	// The server sends the figures and the chart in the page itself, before any script runs.
+	const served = await (await page.request.get(`${app.url}/suppliers/${supplierId}/scorecard`)).text();
+	expect(served).toContain('Trend per month');
+	expect(served).toContain('38,462');
 	await page.goto(`${app.url}/suppliers/${supplierId}/scorecard`);
 	await expect(page.getByRole('heading', { name: 'Voltaria Cells Co.' })).toBeVisible();
 	// Two lots decided on original inspection: one held (then released), one rejected for safety.
