@@ -32,6 +32,12 @@ export async function lotRevision(db: Database, lotId: string): Promise<LotRevis
 }
 
 /** Compute the evaluation now and store its served form (evaluation-body.ts) under the revision read before. */
+/** The served evaluation of a lot as JSON text: from the cache at the lot's revision, else computed and cached. */
+export async function evaluationBody(db: Database, lotId: string): Promise<string | null> {
+	const found = await lotRevision(db, lotId);
+	return found ? (found.body ?? (await computeAndCache(db, found))) : null;
+}
+
 export async function computeAndCache(db: Database, lot: LotRevision): Promise<string> {
 	const body = JSON.stringify(servedEvaluation(await evaluateLotNow(db, lot.lotId)));
 	await db

@@ -9,10 +9,22 @@ import { getPart } from '$lib/server/services/parts';
 import { currentSeverity } from '$lib/server/services/switching';
 import { documentKindSchema } from '$lib/schemas/document';
 import { hasControlCharacters } from '$lib/schemas/fields';
+import { evaluationBody } from '$lib/server/services/evaluation-cache';
+import { decisionTrail } from '$lib/server/services/decision-history';
 import { samplingView } from './sampling';
+import type { EvaluationView } from './evaluation-view';
 import type { Actions, PageServerLoad } from './$types';
 
-export const load: PageServerLoad = async ({ locals, params, url }) => {
+async function lotPanels(db: ReturnType<typeof getDb>, user: App.Locals['user'] & object, lot: { id: string; status: string }) {
+	const [body, trail] = await Promise.all([evaluationBody(db, lot.id), decisionTrail(db, user, lot)]);
+	return { evaluation: body ? (JSON.parse(body) as EvaluationView) : null, trail };
+}
+
+/** What `invalidate` names to read the evaluation and the paper trail again (after a submit or a recompute). */
+const LOT_PANELS = 'restvolt:lot-panels';
+
+export const load: PageServerLoad = async ({ locals, params, url, depends }) => {
+	depends(LOT_PANELS);
 	const user = locals.user!;
 	if (!can(user, 'lot:read')) error(403, 'Your role may not read lots');
 	const db = getDb();
@@ -25,7 +37,11 @@ export const load: PageServerLoad = async ({ locals, params, url }) => {
 	const severity = BEFORE_INSPECTION.includes(lot.status)
 		? (await currentSeverity(db, lot.supplierId, lot.partId)).severity
 		: (lot.severity ?? 'normal');
+	const onBenchOrLater = !['draft', 'awaiting_arrival', 'cancelled'].includes(lot.status);
 	return {
+		// Read with the page (not streamed: the page's CSP is hash-based, and kit streams through inline
+		// scripts it cannot hash ahead). The evaluation comes from the cache at the lot's revision.
+		panels: onBenchOrLater ? await lotPanels(db, user, lot) : null,
 		lot: {
 			...lot,
 			createdAt: lot.createdAt.toISOString(),
