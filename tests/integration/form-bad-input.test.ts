@@ -9,7 +9,7 @@ import { startApp, type RunningApp } from '../helpers/app';
 import { DEMO_PASSWORD, postForm, signInApi, tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient, type FreshDatabase } from '../helpers/db';
 import { PART } from './decisions-fixtures';
-import { createLot, partByNumber, type Caller } from './readings-fixtures';
+import { createLot, lotFormFields, partByNumber, type Caller } from './readings-fixtures';
 
 let app: RunningApp;
 let db: FreshDatabase;
@@ -30,20 +30,7 @@ afterAll(async () => {
 	await db?.drop();
 });
 
-async function lotFields(overrides: Record<string, string> = {}) {
-	const part = await partByNumber(buyer, PART);
-	return {
-		po_number: 'KM-PO-STRICT',
-		supplier_id: part.supplier_id,
-		part_id: part.id,
-		quantity: '250',
-		declared_soc_pct: '25',
-		transport: 'sea',
-		un_number: 'UN3480',
-		expected_arrival: '2026-12-20',
-		...overrides
-	};
-}
+const lotFields = (overrides: Record<string, string> = {}) => lotFormFields(buyer, PART, { po_number: 'KM-PO-STRICT', ...overrides });
 
 const lotsWithPo = (po: string) =>
 	withClient(db.url, async (c) => Number((await c.query('select count(*) as n from lots where po_number = $1', [po])).rows[0].n));

@@ -8,7 +8,7 @@ import { startApp, type RunningApp } from '../helpers/app';
 import { postForm, signInApi, tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient } from '../helpers/db';
 import { PART } from './decisions-fixtures';
-import { call, createLot, modelReadings, partByNumber, type Caller } from './readings-fixtures';
+import { call, createLot, lotFormFields, modelReadings, type Caller } from './readings-fixtures';
 
 let app: RunningApp;
 let db: Awaited<ReturnType<typeof freshDatabase>>;
@@ -36,20 +36,7 @@ const stored = (id: string) =>
 			(await c.query('select po_number, quantity, declared_soc, transport, expected_arrival::text from lots where id = $1', [id])).rows[0]
 	);
 
-async function editFields(overrides: Record<string, string> = {}) {
-	const part = await partByNumber(buyer, PART);
-	return {
-		po_number: 'KM-PO-EDIT-1',
-		supplier_id: part.supplier_id,
-		part_id: part.id,
-		quantity: '250',
-		declared_soc_pct: '25',
-		transport: 'sea',
-		un_number: 'UN3480',
-		expected_arrival: '2026-12-20',
-		...overrides
-	};
-}
+const editFields = (overrides: Record<string, string> = {}) => lotFormFields(buyer, PART, { po_number: 'KM-PO-EDIT-1', ...overrides });
 
 const page = (id: string, cookie: string) => fetch(`${app.url}/lots/${id}/edit`, { headers: { cookie }, redirect: 'manual' });
 

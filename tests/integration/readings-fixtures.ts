@@ -39,6 +39,26 @@ export async function partByNumber(c: Caller, partNumber: string): Promise<{ id:
 	return part;
 }
 
+/** The lot form's fields (registering or editing), as a browser posts them, for a part of the demo supplier. */
+export async function lotFormFields(
+	c: Caller,
+	partNumber: string,
+	overrides: Record<string, string> = {}
+): Promise<Record<string, string>> {
+	const part = await partByNumber(c, partNumber);
+	return {
+		po_number: 'KM-PO-FORM',
+		supplier_id: part.supplier_id,
+		part_id: part.id,
+		quantity: '250',
+		declared_soc_pct: '25',
+		transport: 'sea',
+		un_number: 'UN3480',
+		expected_arrival: '2026-12-20',
+		...overrides
+	};
+}
+
 export interface LotSpec {
 	partNumber: string;
 	quantity: number;
