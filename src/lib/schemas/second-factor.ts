@@ -9,16 +9,11 @@ export const totpCode = z
 	.pipe(z.string().regex(/^\d{6}$/, 'Enter the 6 digits your authenticator app shows'));
 
 /**
- * Confirming enrolment: the password and the first code from the newly added secret. The password
- * keeps someone holding a stolen session cookie from putting the account on their own phone.
+ * Confirming enrolment and turning the factor off both take the password and a current code. At
+ * enrolment the password keeps someone holding a stolen session cookie from putting the account on
+ * their own phone.
  */
-export const confirmSecondFactor = z.object({
-	password: z.string().min(1, 'Enter your password').max(1024),
-	code: totpCode
-});
-
-/** Turning the factor off: the password and a current code. */
-export const turnOffSecondFactor = z.object({
+export const passwordAndCode = z.object({
 	password: z.string().min(1, 'Enter your password').max(1024),
 	code: totpCode
 });

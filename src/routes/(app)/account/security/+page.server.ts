@@ -12,9 +12,9 @@ import {
 	turnOffSecondFactor,
 	type CodeOutcome
 } from '$lib/server/services/second-factor';
-import { confirmSecondFactor, turnOffSecondFactor as turnOffSchema } from '$lib/schemas/second-factor';
+import { passwordAndCode } from '$lib/schemas/second-factor';
 import type { SessionUser } from '$lib/roles';
-import type { Actions, PageServerLoad } from './$types';
+import type { Actions, PageServerLoad, RequestEvent } from './$types';
 
 const HERE = '/account/security';
 
@@ -39,8 +39,8 @@ export const load: PageServerLoad = async ({ locals, url, setHeaders }) => {
 		factor: state.state === 'pending' ? { state: state.state, secretGrouped: state.secretGrouped, qr: await qrDataUrl(state.uri) } : state,
 		required: siteRequiresSecondFactor(user.role),
 		changed: url.searchParams.get('changed'),
-		confirmForm: await superValidate(zod4(confirmSecondFactor), { id: 'confirm' }),
-		turnOffForm: await superValidate(zod4(turnOffSchema), { id: 'turn-off' })
+		confirmForm: await superValidate(zod4(passwordAndCode), { id: 'confirm' }),
+		turnOffForm: await superValidate(zod4(passwordAndCode), { id: 'turn-off' })
 	};
 };
 
@@ -48,6 +48,22 @@ const WRONG_CODE = 'That password and code do not match. Enter your password and
 
 function refusal(outcome: Exclude<CodeOutcome, 'done'>, wrong: string) {
 	return outcome === 'throttled' ? { text: THROTTLED_MESSAGE, status: 429 as const } : { text: wrong, status: 400 as const };
+}
+
+type PasswordAndCodeStep = typeof confirmEnrolment;
+
+/** The two password-and-code forms: read the form, run the step, go back to the page or say why not. */
+async function withPasswordAndCode(event: RequestEvent, id: string, step: PasswordAndCodeStep, changed: 'on' | 'off', wrong: string) {
+	const user = staff(event.locals);
+	const form = await superValidate(event, zod4(passwordAndCode), { id });
+	const { password, code } = form.data;
+	form.data.password = ''; // never echo a password back to the browser
+	form.data.code = '';
+	if (!form.valid) return fail(400, { form });
+	const outcome = await step(user, { password, code }, event.locals.sessionId, clientAddress(event));
+	if (outcome === 'done') redirect(303, `${HERE}?changed=${changed}`);
+	const { text, status } = refusal(outcome, wrong);
+	return message(form, text, { status });
 }
 
 export const actions: Actions = {
@@ -60,29 +76,13 @@ export const actions: Actions = {
 		redirect(303, HERE);
 	},
 
-	confirm: async (event) => {
-		const user = staff(event.locals);
-		const form = await superValidate(event, zod4(confirmSecondFactor), { id: 'confirm' });
-		const { password, code } = form.data;
-		form.data.password = ''; // never echo a password back to the browser
-		form.data.code = '';
-		if (!form.valid) return fail(400, { form });
-		const outcome = await confirmEnrolment(user, { password, code }, event.locals.sessionId, clientAddress(event));
-		if (outcome === 'done') redirect(303, `${HERE}?changed=on`);
-		const { text, status } = refusal(outcome, WRONG_CODE);
-		return message(form, text, { status });
-	},
-
-	turnOff: async (event) => {
-		const user = staff(event.locals);
-		const form = await superValidate(event, zod4(turnOffSchema), { id: 'turn-off' });
-		const { password, code } = form.data;
-		form.data.password = ''; // never echo a password back to the browser
-		form.data.code = '';
-		if (!form.valid) return fail(400, { form });
-		const outcome = await turnOffSecondFactor(user, { password, code }, event.locals.sessionId, clientAddress(event));
-		if (outcome === 'done') redirect(303, `${HERE}?changed=off`);
-		const { text, status } = refusal(outcome, 'That password and code do not match. Both are needed to turn the second factor off.');
-		return message(form, text, { status });
-	}
+	confirm: (event) => withPasswordAndCode(event, 'confirm', confirmEnrolment, 'on', WRONG_CODE),
+	turnOff: (event) =>
+		withPasswordAndCode(
+			event,
+			'turn-off',
+			turnOffSecondFactor,
+			'off',
+			'That password and code do not match. Both are needed to turn the second factor off.'
+		)
 };
