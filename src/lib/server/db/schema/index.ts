@@ -11,3 +11,4 @@ export * from './decisions';
 export * from './notices';
 export * from './audit';
 export * from './derived';
+export * from './webhooks';

@@ -10,6 +10,12 @@ export const apiTokens = pgTable(
 			.notNull()
 			.references(() => users.id, { onDelete: 'cascade' }),
 		label: text('label').notNull(),
+		// What the token may do, within its user's role (token-scopes.ts); 'role' = everything the role may.
+		scope: text('scope', { enum: ['role', 'read', 'readings:write', 'webhooks:manage'] })
+			.notNull()
+			.default('role'),
+		// Null only for tokens made before expiry existed and by `npm run token`.
+		expiresAt: timestamp('expires_at', { withTimezone: true }),
 		tokenHash: text('token_hash').notNull().unique(),
 		prefix: text('prefix').notNull(),
 		createdBy: text('created_by').references(() => users.id),
