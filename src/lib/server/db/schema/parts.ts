@@ -22,6 +22,8 @@ export const parts = pgTable(
 		ocvMaxCellV: doublePrecision('ocv_max_cell_v').notNull(),
 		residualToleranceMv: doublePrecision('residual_tolerance_mv').notNull().default(60),
 		spreadLimitMv: doublePrecision('spread_limit_mv').notNull().default(50),
+		// Largest max − min of a pack's cell-group voltages (common practice for a balanced pack at rest).
+		imbalanceLimitMv: doublePrecision('imbalance_limit_mv').notNull().default(50),
 		outlierK: doublePrecision('outlier_k').notNull().default(4),
 		selfDischargeLimitMvPerDay: doublePrecision('self_discharge_limit_mv_per_day').notNull().default(2),
 		declaredSocTolerance: doublePrecision('declared_soc_tolerance').notNull().default(0.1),
@@ -42,6 +44,7 @@ export const parts = pgTable(
 		check('parts_parallel_positive', sql`${t.cellsInParallel} >= 1`),
 		check('parts_capacity_positive', sql`${t.nominalCapacityAh} > 0`),
 		check('parts_window_order', sql`${t.ocvMinCellV} < ${t.ocvMaxCellV}`),
+		check('parts_imbalance_limit_positive', sql`${t.imbalanceLimitMv} > 0`),
 		check('parts_soc_tolerance_range', sql`${t.declaredSocTolerance} > 0 and ${t.declaredSocTolerance} <= 1`)
 	]
 );

@@ -33,6 +33,8 @@ export const readings = pgTable(
 		ocvV: doublePrecision('ocv_v').notNull(),
 		temperatureC: doublePrecision('temperature_c').notNull(),
 		acResistanceMohm: doublePrecision('ac_resistance_mohm'),
+		// A pack's cell-group voltages, one per cell in series (the service checks the count against the part).
+		cellGroupVoltages: doublePrecision('cell_group_voltages').array(),
 		measuredAt: timestamp('measured_at', { withTimezone: true }).notNull().defaultNow(),
 		source: readingSourceEnum('source').notNull(),
 		importId: uuid('import_id').references(() => readingImports.id, { onDelete: 'cascade' }),
@@ -48,6 +50,10 @@ export const readings = pgTable(
 		unique('readings_lot_client_key_uq').on(t.lotId, t.clientKey),
 		check('readings_ocv_range', sql`${t.ocvV} >= 0 and ${t.ocvV} < 1000`),
 		check('readings_temperature_range', sql`${t.temperatureC} > -60 and ${t.temperatureC} < 120`),
-		check('readings_resistance_positive', sql`${t.acResistanceMohm} is null or ${t.acResistanceMohm} > 0`)
+		check('readings_resistance_positive', sql`${t.acResistanceMohm} is null or ${t.acResistanceMohm} > 0`),
+		check(
+			'readings_cell_groups_plausible',
+			sql`${t.cellGroupVoltages} is null or (cardinality(${t.cellGroupVoltages}) between 2 and 1000 and array_position(${t.cellGroupVoltages}, null) is null and 0 <= all(${t.cellGroupVoltages}) and 6 >= all(${t.cellGroupVoltages}))`
+		)
 	]
 );

@@ -1,0 +1,4 @@
+ALTER TABLE "parts" ADD COLUMN "imbalance_limit_mv" double precision DEFAULT 50 NOT NULL;--> statement-breakpoint
+ALTER TABLE "readings" ADD COLUMN "cell_group_voltages" double precision[];--> statement-breakpoint
+ALTER TABLE "parts" ADD CONSTRAINT "parts_imbalance_limit_positive" CHECK ("parts"."imbalance_limit_mv" > 0);--> statement-breakpoint
+ALTER TABLE "readings" ADD CONSTRAINT "readings_cell_groups_plausible" CHECK ("readings"."cell_group_voltages" is null or (cardinality("readings"."cell_group_voltages") between 2 and 1000 and array_position("readings"."cell_group_voltages", null) is null and 0 <= all("readings"."cell_group_voltages") and 6 >= all("readings"."cell_group_voltages")));
