@@ -21,11 +21,14 @@ const MIN_POINTS = 6;
 
 const RANK_TOLERANCE = 1e-10;
 
-/**
- * Weighted linear least squares via QR; null when the design matrix is (numerically) rank deficient.
- * Columns are scaled to unit norm first so the rank test on diag(R) is scale-free.
- */
-export function leastSquares(rows: number[][], target: number[], weights?: number[]): number[] | null {
+interface ScaledQr {
+	qr: QrDecomposition;
+	norms: number[];
+	b: Matrix;
+}
+
+/** QR of the weighted design with columns scaled to unit norm (so the rank test on diag(R) is scale-free); null when rank deficient. */
+function scaledQr(rows: number[][], target: number[], weights?: number[]): ScaledQr | null {
 	const w = weights ?? target.map(() => 1);
 	const a = new Matrix(rows.map((r, i) => r.map((v) => v * Math.sqrt(w[i]))));
 	const norms = Array.from({ length: a.columns }, (_, j) => a.getColumnVector(j).norm());
@@ -40,10 +43,45 @@ export function leastSquares(rows: number[][], target: number[], weights?: numbe
 	const r = qr.upperTriangularMatrix;
 	const diag = Array.from({ length: a.columns }, (_, j) => Math.abs(r.get(j, j)));
 	if (Math.min(...diag) <= RANK_TOLERANCE * Math.max(...diag)) return null;
-	return qr
-		.solve(b)
-		.getColumn(0)
-		.map((x, j) => x / norms[j]);
+	return { qr, norms, b };
+}
+
+/** Weighted linear least squares via QR; null when the design matrix is (numerically) rank deficient. */
+export function leastSquares(rows: number[][], target: number[], weights?: number[]): number[] | null {
+	const s = scaledQr(rows, target, weights);
+	return s
+		? s.qr
+				.solve(s.b)
+				.getColumn(0)
+				.map((x, j) => x / s.norms[j])
+		: null;
+}
+
+/**
+ * Leverages h_ii of an unweighted least-squares design (diagonal of the hat matrix X(XᵀX)⁻¹Xᵀ),
+ * from R of its QR: h_ii = |R⁻ᵀ x_i|² (Golub & Van Loan, Matrix Computations, least-squares
+ * chapter). The leave-one-out residual of point i is then e_i / (1 − h_ii) without refitting
+ * (the PRESS residual; Allen 1974, Technometrics 16, 125).
+ */
+export function leverages(rows: number[][]): number[] | null {
+	const s = scaledQr(
+		rows,
+		rows.map(() => 0)
+	);
+	if (!s) return null;
+	const r = s.qr.upperTriangularMatrix;
+	const p = s.norms.length;
+	return rows.map((row) => {
+		const u = new Array<number>(p);
+		let h = 0;
+		for (let j = 0; j < p; j++) {
+			let acc = row[j] / s.norms[j];
+			for (let k = 0; k < j; k++) acc -= r.get(k, j) * u[k];
+			u[j] = acc / r.get(j, j);
+			h += u[j] * u[j];
+		}
+		return h;
+	});
 }
 
 export function residualStats(fn: FormFunctions, points: CurvePoint[]): { rmse_v: number; max_error_v: number } {

@@ -1,6 +1,7 @@
-// Evaluation of the two OCV forms at the 25 °C reference. Each form compiles to a pair of plain
+// Evaluation of the OCV forms (combined, Redlich–Kister; the tabulated one lives in tabulated.ts) at the 25 °C reference. Each form compiles to a pair of plain
 // functions (value, slope dE/dz) over closed-over numbers so the hot loop does no lookups.
 import { FARADAY, REFERENCE_TEMPERATURE_K, thermalVoltage } from './constants';
+import { type TabulatedParams, tabulatedFunctions } from './tabulated';
 import type { CombinedParams, OcvModel, RedlichKisterParams } from './types';
 
 export interface FormFunctions {
@@ -92,6 +93,7 @@ export function redlichKisterFunctions(p: RedlichKisterParams): FormFunctions {
 }
 
 export function formFunctions(model: OcvModel): FormFunctions {
+	if (model.form === 'tabulated') return tabulatedFunctions(model.params as unknown as TabulatedParams);
 	return model.form === 'combined'
 		? combinedFunctions(model.params as unknown as CombinedParams)
 		: redlichKisterFunctions(model.params as unknown as RedlichKisterParams);

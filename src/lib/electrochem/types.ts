@@ -17,7 +17,7 @@ export const CHEMISTRY_CODES: readonly ChemistryCode[] = Object.freeze([
 	'LISOCL2'
 ] as const);
 
-export type OcvForm = 'combined' | 'redlich_kister';
+export type OcvForm = 'combined' | 'redlich_kister' | 'tabulated';
 export type OcvInformation = 'good' | 'poor' | 'none';
 
 /** Plett's combined model: K0 − K1/s − K2·s + K3·ln s + K4·ln(1−s), s = ε + (1−2ε)·z. */
@@ -45,7 +45,14 @@ export interface FitMetadata {
 	point_count: number;
 	rmse_v: number;
 	max_error_v: number;
-	epsilon: number;
+	/** The combined form's ε; absent on tabulated fits. */
+	epsilon?: number;
+	/** Leave-one-out cross-validated RMS error over the interior points, V (fits since the tabulated form). */
+	cv_rmse_v?: number;
+	/** SOC range the points cover; outside it the curve is extrapolated. */
+	soc_range?: [number, number];
+	/** True when non-increasing points were pooled (isotonic regression) at the caller's request. */
+	smoothed?: boolean;
 }
 
 export interface OcvModel {
@@ -53,7 +60,7 @@ export interface OcvModel {
 	name: string;
 	version: string;
 	form: OcvForm;
-	/** Form-specific, JSON: CombinedParams or RedlichKisterParams. */
+	/** Form-specific, JSON: CombinedParams, RedlichKisterParams or TabulatedParams. */
 	params: Record<string, unknown>;
 	nominal_v: number;
 	/** Model OCV at z = 0 and z = 1, 25 °C, per cell. */

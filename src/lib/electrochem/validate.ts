@@ -8,6 +8,9 @@ import type { OcvModel } from './types';
 
 type Obj = Record<string, unknown>;
 
+export const MIN_TABULATED_POINTS = 5;
+export const MAX_TABULATED_POINTS = 5_000;
+
 const isObj = (x: unknown): x is Obj => typeof x === 'object' && x !== null && !Array.isArray(x);
 const isNum = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x);
 const isStr = (x: unknown): x is string => typeof x === 'string' && x.length > 0;
@@ -17,7 +20,19 @@ function validEpsilon(x: unknown): boolean {
 	return isNum(x) && x > 0 && x < 0.5;
 }
 
+/** Tabulated knots: 5 to 5,000 points, soc strictly increasing in [0, 1], ocv strictly increasing. */
+function cleanTabulated(p: Obj): Obj | null {
+	const { soc, ocv_v } = p;
+	if (!Array.isArray(soc) || !Array.isArray(ocv_v) || soc.length !== ocv_v.length) return null;
+	if (soc.length < MIN_TABULATED_POINTS || soc.length > MAX_TABULATED_POINTS) return null;
+	if (!soc.every(isNum) || !ocv_v.every(isNum)) return null;
+	const rising = (xs: number[]) => xs.every((v, i) => i === 0 || v > xs[i - 1]);
+	if (!rising(soc) || !rising(ocv_v) || soc[0] < 0 || soc[soc.length - 1] > 1) return null;
+	return { soc: [...soc], ocv_v: [...ocv_v] };
+}
+
 function cleanParams(form: unknown, p: unknown): Obj | null {
+	if (isObj(p) && form === 'tabulated') return cleanTabulated(p);
 	if (!isObj(p) || !validEpsilon(p.epsilon)) return null;
 	if (form === 'combined') {
 		const keys = ['k0', 'k1', 'k2', 'k3', 'k4'] as const;
@@ -53,7 +68,7 @@ function limitsConsistent(m: Obj): boolean {
 
 export function validateModel(x: unknown): OcvModel | null {
 	if (!isObj(x) || !isChemistryCode(x.chemistry) || !isStr(x.name) || !isStr(x.version)) return null;
-	if (x.form !== 'combined' && x.form !== 'redlich_kister') return null;
+	if (x.form !== 'combined' && x.form !== 'redlich_kister' && x.form !== 'tabulated') return null;
 	const params = cleanParams(x.form, x.params);
 	const entropic = cleanEntropic(x.entropic_mv_per_k);
 	const range = cleanRange(x.temperature_range_c);
