@@ -7,6 +7,8 @@ declare global {
 			user: SessionUser | null;
 			/** How the user authenticated: an interactive session or an API token. */
 			authMethod: 'session' | 'token' | null;
+			/** An API token's scope (server/token-scopes.ts); null for a cookie session. */
+			tokenScope: import('$lib/server/token-scopes').TokenScope | null;
 			/** The server-side session row of a cookie session (services/sessions.ts), or null. */
 			sessionId: string | null;
 			/** Set by handleError when PostgreSQL was unreachable: the answer becomes a 503 (unavailable.ts). */

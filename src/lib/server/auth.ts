@@ -21,7 +21,7 @@ import { activeSessionUser } from './services/users';
 import { checkStaffPassword, recordSignIn, sendMailLater, supplierMayUseLink } from './services/sign-in';
 import { endSession, sessionUser, startSession, SESSION_LIFETIME_HOURS } from './services/sessions';
 import { appOrigin, onAppOrigin } from './origin';
-import { userForToken } from './services/tokens';
+import { tokenGrant } from './services/tokens';
 import { checkSignInCode, startCodeStep } from './services/second-factor';
 import type { Role } from '$lib/roles';
 
@@ -252,12 +252,14 @@ export const resolveUser: Handle = async ({ event, resolve }) => {
 	event.locals.user = null;
 	event.locals.authMethod = null;
 	event.locals.sessionId = null;
+	event.locals.tokenScope = null;
 	const token = bearerToken(event.request);
 	if (token !== undefined && event.url.pathname.startsWith('/api/')) {
-		const user = token ? await userForToken(token) : null;
-		if (user) {
-			event.locals.user = user;
+		const grant = token ? await tokenGrant(token) : null;
+		if (grant) {
+			event.locals.user = grant.user;
 			event.locals.authMethod = 'token';
+			event.locals.tokenScope = grant.scope;
 		}
 		return resolve(event);
 	}

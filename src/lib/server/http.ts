@@ -7,6 +7,7 @@ import type { z } from 'zod';
 import { can, type Action, type Resource, type SessionUser } from './policy';
 import { isDatabaseUnavailable } from './db/unavailable';
 import { statusOf } from './error-status';
+import { scopeAllows } from './token-scopes';
 import { Conflict, DomainError, Forbidden, Invalid, Malformed, NotFound, Unauthenticated, Unavailable, type Issue } from './errors';
 
 export { isDatabaseUnavailable };
@@ -128,6 +129,8 @@ export function authorize(event: Pick<RequestEvent, 'locals'>, action: Action, r
 	const user = event.locals.user;
 	if (!user) throw new Unauthenticated('Sign in or send an API token (Authorization: Bearer …)');
 	if (!can(user, action, resource)) throw new Forbidden('Your role may not do this');
+	const scope = event.locals.tokenScope;
+	if (scope && !scopeAllows(scope, action)) throw new Forbidden(`This API token's scope (${scope}) does not cover this`, 'token_scope');
 	return user;
 }
 

@@ -36,6 +36,7 @@ export type Action =
 	| 'admin:orgs'
 	| 'admin:tokens'
 	| 'admin:outbox'
+	| 'admin:webhooks'
 	| 'self:read';
 
 /** Actions about the signed-in person themself: every role, no resource needed. */
@@ -92,8 +93,11 @@ const GRANTS: Record<Role, readonly Action[]> = {
 		'sampling:resume'
 	],
 	supplier: ['lot:read', 'document:read', 'notice:read', 'notice:acknowledge', 'report:read'],
-	admin: ['admin:users', 'admin:orgs', 'admin:tokens', 'admin:outbox', 'electrochem:use']
+	admin: ['admin:users', 'admin:orgs', 'admin:tokens', 'admin:outbox', 'admin:webhooks', 'electrochem:use']
 };
+
+/** Whether a role has an action at all, before resource checks (e.g. which token scopes a person may hold). */
+export const roleHas = (role: Role, action: Action): boolean => GRANTS[role].includes(action);
 
 /** The resource being touched, when it belongs to a supplier organisation. */
 export interface Resource {

@@ -14,6 +14,8 @@ import { notices } from '../db/schema';
 import { renderInspectionReport } from '../reports';
 import { buildReportData } from '../services/report-data';
 import { createTransport, mailFrom } from './transport';
+import { deliverWebhookTask } from '../webhooks/task';
+import { DELIVER_WEBHOOK_TASK } from '../services/webhooks';
 import {
 	markAttemptFailed,
 	markSent,
@@ -89,7 +91,8 @@ export function startOutboxWorker(o: OutboxOptions = outboxOptionsFromEnv()): ()
 				pollInterval: o.pollMs,
 				noHandleSignals: true,
 				logger,
-				taskList: { [SEND_NOTICE_TASK]: sendNoticeTask }
+				// Webhook deliveries share the queue: the same transactional add, retries and shutdown.
+				taskList: { [SEND_NOTICE_TASK]: sendNoticeTask, [DELIVER_WEBHOOK_TASK]: deliverWebhookTask }
 			});
 			if (stopped) await started.stop();
 			else runner = started;

@@ -12,6 +12,7 @@ import { dateTime } from '$lib/format';
 import { lotStateInText } from '$lib/status';
 import { can } from '../policy';
 import { recordAudit } from './audit';
+import { queueWebhookEvent } from './webhooks';
 import { evaluateLotNow, type LotEvaluation } from './evaluation';
 import { queueNotice } from './notices';
 import { lockSamplingOfLot, refreshSamplingState } from './sampling-state';
@@ -113,6 +114,15 @@ async function applyAutomatic(
 		entityId: evaluation.lot_id,
 		lotId: evaluation.lot_id,
 		details: { kind: 'automatic', from, to: status, evaluationId, safety: evaluation.safety, reason }
+	});
+	await queueWebhookEvent(tx, 'lot.decided', {
+		lot_id: evaluation.lot_id,
+		decision_id: decision.id,
+		kind: 'automatic',
+		from,
+		to: status,
+		safety: evaluation.safety,
+		reason
 	});
 	return { status, decisionId: decision.id, noticeId };
 }
@@ -299,6 +309,15 @@ export async function decideOverride(
 			lotId,
 			ip,
 			details: { from: 'on_hold', to: status, signature }
+		});
+		await queueWebhookEvent(tx, 'lot.decided', {
+			lot_id: lotId,
+			lot_code: won.lotCode,
+			decision_id: decision.id,
+			kind: 'override',
+			from: 'on_hold',
+			to: status,
+			reason
 		});
 		return {
 			lotId,

@@ -8,6 +8,7 @@ import { auditEvents, decisions, lots, organisations, parts, readings, users } f
 import type { SessionUser } from '$lib/roles';
 import { LOT_FIELD, unNumberProblem, type LotInput, type LotStatus } from '$lib/schemas/lot';
 import { recordAudit } from './audit';
+import { queueWebhookEvent } from './webhooks';
 import { currentSeverity } from './switching';
 import { Conflict, invalidFields, Malformed } from '../errors';
 
@@ -121,6 +122,14 @@ export async function createLot(db: Database, actor: SessionUser, input: LotInpu
 			})
 			.returning();
 		await audit(tx, actor, lot.id, 'lot.create', { lotCode: lot.lotCode, status: lot.status, ...input }, opts.ip);
+		await queueWebhookEvent(tx, 'lot.registered', {
+			lot_id: lot.id,
+			lot_code: lot.lotCode,
+			supplier_id: lot.supplierId,
+			part_id: lot.partId,
+			quantity: lot.quantity,
+			status: lot.status
+		});
 		return lot;
 	});
 }
@@ -289,6 +298,7 @@ export const markAwaitingArrival = (db: Database, actor: SessionUser, lotId: str
 export async function recordArrival(tx: Tx, actor: SessionUser, lotId: string): Promise<LotRow> {
 	const row = await transitionLot(tx, lotId, ['awaiting_arrival'], 'in_inspection', { receivedAt: new Date() });
 	await audit(tx, actor, lotId, 'lot.arrival', { to: 'in_inspection' });
+	await queueWebhookEvent(tx, 'lot.arrived', { lot_id: lotId, lot_code: row.lotCode, received_at: row.receivedAt?.toISOString() ?? null });
 	return row;
 }
 

@@ -10,6 +10,7 @@ import { renderNotice, type FinalStatus, type NoticeKind } from '../mail/templat
 import { enqueueNoticeSend } from '../mail/outbox';
 import { NotFound } from '../errors';
 import { recordAudit } from './audit';
+import { queueWebhookEvent } from './webhooks';
 import { appOrigin } from '../origin';
 import type { SessionUser } from '../../roles';
 
@@ -167,6 +168,11 @@ export async function acknowledgeNotice(db: Database, user: SessionUser, id: str
 			entityType: 'notice',
 			entityId: id,
 			lotId: n.lotId
+		});
+		await queueWebhookEvent(tx, 'notice.acknowledged', {
+			notice_id: id,
+			lot_id: n.lotId,
+			acknowledged_at: updated.acknowledgedAt!.toISOString()
 		});
 		return { id, acknowledgedAt: updated.acknowledgedAt!.toISOString(), already: false };
 	});
