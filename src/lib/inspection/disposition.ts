@@ -2,6 +2,7 @@
 // Precedence: reject beats pending beats hold beats accept. Deterministic: same input, same output.
 import { lotStatistics, robustCentre, robustOutliers, selfDischargeOfParsed, spreadCheck, median, type LotStatistics } from './statistics';
 import { variablesCheck, type VariablesCheck } from './variables';
+import { checkCellGroups, type CellGroupCheck } from './cell-groups';
 import type { SamplingPlan, Severity, UnitResult } from './types';
 
 export type Transport = 'air' | 'sea' | 'road' | 'rail';
@@ -17,6 +18,8 @@ export interface PartLimits {
 	self_discharge_limit_mv_per_day: number;
 	/** SOC fraction, e.g. 0.1 for ±10 points. */
 	declared_soc_tolerance: number;
+	/** Largest max − min of a pack's cell-group voltages, mV; omitted: imbalance is not judged. */
+	imbalance_limit_mv?: number;
 }
 
 export interface LotInfo {
@@ -33,6 +36,8 @@ export interface UnitInput {
 	serial: string;
 	result: UnitResult;
 	self_discharge_mv_per_day?: number | null;
+	/** A pack's cell-group voltages (one per cell in series), V; null when not recorded. */
+	cell_group_voltages?: number[] | null;
 }
 
 export interface DispositionInput {
@@ -45,10 +50,17 @@ export interface DispositionInput {
 	aql?: number | null;
 	/** Smallest OCV spread trusted by the outlier rule (meter resolution), volts. Default 0.0005. */
 	ocv_resolution_v?: number;
+	/** Cells in series of the part (1 for a cell); packs without group voltages get a note. */
+	cells_in_series?: number;
+	/** The chemistry model's rest-voltage limits per cell, used for cell groups. */
+	cell_limits?: { min_safe_v: number; max_v: number };
 }
 
 export type ReasonCode =
 	| 'deep_discharge'
+	| 'over_voltage'
+	| 'imbalance_over_limit'
+	| 'cell_groups_not_recorded'
 	| 'nonconforming_over_limit'
 	| 'sample_incomplete'
 	| 'dg_soc_over_limit'
@@ -72,13 +84,20 @@ export interface Reason {
 }
 
 export type UnitFlag =
-	UnitResult['flags'][number] | 'outlier' | 'residual_over_tolerance' | 'self_discharge_over_limit' | 'outside_part_window';
+	| UnitResult['flags'][number]
+	| 'outlier'
+	| 'residual_over_tolerance'
+	| 'self_discharge_over_limit'
+	| 'outside_part_window'
+	| 'imbalance_over_limit';
 
 export interface UnitDisposition extends UnitResult {
 	serial: string;
 	self_discharge_mv_per_day: number | null;
 	nonconforming: boolean;
 	unit_flags: UnitFlag[];
+	/** The pack's cell groups judged (weakest, strongest, imbalance); null when none were recorded. */
+	cell_groups: CellGroupCheck | null;
 }
 
 export interface Disposition {
@@ -96,6 +115,8 @@ export interface Disposition {
 export const AIR_SOC_LIMIT = 0.3;
 const NC_FLAGS: ReadonlySet<UnitFlag> = new Set<UnitFlag>([
 	'deep_discharge',
+	'over_voltage',
+	'imbalance_over_limit',
 	'outside_part_window',
 	'residual_over_tolerance',
 	'outlier',
@@ -104,6 +125,11 @@ const NC_FLAGS: ReadonlySet<UnitFlag> = new Set<UnitFlag>([
 
 /** Unit-level findings that count as nonconforming and are also listed as information. */
 const INFO_REASONS: ReadonlyArray<{ code: ReasonCode; flag: UnitFlag; message: string }> = [
+	{
+		code: 'imbalance_over_limit',
+		flag: 'imbalance_over_limit',
+		message: "Cell-group voltages differ (max − min) by more than the part's imbalance limit; counted as nonconforming."
+	},
 	{ code: 'outliers_present', flag: 'outlier', message: 'OCV far from the lot median (robust outlier rule); counted as nonconforming.' },
 	{
 		code: 'self_discharge_over_limit',
@@ -118,9 +144,13 @@ const INFO_REASONS: ReadonlyArray<{ code: ReasonCode; flag: UnitFlag; message: s
 	}
 ];
 
-function unitFlags(u: UnitInput, limits: PartLimits, isOutlier: boolean): UnitFlag[] {
+function unitFlags(u: UnitInput, limits: PartLimits, isOutlier: boolean, groups: CellGroupCheck | null): UnitFlag[] {
 	// Part limits replace the chemistry window, so the chemistry's below/above flags are not carried.
 	const flags: UnitFlag[] = u.result.flags.filter((f) => f !== 'below_window' && f !== 'above_window');
+	// The weakest (or strongest) group counts: the average cell voltage can hide it.
+	if (groups?.deep_discharge_groups.length && !flags.includes('deep_discharge')) flags.push('deep_discharge');
+	if (groups?.over_voltage_groups.length && !flags.includes('over_voltage')) flags.push('over_voltage');
+	if (groups?.imbalance_over_limit) flags.push('imbalance_over_limit');
 	const v = u.result.ocv_at_25c_v;
 	if (v < limits.ocv_min_v || v > limits.ocv_max_v) flags.push('outside_part_window');
 	const r = u.result.residual_v;
@@ -209,6 +239,48 @@ function socReasons(lot: LotInfo, limits: PartLimits, units: readonly UnitDispos
 	return reasons;
 }
 
+/** The unit's cell groups judged, when recorded for every cell in series and the model's limits are known. */
+function cellGroupsOf(u: UnitInput, input: DispositionInput): CellGroupCheck | null {
+	const voltages = u.cell_group_voltages;
+	const limits = input.cell_limits;
+	// Groups stored before the part's series count was changed no longer describe its cells: not used.
+	if (!voltages || !limits || voltages.length < 2 || voltages.length !== (input.cells_in_series ?? 1)) return null;
+	return checkCellGroups(voltages, { ...limits, imbalance_limit_mv: input.limits.imbalance_limit_mv ?? Infinity });
+}
+
+/** " (… group 4 at 1.812 V …)" for the units whose deep discharge only a cell group shows. */
+function weakGroupsText(units: readonly UnitDisposition[]): string {
+	const shown = units.flatMap((u) =>
+		u.cell_groups?.deep_discharge_groups.length
+			? [`${u.serial} group ${u.cell_groups.weakest_group} at ${u.cell_groups.min_v.toFixed(3)} V`]
+			: []
+	);
+	return shown.length > 0 ? ` (weakest cell group: ${shown.join('; ')})` : '';
+}
+
+/** Over-voltage (average or a group) holds the lot; a pack read without its groups gets a plain note. */
+function cellGroupReasons(units: readonly UnitDisposition[], input: DispositionInput): Reason[] {
+	const reasons: Reason[] = [];
+	const over = serialsWith(units, 'over_voltage');
+	if (over.length > 0)
+		reasons.push({
+			code: 'over_voltage',
+			severity: 'hold',
+			message: `${over.length} unit(s) rest above the chemistry's highest safe voltage (overcharged); counted as nonconforming. Keep them apart from heat and other cells and handle per the site's procedure.`,
+			units: over
+		});
+	const series = input.cells_in_series ?? 1;
+	const unseen = units.filter((u) => u.cell_groups === null).map((u) => u.serial);
+	if (series > 1 && unseen.length > 0)
+		reasons.push({
+			code: 'cell_groups_not_recorded',
+			severity: 'info',
+			message: `${unseen.length} pack(s) judged on the average cell voltage (pack voltage ÷ ${series}): one dead cell group can hide in the total. Record the cell-group voltages (e.g. the BMS readout) to see the weakest group.`,
+			units: unseen
+		});
+	return reasons;
+}
+
 function statusOf(reasons: readonly Reason[], incomplete: boolean): Disposition['status'] {
 	if (reasons.some((r) => r.severity === 'reject')) return 'reject';
 	if (incomplete) return 'pending';
@@ -223,13 +295,15 @@ export function decideLot(input: DispositionInput): Disposition {
 	const centre = ocv.length > 0 ? robustCentre(ocv) : undefined;
 	const outlierIdx = new Set(robustOutliers(ocv, limits.outlier_k, input.ocv_resolution_v ?? 0.0005, centre));
 	const units: UnitDisposition[] = input.units.map((u, i) => {
-		const flags = unitFlags(u, limits, outlierIdx.has(i));
+		const groups = cellGroupsOf(u, input);
+		const flags = unitFlags(u, limits, outlierIdx.has(i), groups);
 		return {
 			serial: u.serial,
 			...u.result,
 			self_discharge_mv_per_day: u.self_discharge_mv_per_day ?? null,
 			nonconforming: flags.some((f) => NC_FLAGS.has(f)),
-			unit_flags: flags
+			unit_flags: flags,
+			cell_groups: groups
 		};
 	});
 	const ncSerials = units.filter((u) => u.nonconforming).map((u) => u.serial);
@@ -240,10 +314,11 @@ export function decideLot(input: DispositionInput): Disposition {
 		reasons.push({
 			code: 'deep_discharge',
 			severity: 'reject',
-			message: `${deep.length} unit(s) rest below the safe minimum voltage. Quarantine them and do not recharge; handle per the site's procedure for damaged cells.`,
+			message: `${deep.length} unit(s) rest below the safe minimum voltage${weakGroupsText(units)}. Quarantine them and do not recharge; handle per the site's procedure for damaged cells.`,
 			units: deep
 		});
 	}
+	reasons.push(...cellGroupReasons(units, input));
 	if (ncSerials.length >= plan.reject) {
 		reasons.push({
 			code: 'nonconforming_over_limit',
@@ -319,6 +394,7 @@ export interface TimedUnitReading {
 	serial: string;
 	measured_at: string;
 	result: UnitResult;
+	cell_group_voltages?: number[] | null;
 }
 
 export interface EvaluateLotInput extends Omit<DispositionInput, 'units'> {
@@ -345,7 +421,8 @@ export function evaluateLot(input: EvaluateLotInput): Disposition {
 
 /** A unit read once needs no dates (no self-discharge pair); otherwise each timestamp is parsed once. */
 function unitOf(serial: string, list: readonly TimedUnitReading[]): UnitInput {
-	if (list.length === 1) return { serial, result: list[0].result, self_discharge_mv_per_day: null };
+	if (list.length === 1)
+		return { serial, result: list[0].result, self_discharge_mv_per_day: null, cell_group_voltages: list[0].cell_group_voltages ?? null };
 	const times = list.map((r) => Date.parse(r.measured_at));
 	let latest = 0;
 	for (let i = 1; i < list.length; i++) if (times[i] > times[latest]) latest = i;
@@ -353,5 +430,14 @@ function unitOf(serial: string, list: readonly TimedUnitReading[]): UnitInput {
 		times,
 		list.map((r) => r.result.ocv_at_25c_v)
 	);
-	return { serial, result: list[latest].result, self_discharge_mv_per_day: sd };
+	return { serial, result: list[latest].result, self_discharge_mv_per_day: sd, cell_group_voltages: latestGroups(list, times) };
+}
+
+/** The groups of the unit's latest reading that has them: a later pack-only reading (a second OCV) does not erase them. */
+function latestGroups(list: readonly TimedUnitReading[], times: readonly number[]): number[] | null {
+	let found = -1;
+	list.forEach((r, i) => {
+		if (r.cell_group_voltages && (found < 0 || times[i] > times[found])) found = i;
+	});
+	return found < 0 ? null : (list[found].cell_group_voltages ?? null);
 }

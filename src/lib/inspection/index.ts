@@ -27,6 +27,14 @@ export {
 } from './statistics';
 export { variablesCheck, formK, moments, bimodalityCoefficient, jarqueBera, type VariablesCheck, type Moments } from './variables';
 export {
+	checkCellGroups,
+	cellGroupProblems,
+	MAX_GROUP_V,
+	GROUP_SUM_TOLERANCE,
+	type CellGroupCheck,
+	type CellGroupLimits
+} from './cell-groups';
+export {
 	decideLot,
 	evaluateLot,
 	AIR_SOC_LIMIT,

@@ -38,6 +38,8 @@ export const partLimitsSchema = z
 		ocv_max_cell_v: positive('Highest OCV per cell (V)', 10),
 		residual_tolerance_mv: positive('Residual tolerance (mV)', 2000),
 		spread_limit_mv: positive('Spread limit (mV)', 5000),
+		// Packs: largest max − min of the cell-group voltages (50 mV: common practice for a balanced pack at rest).
+		imbalance_limit_mv: positive('Cell-group imbalance limit (mV)', 2000).default(50),
 		outlier_k: positive('Outlier factor k', 50),
 		self_discharge_limit_mv_per_day: positive('Self-discharge limit (mV/day)', 1000),
 		declared_soc_tolerance_pct: positive('Declared-SOC tolerance (%)', 100),

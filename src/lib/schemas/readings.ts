@@ -1,6 +1,7 @@
 // Shapes of readings, meter-file mappings and sampling-plan queries, shared by the API, the
 // services and the browser grid.
 import { z } from 'zod';
+import { MAX_GROUP_V } from '$lib/inspection/cell-groups';
 import { decimal, fromText, plausibleInstant, text, wholeNumber } from './fields';
 
 /** Most readings accepted in one call; beyond it the API answers 413. */
@@ -26,7 +27,18 @@ export const readingSchema = z.object({
 		.max(MAX_AC_RESISTANCE_MOHM, 'ac_resistance_mohm must be at most 100,000 mΩ (100 Ω); check the unit')
 		.nullish(),
 	measured_at: plausibleInstant('measured_at').nullish(),
-	client_key: text().min(8).max(64).nullish()
+	client_key: text().min(8).max(64).nullish(),
+	// A pack's cell-group voltages (one per cell in series, V); the service checks the count against the part.
+	cell_group_voltages: z
+		.array(
+			finite('cell_group_voltages')
+				.min(0, 'cell_group_voltages must be ≥ 0 V')
+				.max(MAX_GROUP_V, `cell_group_voltages must be at most ${MAX_GROUP_V} V per group; check the unit`),
+			{ error: 'cell_group_voltages must be a list of numbers' }
+		)
+		.min(2, 'cell_group_voltages needs one voltage per cell in series (at least 2)')
+		.max(1000, 'cell_group_voltages holds at most 1000 groups')
+		.nullish()
 });
 export type ReadingInputRow = z.infer<typeof readingSchema>;
 

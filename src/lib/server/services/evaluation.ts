@@ -49,7 +49,15 @@ export interface EvaluationInputs {
 	switching_state: SwitchingState;
 	model: OcvModel;
 	/** Columnar copy of the readings used, in insertion order. */
-	readings: { id: number[]; serial: string[]; ocv_v: number[]; temperature_c: number[]; measured_at: string[] };
+	readings: {
+		id: number[];
+		serial: string[];
+		ocv_v: number[];
+		temperature_c: number[];
+		measured_at: string[];
+		/** A pack's cell-group voltages per reading (null: none recorded); absent in snapshots stored before they existed. */
+		cell_group_voltages?: Array<number[] | null>;
+	};
 }
 
 export interface LotEvaluation {
@@ -105,17 +113,32 @@ async function documentKinds(db: Database | Tx, lotId: string): Promise<LotDocum
 
 async function loadReadings(db: Database | Tx, lotId: string): Promise<EvaluationInputs['readings']> {
 	const rows = await db
-		.select({ id: readings.id, serial: readings.serial, ocv: readings.ocvV, t: readings.temperatureC, at: readings.measuredAt })
+		.select({
+			id: readings.id,
+			serial: readings.serial,
+			ocv: readings.ocvV,
+			t: readings.temperatureC,
+			at: readings.measuredAt,
+			groups: readings.cellGroupVoltages
+		})
 		.from(readings)
 		.where(eq(readings.lotId, lotId))
 		.orderBy(asc(readings.id));
-	const out: EvaluationInputs['readings'] = { id: [], serial: [], ocv_v: [], temperature_c: [], measured_at: [] };
+	const out: Required<EvaluationInputs['readings']> = {
+		id: [],
+		serial: [],
+		ocv_v: [],
+		temperature_c: [],
+		measured_at: [],
+		cell_group_voltages: []
+	};
 	for (const r of rows) {
 		out.id.push(r.id);
 		out.serial.push(r.serial);
 		out.ocv_v.push(r.ocv);
 		out.temperature_c.push(r.t);
 		out.measured_at.push(r.at.toISOString());
+		out.cell_group_voltages.push(r.groups);
 	}
 	return out;
 }
@@ -130,7 +153,8 @@ function limitsOf(part: LoadedLot['part']): PartLimits {
 		spread_limit_mv: part.spreadLimitMv,
 		outlier_k: part.outlierK,
 		self_discharge_limit_mv_per_day: part.selfDischargeLimitMvPerDay,
-		declared_soc_tolerance: part.declaredSocTolerance
+		declared_soc_tolerance: part.declaredSocTolerance,
+		imbalance_limit_mv: part.imbalanceLimitMv
 	};
 }
 
@@ -219,7 +243,12 @@ export function computeEvaluation(inputs: EvaluationInputs, plan = planOf(inputs
 		r.ocv_v.map((ocv_v, i) => ({ ocv_v, temperature_c: r.temperature_c[i] })),
 		{ cells_in_series: inputs.part.cells_in_series, declared_soc: inputs.lot.declared_soc, meter_accuracy_v: inputs.part.meter_accuracy_v }
 	);
-	const timed: TimedUnitReading[] = results.map((result, i) => ({ serial: r.serial[i], measured_at: r.measured_at[i], result }));
+	const timed: TimedUnitReading[] = results.map((result, i) => ({
+		serial: r.serial[i],
+		measured_at: r.measured_at[i],
+		result,
+		cell_group_voltages: r.cell_group_voltages?.[i] ?? null
+	}));
 	const { id: _id, lot_code: _code, status: _status, ...lot } = inputs.lot;
 	const disposition = evaluateLot({
 		lot,
@@ -227,7 +256,9 @@ export function computeEvaluation(inputs: EvaluationInputs, plan = planOf(inputs
 		severity: inputs.plan_request.severity,
 		limits: inputs.limits,
 		readings: timed,
-		aql: inputs.part.aql
+		aql: inputs.part.aql,
+		cells_in_series: inputs.part.cells_in_series,
+		cell_limits: { min_safe_v: inputs.model.min_safe_v, max_v: inputs.model.max_v }
 	});
 	// With no readings at all the core still reports the SOC rules as "indeterminate"; nothing was
 	// measured yet, so only "sample incomplete" applies (reported to the inspection core's owner).

@@ -8,6 +8,7 @@ import type { z } from 'zod';
 import type { SessionUser } from '$lib/roles';
 import { MAX_READINGS_PER_CALL, readingSchema, type ReadingCorrection, type ReadingInputRow } from '$lib/schemas/readings';
 import { lotStateInText } from '$lib/status';
+import { cellGroupProblems } from '$lib/inspection/cell-groups';
 import type { Database, Tx } from '../db';
 import { readings } from '../db/schema';
 import { Conflict, Invalid, NotFound, TooLarge, type Issue } from '../errors';
@@ -20,7 +21,7 @@ export type ReadingSource = 'keyboard' | 'import' | 'api';
 // A lot awaiting its decision (sample complete) still takes readings: extra units, second OCVs.
 const OPEN_STATUSES = ['awaiting_arrival', 'in_inspection', 'pending_decision'] as const;
 /** A held lot may be corrected too: quality then re-evaluates it (a new evaluation row). */
-const CORRECTABLE = ['in_inspection', 'pending_decision', 'on_hold'];
+export const CORRECTABLE = ['in_inspection', 'pending_decision', 'on_hold'];
 /** Rows per INSERT … SELECT FROM unnest(…): one round trip per chunk, parameters stay arrays. */
 const CHUNK = 5000;
 
@@ -44,6 +45,8 @@ export interface StoredReading {
 	source: ReadingSource;
 	client_key: string | null;
 	import_id: string | null;
+	/** A pack's cell-group voltages, V (null when not recorded). */
+	cell_group_voltages: number[] | null;
 }
 
 interface LockedLot {
@@ -53,7 +56,7 @@ interface LockedLot {
 }
 
 /** Lock the lot row so concurrent batches and the submit see one order of events. */
-async function lockLot(tx: Tx, lotId: string): Promise<LockedLot> {
+export async function lockLot(tx: Tx, lotId: string): Promise<LockedLot> {
 	const result = await tx.execute<LockedLot & Record<string, unknown>>(
 		sql`select id, status::text as status, supplier_id from lots where id = ${lotId} for update`
 	);
@@ -95,19 +98,45 @@ async function insertChunk(
 ): Promise<number> {
 	const now = new Date().toISOString();
 	const result = await tx.execute(sql`
-		insert into readings (lot_id, serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key, source, import_id, entered_by)
+		insert into readings (lot_id, serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key, cell_group_voltages, source, import_id, entered_by)
 		select ${lotId}::uuid, u.serial, u.ocv_v, u.temperature_c, u.ac_resistance_mohm, u.measured_at, u.client_key,
-		       ${source}::reading_source, ${importId}::uuid, ${user.id}
+		       u.cell_groups::float8[], ${source}::reading_source, ${importId}::uuid, ${user.id}
 		from unnest(
 			${sql.param(rows.map((r) => r.serial))}::text[],
 			${sql.param(rows.map((r) => r.ocv_v))}::float8[],
 			${sql.param(rows.map((r) => r.temperature_c))}::float8[],
 			${sql.param(rows.map((r) => r.ac_resistance_mohm ?? null))}::float8[],
 			${sql.param(rows.map((r) => r.measured_at ?? now))}::timestamptz[],
-			${sql.param(rows.map((r) => r.client_key ?? null))}::text[]
-		) as u(serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key)
+			${sql.param(rows.map((r) => r.client_key ?? null))}::text[],
+			${sql.param(rows.map((r) => groupsLiteral(r.cell_group_voltages)))}::text[]
+		) as u(serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key, cell_groups)
 		on conflict (lot_id, client_key) do nothing`);
 	return result.rowCount ?? 0;
+}
+
+/** A list of voltages as a PostgreSQL array literal: unnest cannot carry one array per row of a 2-D array. */
+function groupsLiteral(voltages: number[] | null | undefined): string | null {
+	return voltages ? `{${voltages.join(',')}}` : null;
+}
+
+/** Rows that carry cell-group voltages must match the part (count = cells in series, sum ≈ pack OCV). */
+async function checkCellGroups(tx: Tx, lotId: string, rows: ReadingInputRow[]): Promise<void> {
+	if (!rows.some((r) => r.cell_group_voltages)) return;
+	const [{ cells_in_series }] = (
+		await tx.execute<{ cells_in_series: number }>(
+			sql`select p.cells_in_series from lots l join parts p on p.id = l.part_id where l.id = ${lotId}`
+		)
+	).rows;
+	const issues: Issue[] = rows.flatMap((r, i) =>
+		r.cell_group_voltages
+			? cellGroupProblems(r.cell_group_voltages, { cells_in_series, ocv_v: r.ocv_v }).map((message) => ({
+					path: `readings.${i}.cell_group_voltages`,
+					message
+				}))
+			: []
+	);
+	if (issues.length > 0)
+		throw new Invalid(`Cell-group voltages of ${issues.length} reading(s) do not fit the part; nothing was stored`, issues.slice(0, 200));
 }
 
 /** Inside an open transaction (used by the meter import, which also writes its import row). */
@@ -125,6 +154,7 @@ export async function addReadingsTx(
 			`This lot is ${lotStateInText(lot.status)}; readings can only be added while it is awaiting arrival, on the bench or awaiting decision`
 		);
 	}
+	await checkCellGroups(tx, lotId, rows);
 	const arrived = lot.status === 'awaiting_arrival';
 	if (arrived) await recordArrival(tx, user, lotId);
 	let inserted = 0;
@@ -207,7 +237,8 @@ const selectColumns = {
 	measured_at: readings.measuredAt,
 	source: readings.source,
 	client_key: readings.clientKey,
-	import_id: readings.importId
+	import_id: readings.importId,
+	cell_group_voltages: readings.cellGroupVoltages
 };
 
 /** All readings of a lot in the order they were stored. */

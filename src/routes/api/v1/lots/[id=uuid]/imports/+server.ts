@@ -2,6 +2,7 @@ import { json } from '@sveltejs/kit';
 import { importMappingSchema, MAX_IMPORT_BYTES } from '$lib/schemas/readings';
 import { getDb } from '$lib/server/db';
 import { api, authorize, badRequest, notFound, parseWith, unprocessable } from '$lib/server/http';
+import { importCellGroups } from '$lib/server/services/cell-group-import';
 import { commitImport, previewImport, type MeterFile } from '$lib/server/services/imports';
 import { getLotForUser } from '$lib/server/services/lots';
 import { acceptUpload, incomingFile, UploadRefused } from '$lib/server/services/uploads';
@@ -43,6 +44,9 @@ function mappingOf(form: FormData) {
  * `?preview=true` (or a `preview` field) parses and maps without writing: header, guessed mapping,
  * first rows and row-level errors. Otherwise the readings are stored all or nothing; the same file
  * twice answers 200 with `already_imported_at` and stores nothing.
+ * `kind=cell_groups` (form field): a BMS readout instead, `serial,group_1,…,group_N` in volts (N = the
+ * part's cells in series), setting the cell-group voltages of each unit's latest reading; 200 {updated,
+ * readings}. Layout: services/cell-group-import.ts.
  */
 export const POST: RequestHandler = api(async (event) => {
 	const user = authorize(event, 'reading:write');
@@ -55,6 +59,7 @@ export const POST: RequestHandler = api(async (event) => {
 	}
 	const form = await readForm(event.request);
 	const file = await fileOf(form);
+	if (form.get('kind') === 'cell_groups') return json(await importCellGroups(db, user, lot.id, file));
 	const mapping = mappingOf(form);
 	const preview = event.url.searchParams.get('preview') === 'true' || form.get('preview') === 'true';
 	if (preview) return json(await previewImport(db, lot.id, file, mapping));
