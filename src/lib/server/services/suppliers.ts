@@ -43,6 +43,20 @@ async function contactsByOrg(db: Database | Tx, orgIds: string[]): Promise<Map<s
 	return map;
 }
 
+/**
+ * Parts per supplier, as a plain grouped query. (A correlated subquery inside the select rendered
+ * the outer column unqualified, so it compared the parts table with itself and counted 0.)
+ */
+async function partCountsByOrg(db: Database | Tx, orgIds: string[]): Promise<Map<string, number>> {
+	if (orgIds.length === 0) return new Map();
+	const rows = await db
+		.select({ supplierId: parts.supplierId, count: sql<number>`count(*)::int` })
+		.from(parts)
+		.where(inArray(parts.supplierId, orgIds))
+		.groupBy(parts.supplierId);
+	return new Map(rows.map((r) => [r.supplierId, r.count]));
+}
+
 /** Every supplier organisation with its contacts, by name. */
 export async function listSuppliers(db: Database): Promise<Supplier[]> {
 	const orgs = await db
@@ -50,17 +64,15 @@ export async function listSuppliers(db: Database): Promise<Supplier[]> {
 			id: organisations.id,
 			name: organisations.name,
 			country: organisations.country,
-			createdAt: organisations.createdAt,
-			partCount: sql<number>`(select count(*)::int from ${parts} where ${parts.supplierId} = ${organisations.id})`
+			createdAt: organisations.createdAt
 		})
 		.from(organisations)
 		.where(eq(organisations.kind, 'supplier'))
 		.orderBy(asc(organisations.name));
-	const contacts = await contactsByOrg(
-		db,
-		orgs.map((o) => o.id)
-	);
-	return orgs.map((o) => ({ ...o, contacts: contacts.get(o.id) ?? [] }));
+	const ids = orgs.map((o) => o.id);
+	const contacts = await contactsByOrg(db, ids);
+	const partCounts = await partCountsByOrg(db, ids);
+	return orgs.map((o) => ({ ...o, contacts: contacts.get(o.id) ?? [], partCount: partCounts.get(o.id) ?? 0 }));
 }
 
 /** One supplier organisation (null when the id is not a supplier). */
