@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { bigserial, check, doublePrecision, index, integer, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import { bigserial, boolean, check, doublePrecision, index, integer, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
 import { readingSourceEnum } from './enums';
 import { lots } from './lots';
 import { users } from './users';
@@ -40,6 +40,8 @@ export const readings = pgTable(
 		importId: uuid('import_id').references(() => readingImports.id, { onDelete: 'cascade' }),
 		// Set by the browser grid so a retried save after a network error is not stored twice.
 		clientKey: text('client_key'),
+		// The inspector confirmed an OCV outside the part's plausible window (the entry guard asked first).
+		confirmedOutOfWindow: boolean('confirmed_out_of_window').notNull().default(false),
 		enteredBy: text('entered_by').references(() => users.id),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 	},

@@ -1,0 +1,1 @@
+ALTER TABLE "readings" ADD COLUMN "confirmed_out_of_window" boolean DEFAULT false NOT NULL;
