@@ -2,6 +2,7 @@ import { and, eq } from 'drizzle-orm';
 import { getLibraryModel, type ChemistryCode } from '../src/lib/electrochem';
 import type { Database } from '../src/lib/server/db';
 import { ocvModels, parts } from '../src/lib/server/db/schema';
+import { upsertVc21Model } from './part-models';
 import type { SeededPeople } from './people';
 import { PARTS, type PartSeed } from './scenario';
 
@@ -39,9 +40,12 @@ export async function seedModelsAndParts(db: Database, people: SeededPeople): Pr
 	const { CHEMISTRY_CODES } = await import('../src/lib/electrochem');
 	const modelIds = new Map<string, string>();
 	for (const code of CHEMISTRY_CODES) modelIds.set(code, await upsertLibraryModel(db, code, people.staff.get('quality')));
+	// one part with its own approved, tabulated model (fitted by one quality manager, approved by the other)
+	const approverEmail = 'quality2@kestrel-mobility.example';
+	const vc21Model = await upsertVc21Model(db, people.staff.get('quality')!, { id: people.staff.get(approverEmail)!, email: approverEmail });
 	for (const part of PARTS) {
 		const supplierId = people.suppliers.get(part.supplier)!;
-		const modelId = modelIds.get(part.chemistry)!;
+		const modelId = part.key === 'vc21' ? vc21Model : modelIds.get(part.chemistry)!;
 		const model = getLibraryModel(part.chemistry);
 		const [ocvMin, ocvMax] = part.window ?? [model.ocv_empty_v, model.ocv_full_v];
 		const found = await db.query.parts.findFirst({

@@ -336,10 +336,15 @@ export function decideLot(input: DispositionInput): Disposition {
 	}
 	const incomplete = units.length < plan.sample_size;
 	if (incomplete) {
+		// A rejection found part-way (ISO 2859-1 lets the rejection number end the sample early) already
+		// decides the lot; saying "no disposition yet" beside it would contradict the verdict.
+		const decided = reasons.some((r) => r.severity === 'reject');
 		reasons.push({
 			code: 'sample_incomplete',
 			severity: 'info',
-			message: `${units.length} of ${plan.sample_size} sample units measured; no disposition until the sample is complete.`
+			message: decided
+				? `${units.length} of ${plan.sample_size} sample units measured; the rejection above already decides the lot, so the rest need not be measured.`
+				: `${units.length} of ${plan.sample_size} sample units measured; no disposition until the sample is complete.`
 		});
 	}
 

@@ -30,9 +30,12 @@ export const curveQuery = z.object({
 	points: fromText(wholeNumber('points must be a whole number from 2 to 1001').min(2).max(1001), { whole: true }).default(101)
 });
 
-/** Everything of an evaluate body except the readings themselves. */
+/** Everything of an evaluate body except the readings themselves; exactly one of chemistry, model, model_id. */
 export const evaluateHeader = z.object({
-	chemistry: chemistryCode,
+	chemistry: chemistryCode.optional(),
+	/** A model object as /ocv/fit returns it; checked by validateModel. */
+	model: z.record(z.string(), z.unknown()).optional(),
+	model_id: z.uuid().optional(),
 	cells_in_series: z.number().int().positive().max(1000).optional(),
 	declared_soc: finite().min(0).max(1).nullable().optional(),
 	meter_accuracy_v: finite().min(0).max(10).optional(),
@@ -74,12 +77,21 @@ export const curvePoint = z.object({
 export const fitBody = z.object({
 	chemistry: chemistryCode,
 	temperature_c: celsius(),
-	points: z.array(curvePoint).min(6, 'at least 6 points are needed').max(MAX_CURVE_POINTS)
+	points: z
+		.array(curvePoint)
+		.min(5, 'at least 5 points are needed')
+		.max(MAX_CURVE_POINTS, `at most ${MAX_CURVE_POINTS} points are allowed`),
+	/** 'nernst' is the combined (Nernst-type) form; 'auto' picks by leave-one-out cross-validation. */
+	form: z.enum(['auto', 'nernst', 'tabulated']).default('auto'),
+	/** Pool non-increasing points by isotonic regression instead of refusing them. */
+	smooth: z.boolean().default(false)
 });
 
 /** Saving a fitted version: the server refits from the points, so stored parameters are its own. */
 export const saveModelBody = fitBody.extend({
-	label: text().trim().max(80).optional()
+	label: text().trim().max(80).optional(),
+	/** Where the points come from (a datasheet, an own measurement). */
+	data_source: text().trim().max(200).optional()
 });
 
 export const modelListQuery = z.object({
@@ -95,9 +107,14 @@ export const saveFitForm = z.object({
 	label: text().trim().max(80).default('')
 });
 
+/** Approving a version is e-signed: password re-entered and a reason (services/models.ts approveModel). */
 export const approveForm = z.object({
-	id: z.uuid()
+	id: z.uuid(),
+	password: z.string().min(1, 'enter your password to sign').max(200),
+	reason: text().trim().min(5, 'give a reason (at least 5 characters)').max(500)
 });
+
+export const approveModelBody = approveForm.omit({ id: true });
 
 /** A stored model version as the API and pages show it. */
 export type ModelStatus = 'approved' | 'awaiting_approval';
@@ -113,6 +130,12 @@ export interface ModelVersion {
 	fit_temperature_c: number | null;
 	fit_rmse_v: number | null;
 	fit_max_error_v: number | null;
+	/** Leave-one-out cross-validated σ of a fitted version, V. */
+	fit_sigma_v: number | null;
+	form: string | null;
+	point_count: number | null;
+	data_source: string | null;
+	approval_reason: string | null;
 	created_at: string;
 	created_by: string | null;
 	approved_at: string | null;

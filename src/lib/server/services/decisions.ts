@@ -197,7 +197,7 @@ export const SAFETY_RELEASE_REFUSED =
  * The password check of the e-signature: an attempt is reserved per signer before the hash is
  * checked (parallel guesses queue behind it and back off), failures are kept and audited.
  */
-async function verifySignature(user: SessionUser, password: string, ip: string | null): Promise<void> {
+export async function verifySignature(user: SessionUser, password: string, ip: string | null): Promise<void> {
 	const key = `signature:${user.id}`;
 	const reservation = await reserveAttempt([accountLimit(key)]);
 	if (!reservation) throw new Throttled('Too many wrong passwords — wait a few minutes and try again.');

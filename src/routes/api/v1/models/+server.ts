@@ -16,9 +16,9 @@ export const POST: RequestHandler = api(async (event) => {
 	const body = await readJson(event.request, saveModelBody);
 	const saved = await saveFittedModel(user, body);
 	if (saved.ok) return json(saved.version, { status: 201 });
-	const { reason, ...fit } = saved;
+	const { reason, issues, ...fit } = saved;
 	const numbers = { rmse_v: nullIfNaN(fit.rmse_v), max_error_v: nullIfNaN(fit.max_error_v), monotonic: fit.monotonic };
-	return json({ error: { code: 'fit_rejected', message: `The fit was rejected: ${reason}` }, ...numbers }, { status: 422 });
+	return json({ error: { code: 'fit_rejected', message: `The fit was rejected: ${reason}`, issues }, ...numbers }, { status: 422 });
 });
 
 const nullIfNaN = (x: number) => (Number.isFinite(x) ? x : null);
