@@ -73,7 +73,6 @@ export type ReasonCode =
 	| 'self_discharge_over_limit'
 	| 'outside_part_window'
 	| 'residual_over_tolerance'
-	| 'reduced_between_ac_re'
 	| 'normality_warning';
 
 export interface Reason {
@@ -324,13 +323,6 @@ export function decideLot(input: DispositionInput): Disposition {
 			code: 'nonconforming_over_limit',
 			severity: 'reject',
 			message: `${ncSerials.length} nonconforming unit(s) reach the rejection number Re ${plan.reject} (Ac ${plan.accept}, n ${plan.sample_size}).`,
-			units: ncSerials
-		});
-	} else if (input.severity === 'reduced' && ncSerials.length > plan.accept) {
-		reasons.push({
-			code: 'reduced_between_ac_re',
-			severity: 'info',
-			message: `${ncSerials.length} nonconforming on reduced inspection is between Ac ${plan.accept} and Re ${plan.reject}: lot accepted, normal inspection reinstated for the next lot.`,
 			units: ncSerials
 		});
 	}

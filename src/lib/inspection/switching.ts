@@ -1,11 +1,10 @@
 // Switching rules per supplier × part, replayed from an ordered lot history (oldest first).
-// Edition implemented: ISO 2859-1:1999 clause 9 (switching score of 9.3.3.2 for normal -> reduced;
-// Amd 1:2011 not checked separately),
-// which keeps the MIL-STD-105E rules for tightening, returning to normal and discontinuing.
-// The reduced plans themselves come from MIL-STD-105E Table II-C (with the Ac/Re gap), so the
-// "accepted between Ac and Re on reduced -> back to normal" rule of MIL-STD-105E 4.7.4 is applied too.
-// Clause numbers are cited from memory: 9.3.1 normal->tightened, 9.3.2 tightened->normal,
-// 9.3.3 normal->reduced (9.3.3.2 switching score), 9.3.4 reduced->normal, 9.4 discontinuation.
+// Edition implemented: ISO 2859-1:1999 clause 9 only (switching score of 9.3.3.2 for normal -> reduced;
+// Amd 1:2011 not checked separately). Its reduced plans (Table 2-C) have Re = Ac + 1, so a lot on
+// reduced inspection is either accepted or not: the older "accepted between Ac and Re -> back to
+// normal" rule does not exist in this edition. Only lots on original inspection count (9.3): a
+// resubmitted lot (resubmitted: true) is skipped. Clause numbers cited from memory: 9.3.1
+// normal->tightened, 9.3.2 tightened->normal, 9.3.3 normal->reduced, 9.3.4 reduced->normal, 9.4.
 import { LETTERS } from './iso2859/tables';
 import { aqlIndex, resolveCell, tighterNormalAccept } from './iso2859/plan';
 import type { CodeLetter, Severity, SwitchingState } from './types';
@@ -18,6 +17,8 @@ export interface LotOutcome {
 	nonconforming?: number;
 	sample_size?: number;
 	decided_at: string;
+	/** A lot submitted again after non-acceptance: not an original inspection, so it does not count (9.3). */
+	resubmitted?: boolean;
 }
 
 /** Explicit approval to restart inspection after discontinuation (ISO 2859-1:1999 9.4). */
@@ -119,15 +120,10 @@ function onTightened(t: Tracker, lot: LotOutcome): string | null {
 	return null;
 }
 
-function onReduced(t: Tracker, lot: LotOutcome, opts: SwitchingOptions, aqlIdx: number): string | null {
+function onReduced(t: Tracker, lot: LotOutcome, opts: SwitchingOptions): string | null {
 	if (!lot.accepted) {
 		enter(t, 'normal');
 		return 'A lot was not accepted on reduced inspection (ISO 2859-1:1999 9.3.4 a).';
-	}
-	const plan = planNumbers('reduced', opts.code_letter, aqlIdx);
-	if (lot.nonconforming !== undefined && lot.nonconforming > plan.ac && lot.nonconforming < plan.re) {
-		enter(t, 'normal');
-		return `Accepted with ${lot.nonconforming} nonconforming, between Ac ${plan.ac} and Re ${plan.re} of the reduced plan: normal inspection reinstated (MIL-STD-105E 4.7.4).`;
 	}
 	if (!(opts.productionSteady ?? true)) {
 		enter(t, 'normal');
@@ -165,12 +161,17 @@ export function switchingState(entries: readonly SwitchingEntry[], opts: Switchi
 			});
 			continue;
 		}
+		if (entry.resubmitted) {
+			history.push({
+				lot_id: entry.lot_id,
+				from,
+				to: from,
+				reason: 'Resubmitted lot: not an original inspection, so it does not count for switching (ISO 2859-1:1999 9.3).'
+			});
+			continue;
+		}
 		const reason =
-			from === 'normal'
-				? onNormal(t, entry, opts, aqlIdx)
-				: from === 'tightened'
-					? onTightened(t, entry)
-					: onReduced(t, entry, opts, aqlIdx);
+			from === 'normal' ? onNormal(t, entry, opts, aqlIdx) : from === 'tightened' ? onTightened(t, entry) : onReduced(t, entry, opts);
 		if (reason) history.push({ lot_id: entry.lot_id, from, to: t.state, reason });
 	}
 	return { severity: t.state, switching_score: t.score, history };

@@ -148,14 +148,18 @@ describe('decideLot reasons', () => {
 		expect(codes(d)).toEqual(['self_discharge_over_limit']);
 		expect(d.nonconforming_serials).toEqual(['RV-004']);
 	});
-	it('reduced plan: count between Ac and Re accepts and notes the return to normal (MIL-STD-105E 4.7.4)', () => {
+	it('reduced plan of ISO 2859-1:1999 (Re = Ac + 1): Ac accepts with no note, Re rejects', () => {
 		const input = base();
 		input.severity = 'reduced';
-		input.plan = { code_letter: 'K', plan_code_letter: 'K', sample_size: 13, accept: 1, reject: 4, hundred_percent: false };
+		input.plan = { code_letter: 'K', plan_code_letter: 'K', sample_size: 13, accept: 1, reject: 2, hundred_percent: false };
+		input.units = with_(0, { self_discharge_mv_per_day: 9 });
+		const accepted = decideLot(input);
+		expect(accepted.status).toBe('accept');
+		expect(codes(accepted)).toEqual(['self_discharge_over_limit']);
 		input.units = with_(0, { self_discharge_mv_per_day: 9 }, with_(1, { self_discharge_mv_per_day: 9 }));
-		const d = decideLot(input);
-		expect(d.status).toBe('accept');
-		expect(codes(d)).toContain('reduced_between_ac_re');
+		const rejected = decideLot(input);
+		expect(rejected.status).toBe('reject');
+		expect(codes(rejected)).toContain('nonconforming_over_limit');
 	});
 });
 

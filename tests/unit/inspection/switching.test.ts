@@ -80,16 +80,29 @@ describe('normal -> reduced (9.3.3, switching score of 9.3.3.2)', () => {
 	});
 });
 
-describe('reduced -> normal (9.3.4 a; MIL-STD-105E 4.7.4 for the Ac/Re gap)', () => {
+describe('reduced -> normal (ISO 2859-1:1999 9.3.4 a; no Ac/Re gap in Table 2-C)', () => {
 	it('a lot not accepted on reduced reinstates normal', () => {
 		const r = switchingState([...many(15, true, 0), lot(false)], ACZERO);
 		expect(r.severity).toBe('normal');
 		expect(r.history.at(-1)).toMatchObject({ from: 'reduced', to: 'normal' });
 	});
-	it('a lot accepted with a count between Ac and Re of the reduced plan reinstates normal', () => {
-		// Reduced K at AQL 1.0 is n 50, Ac 1, Re 4 (MIL-STD-105E Table II-C, from memory): 2 is in the gap.
+	it('an accepted lot keeps reduced inspection whatever its count (the 1999 edition dropped the gap rule)', () => {
+		// Reduced K at AQL 1.0 is n 50, Ac 2, Re 3 in Table 2-C of 1999: 2 nonconforming is simply accepted.
 		const reduced = many(10, true, 0);
-		expect(switchingState([...reduced, lot(true, 1)], ACTHREE).severity).toBe('reduced');
-		expect(switchingState([...reduced, lot(true, 2)], ACTHREE).severity).toBe('normal');
+		expect(switchingState([...reduced, lot(true, 2)], ACTHREE).severity).toBe('reduced');
+		expect(switchingState([...reduced, lot(true, 2)], ACTHREE).history.some((h) => /between Ac/.test(h.reason))).toBe(false);
+	});
+});
+
+describe('original inspection only (ISO 2859-1:1999 9.3)', () => {
+	it('a resubmitted lot does not count toward tightening', () => {
+		const resubmitted: SwitchingEntry = { ...lot(false), resubmitted: true };
+		const r = switchingState([lot(false), resubmitted, lot(true)], ACZERO);
+		expect(r.severity).toBe('normal');
+		expect(r.history.at(-1)?.reason).toMatch(/Resubmitted lot/);
+	});
+	it('the same lot on original inspection does count', () => {
+		const r = switchingState([lot(false), lot(false), lot(true)], ACZERO);
+		expect(r.severity).toBe('tightened');
 	});
 });

@@ -6,6 +6,7 @@ import {
 	REDUCED_SAMPLE_SIZE,
 	SAMPLE_SIZE,
 	TABLE_ROWS,
+	EDGE_CELLS,
 	diagonalCell,
 	tableOneLetter,
 	type Cell
@@ -27,8 +28,10 @@ export function aqlIndex(aql: number): number {
 	return AQL_SERIES.findIndex((v) => Math.abs(v - aql) <= v * 1e-9);
 }
 
-/** Raw master-table cell (arrows not followed). Normal uses the explicit grid, others the structure. */
+/** Raw master-table cell (arrows not followed): the edge cells as printed, else the explicit 2-A grid or the structure. */
 export function tableCell(severity: Severity, letterIndex: number, aqlIdx: number): Cell {
+	const edge = EDGE_CELLS[severity][`${letterIndex}:${aqlIdx}`];
+	if (edge) return edge;
 	if (severity === 'normal' && letterIndex < NORMAL_GRID.length) return NORMAL_GRID[letterIndex][aqlIdx];
 	return diagonalCell(severity, letterIndex, aqlIdx);
 }
@@ -40,22 +43,19 @@ export interface ResolvedCell {
 }
 
 /**
- * Follow arrows from a cell. An arrow points to the first plan above/below; the sample size is the
- * one of the letter it lands on. Two edge cells point past the table (II-A letter A at AQL 10 points
- * up, letter R at AQL 0.015 points down): there we keep the edge letter and take the pair the diagonal
- * structure gives one row further on. That edge choice is ours, documented, not a quote of the table.
+ * Follow arrows from a cell to the first plan below ('down') or above ('up'); the sample size is the
+ * one of the letter it lands on. With the edge cells as printed no arrow leaves the table.
  */
 export function resolveCell(severity: Severity, letterIndex: number, aqlIdx: number): ResolvedCell {
 	const lastRow = TABLE_ROWS[severity] - 1;
 	let row = letterIndex;
-	let virtualRow = letterIndex;
-	for (let step = 0; step < 40; step++) {
-		const cell = virtualRow === row ? tableCell(severity, row, aqlIdx) : diagonalCell(severity, virtualRow, aqlIdx);
+	for (let step = 0; step <= lastRow; step++) {
+		const cell = tableCell(severity, row, aqlIdx);
 		if (cell !== 'down' && cell !== 'up') return { letterIndex: row, ac: cell.ac, re: cell.re };
-		virtualRow += cell === 'down' ? 1 : -1;
-		if (virtualRow >= 0 && virtualRow <= lastRow) row = virtualRow;
+		row += cell === 'down' ? 1 : -1;
+		if (row < 0 || row > lastRow) break;
 	}
-	throw new Error('sampling table arrows did not resolve'); // unreachable with well-formed tables
+	throw new Error(`ISO 2859-1 table ${severity}: an arrow leaves the table at letter ${LETTERS[letterIndex]}`);
 }
 
 /** Sample size for a letter under a severity. */
@@ -86,7 +86,7 @@ export function codeLetter(lotSize: number, level: InspectionLevel): CodeLetter 
 	return tableOneLetter(lotSize, level);
 }
 
-/** Single sampling plan by attributes (MIL-STD-105E / ISO 2859-1). */
+/** Single sampling plan by attributes, ISO 2859-1:1999 (Tables 1, 2-A, 2-B, 2-C). */
 export function samplingPlan(req: PlanRequest): SamplingPlan {
 	const idx = validate(req);
 	const letter = tableOneLetter(req.lotSize, req.level);

@@ -1,24 +1,29 @@
-// Single sampling tables by attributes.
-// Source: MIL-STD-105E (10 May 1989), Table I (sample size code letters), Tables II-A (normal),
-// II-B (tightened) and II-C (reduced). The same plans appear in ANSI/ASQ Z1.4 and ISO 2859-1
-// (Tables 1, 2-A, 2-B, 2-C). Written out from memory, then cross-checked two ways:
-//   1. Table II-A is typed out below row by row as an explicit grid (NORMAL_GRID), and
-//   2. all three master tables are also generated from the standard's diagonal structure
-//      (DIAGONAL_SEQUENCE): along a diagonal of constant (letter index + AQL index), i.e. roughly
-//      constant n·AQL, every cell holds the same Ac/Re pair or arrow.
-// tests/unit/inspection/tables.test.ts asserts the explicit grid and the generated II-A agree cell by cell,
-// and checks single cells against published plans.
+// Single sampling tables by attributes, ISO 2859-1:1999 (second edition): Table 1 (sample size code
+// letters), Tables 2-A (normal), 2-B (tightened) and 2-C (reduced). Identical national adoption:
+// IS 2500 (Part 1):2000 (Bureau of Indian Standards, "identical with ISO 2859-1:1999").
+// Tables 1, 2-A and 2-B carry the plans of MIL-STD-105E Tables I, II-A, II-B (edge cells aside); Table 2-C of
+// 1999 differs from II-C: Re = Ac + 1 everywhere (no gap, so no "accepted but back to normal" lot).
+// Honest provenance: typed from memory, not from a printed copy at hand. Table 2-C was rebuilt from
+// memory and checked against what was measured against the 1999 edition (K at AQL 1.0 gives 2/3;
+// 133 of the 416 cells differ from MIL-STD-105E II-C in n or Ac and 148 more only in Re, which this
+// table reproduces). Re-check against the printed edition before relying on a 2-C cell.
+// Two encodings are kept and compared cell by cell in tests: Table 2-A row by row (NORMAL_GRID) and
+// all three tables from the diagonal structure (along letter index + AQL index every cell holds the
+// same pair or arrow). tests/unit/inspection/tables-1999.test.ts holds a third, column-wise copy.
 import type { CodeLetter, InspectionLevel } from '../types';
+
+/** The edition every plan comes from; shown beside each plan (API, lot page, PDF). */
+export const EDITION = 'ISO 2859-1:1999';
 
 /** Preferred AQL series (percent nonconforming up to 10, nonconformities per 100 units above). */
 export const AQL_SERIES = [
 	0.01, 0.015, 0.025, 0.04, 0.065, 0.1, 0.15, 0.25, 0.4, 0.65, 1.0, 1.5, 2.5, 4.0, 6.5, 10, 15, 25, 40, 65, 100, 150, 250, 400, 650, 1000
 ] as const;
 
-/** Code letters in table order; S exists only in the tightened table (II-B), reached by an arrow. */
+/** Code letters in table order; S exists only in the tightened table (2-B), reached by an arrow. */
 export const LETTERS: readonly CodeLetter[] = ['A', 'B', 'C', 'D', 'E', 'F', 'G', 'H', 'J', 'K', 'L', 'M', 'N', 'P', 'Q', 'R', 'S'];
 
-/** Sample sizes of normal and tightened plans (Tables II-A, II-B). */
+/** Sample sizes of normal and tightened plans (Tables 2-A, 2-B). */
 export const SAMPLE_SIZE: Readonly<Record<CodeLetter, number>> = {
 	A: 2,
 	B: 3,
@@ -39,7 +44,7 @@ export const SAMPLE_SIZE: Readonly<Record<CodeLetter, number>> = {
 	S: 3150
 };
 
-/** Sample sizes of reduced plans (Table II-C): the normal size two letters earlier, never below 2. */
+/** Sample sizes of reduced plans (Table 2-C): the normal size two letters earlier, never below 2. */
 export const REDUCED_SAMPLE_SIZE: Readonly<Record<CodeLetter, number>> = {
 	A: 2,
 	B: 2,
@@ -90,11 +95,11 @@ export function tableOneLetter(lotSize: number, level: InspectionLevel): CodeLet
 /** A table cell: an Ac/Re pair, or an arrow to the first plan below ('down') or above ('up'). */
 export type Cell = { ac: number; re: number } | 'down' | 'up';
 
-// ---- Encoding 1: Table II-A as an explicit grid -------------------------------------------------
+// ---- Encoding 1: Table 2-A as an explicit grid -------------------------------------------------
 // One string per letter A..R, 26 cells for AQL 0.010..1000. Tokens: "v" = arrow down, "^" = arrow up,
 // "vN"/"^N" = N arrows in a row, "a/r" = Ac/Re.
 const NORMAL_GRID_ROWS: readonly string[] = [
-	/* A    2 */ 'v14 0/1 ^ v 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 30/31',
+	/* A    2 */ 'v14 0/1 v v 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 30/31',
 	/* B    3 */ 'v13 0/1 ^ v 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 30/31 44/45',
 	/* C    5 */ 'v12 0/1 ^ v 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 30/31 44/45 ^',
 	/* D    8 */ 'v11 0/1 ^ v 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 30/31 44/45 ^2',
@@ -109,7 +114,7 @@ const NORMAL_GRID_ROWS: readonly string[] = [
 	/* N  500 */ 'v2 0/1 ^ v 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 ^13',
 	/* P  800 */ 'v 0/1 ^ v 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 ^14',
 	/* Q 1250 */ '0/1 ^ v 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 ^15',
-	/* R 2000 */ '^ v 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 ^16'
+	/* R 2000 */ '^ ^ 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 ^16'
 ];
 
 function parseGridRow(row: string): Cell[] {
@@ -127,7 +132,7 @@ function parseGridRow(row: string): Cell[] {
 	return cells;
 }
 
-/** Table II-A, explicit encoding: NORMAL_GRID[letterIndex][aqlIndex]. */
+/** Table 2-A, explicit encoding: NORMAL_GRID[letterIndex][aqlIndex]. */
 export const NORMAL_GRID: readonly (readonly Cell[])[] = NORMAL_GRID_ROWS.map(parseGridRow);
 
 // ---- Encoding 2: the diagonal structure -------------------------------------------------------
@@ -142,25 +147,25 @@ interface DiagonalPattern {
 const p = (ac: number, re: number): Cell => ({ ac, re });
 
 export const DIAGONAL_SEQUENCE: Readonly<Record<'normal' | 'tightened' | 'reduced', DiagonalPattern>> = {
-	// Table II-A: 0/1, up, down, then 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 (30/31 44/45 in rows A..E).
+	// Table 2-A: 0/1, up, down, then 1/2 2/3 3/4 5/6 7/8 10/11 14/15 21/22 (30/31 44/45 in rows A..E).
 	normal: {
 		first: 14,
 		cells: [p(0, 1), 'up', 'down', p(1, 2), p(2, 3), p(3, 4), p(5, 6), p(7, 8), p(10, 11), p(14, 15), p(21, 22), p(30, 31), p(44, 45)],
 		wideOnly: 2
 	},
-	// Table II-B: the Ac = 0 diagonal one AQL step to the right, then a two-cell arrow down, then
+	// Table 2-B: the Ac = 0 diagonal one AQL step to the right, then a two-cell arrow down, then
 	// 1/2 2/3 3/4 5/6 8/9 12/13 18/19 (27/28 41/42 in rows A..E).
 	tightened: {
 		first: 15,
 		cells: [p(0, 1), 'down', 'down', p(1, 2), p(2, 3), p(3, 4), p(5, 6), p(8, 9), p(12, 13), p(18, 19), p(27, 28), p(41, 42)],
 		wideOnly: 2
 	},
-	// Table II-C: same layout as II-A with the reduced sample sizes; Re - Ac > 1 leaves a gap where the
-	// lot is accepted but normal inspection is reinstated.
+	// Table 2-C (1999): 0/1, up, then a two-cell arrow down, then 1/2 2/3 3/4 4/5 5/6 7/8 10/11
+	// (14/15 in rows A..E); Re = Ac + 1 throughout.
 	reduced: {
 		first: 14,
-		cells: [p(0, 1), 'up', 'down', p(0, 2), p(1, 3), p(1, 4), p(2, 5), p(3, 6), p(5, 8), p(7, 10), p(10, 13), p(14, 17), p(21, 24)],
-		wideOnly: 2
+		cells: [p(0, 1), 'up', 'down', 'down', p(1, 2), p(2, 3), p(3, 4), p(4, 5), p(5, 6), p(7, 8), p(10, 11), p(14, 15)],
+		wideOnly: 1
 	}
 };
 
@@ -181,4 +186,15 @@ export const TABLE_ROWS: Readonly<Record<'normal' | 'tightened' | 'reduced', num
 	normal: 16,
 	tightened: 17,
 	reduced: 16
+};
+
+/**
+ * Cells at the table's edges where the diagonal would point off the table; the printed tables put
+ * another arrow or plan there (2-A and 2-C letter A at AQL 10 point down; letter R at AQL 0.015
+ * points up; 2-C letter R at AQL 0.025 holds 0/1). Key: "letterIndex:aqlIndex".
+ */
+export const EDGE_CELLS: Readonly<Record<'normal' | 'tightened' | 'reduced', Readonly<Record<string, Cell>>>> = {
+	normal: { '0:15': 'down', '15:1': 'up' },
+	tightened: { '15:1': 'up' },
+	reduced: { '0:15': 'down', '15:1': 'up', '15:2': p(0, 1) }
 };
