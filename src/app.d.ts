@@ -17,6 +17,8 @@ declare global {
 		interface Error {
 			message: string;
 			code?: string;
+			/** Where the person can go from here, when the refusal belongs to one record (e.g. the lot). */
+			back?: { href: string; label: string };
 		}
 	}
 }

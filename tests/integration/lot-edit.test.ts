@@ -88,7 +88,13 @@ describe('editing a lot before it reaches the bench', () => {
 		});
 		expect(saved.status).toBe(201);
 		const before = await stored(lot.id);
-		expect((await page(lot.id, buyerCookie)).status).toBe(409);
+		const refused = await page(lot.id, buyerCookie);
+		expect(refused.status).toBe(409);
+		// One true sentence and the way back to the lot — no claim of a concurrent change.
+		const html = await refused.text();
+		expect(html).toContain('its purchase facts can no longer change');
+		expect(html).toContain(`href="/lots/${lot.id}"`);
+		expect(html).not.toContain('at the same time');
 		expect((await postForm(app.url, `/lots/${lot.id}/edit`, await editFields(), buyerCookie)).status).toBe(409);
 		expect(await stored(lot.id)).toEqual(before);
 	});

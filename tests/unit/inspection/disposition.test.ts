@@ -76,6 +76,19 @@ describe('decideLot reasons', () => {
 		const d = decideLot(base(goodUnits(12)));
 		expect(d.status).toBe('pending');
 		expect(codes(d)).toContain('sample_incomplete');
+		expect(d.reasons.find((r) => r.code === 'sample_incomplete')?.message).toMatch(/no disposition until the sample is complete/);
+	});
+	it('a rejection part-way through the sample is not contradicted by "no disposition yet"', () => {
+		// ISO 2859-1: once the nonconforming count reaches Re the lot is rejected; the rest need not be measured.
+		let units = goodUnits(6);
+		for (const i of [0, 1, 2]) units = with_(i, { self_discharge_mv_per_day: 5 }, units);
+		const input = base(units);
+		input.limits.spread_limit_mv = 500;
+		const d = decideLot(input);
+		expect(d.status).toBe('reject');
+		const note = d.reasons.find((r) => r.code === 'sample_incomplete')?.message ?? '';
+		expect(note).toMatch(/^6 of 13 sample units measured; the rejection above already decides the lot/);
+		expect(note).not.toMatch(/no disposition/);
 	});
 	it('dg_soc_over_limit -> hold when a unit interval is wholly above 30 % (air, lithium-ion)', () => {
 		const d = decideLot(base(with_(4, { result: result({ soc: 0.4, soc_low: 0.34, soc_high: 0.46 }) })));

@@ -19,7 +19,10 @@ async function editableLot(user: App.Locals['user'], lotId: string) {
 	const lot = await getLotForUser(getDb(), user!, lotId);
 	if (!lot) error(404, 'No such lot');
 	if (!BEFORE_INSPECTION.includes(lot.status))
-		error(409, `This lot is ${lotStateInText(lot.status)}: its purchase facts can no longer change`);
+		error(409, {
+			message: `This lot is ${lotStateInText(lot.status)}: its purchase facts can no longer change.`,
+			back: { href: `/lots/${lot.id}`, label: `Back to lot ${lot.lotCode}` }
+		});
 	return lot;
 }
 
