@@ -210,7 +210,8 @@ function buildModel(
 	sigma: number,
 	stats: { rmse_v: number; max_error_v: number }
 ): OcvModel {
-	const base = getLibraryModel(input.chemistry);
+	// the library's calibrated error curve belongs to its generic curve; a fitted model carries its own σ
+	const { sigma_model_curve_v: _genericCurve, ...base } = getLibraryModel(input.chemistry);
 	const { knots } = prepared;
 	return {
 		...base,

@@ -43,13 +43,22 @@ export {
 	type ReadingInput,
 	type EvaluateOptions,
 	type UnitResult,
+	type EvaluatedUnit,
+	type UncertaintyBudget,
+	type LastDirection,
 	type InversionResult
 } from './types';
 export { getLibraryModel, isChemistryCode, listChemistries, leadAcidOcvFromSpecificGravity } from './models';
 export { entropicMvPerK, correctTo25C } from './thermal';
 export { ocvAt, curve } from './ocv';
 export { invertSoc, NO_INFORMATION_SIGMA } from './invert';
-export { evaluateReading, evaluateReadings, DEFAULT_METER_ACCURACY_V, DEFAULT_INDETERMINATE_WIDTH } from './evaluate';
+export {
+	evaluateReading,
+	evaluateReadings,
+	DEFAULT_METER_ACCURACY_V,
+	DEFAULT_INDETERMINATE_WIDTH,
+	DEFAULT_TEMPERATURE_UNCERTAINTY_K
+} from './evaluate';
 export { fitCombinedModel, type CurvePoint } from './fit';
 export {
 	fitPartModel,

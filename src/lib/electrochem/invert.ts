@@ -85,9 +85,24 @@ export function solveWithTemperature(p: PreparedModel, ocvV: number, temperature
 	return { z, ocv25: correctTo25C(ocvV, p.entropic, z, temperatureC) };
 }
 
-/** Full inversion with σ_SOC (linearised, capped) and the ±2σ interval mapped through the curve. */
-export function invertPrepared(p: PreparedModel, ocvV: number, temperatureC: number, sigmaV: number): InversionResult {
-	const { z, ocv25 } = solveWithTemperature(p, ocvV, temperatureC);
+/** How far the true 25 °C curve value may sit below and above the corrected reading besides the ±2σ (hysteresis branches), V. */
+export interface BranchBand {
+	below: number;
+	above: number;
+	/** Where the reading sits on the model curve: ocv shifted onto the middle curve, V. */
+	shift: number;
+}
+const NO_BAND: BranchBand = { below: 0, above: 0, shift: 0 };
+
+/** Full inversion with σ_SOC (linearised, capped) and the ±2σ interval (widened by the branch band) mapped through the curve. */
+export function invertPrepared(
+	p: PreparedModel,
+	ocvV: number,
+	temperatureC: number,
+	sigmaV: number,
+	band: BranchBand = NO_BAND
+): InversionResult {
+	const { z, ocv25 } = solveWithTemperature(p, ocvV + band.shift, temperatureC);
 	const t = p.table;
 	const clamped = ocv25 <= t[0] ? 'low' : ocv25 >= t[t.length - 1] ? 'high' : null;
 	const slope = p.fn.slope(z);
@@ -95,8 +110,8 @@ export function invertPrepared(p: PreparedModel, ocvV: number, temperatureC: num
 	return {
 		soc: z,
 		soc_sigma,
-		soc_low: invertReference(p, ocv25 - 2 * sigmaV),
-		soc_high: invertReference(p, ocv25 + 2 * sigmaV),
+		soc_low: invertReference(p, ocv25 - band.below - 2 * sigmaV),
+		soc_high: invertReference(p, ocv25 + band.above + 2 * sigmaV),
 		clamped
 	};
 }

@@ -1,20 +1,13 @@
 // Temperature correction through the entropic coefficient dU/dT(z):
 //   U(z, T) = U(z, 25 °C) + (T − 25)·dU/dT(z)    (dU/dT = ΔS/nF, Gibbs–Helmholtz)
 import { REFERENCE_TEMPERATURE_C } from './constants';
+import { piecewiseAt } from './piecewise';
 
 export type EntropicTable = ReadonlyArray<readonly [number, number]>;
 
 /** dU/dT at z in mV/K, piecewise linear over the table, constant beyond its ends. */
 export function entropicMvPerK(table: EntropicTable, z: number): number {
-	const n = table.length;
-	if (n === 0) return 0;
-	if (z <= table[0][0]) return table[0][1];
-	if (z >= table[n - 1][0]) return table[n - 1][1];
-	let i = 1;
-	while (table[i][0] < z) i++;
-	const [z0, m0] = table[i - 1];
-	const [z1, m1] = table[i];
-	return m0 + ((m1 - m0) * (z - z0)) / (z1 - z0);
+	return piecewiseAt(table, z);
 }
 
 /** OCV shift in volts from 25 °C to temperatureC at z. */

@@ -71,6 +71,20 @@ export interface OcvModel {
 	max_v: number;
 	/** Hysteresis/relaxation/cell-to-cell spread the model cannot see, 1σ, V per cell. */
 	sigma_model_v: number;
+	/**
+	 * The same spread as a function of z, piecewise linear, 1σ, V per cell; when present it replaces
+	 * sigma_model_v. Derived from published cells (src/lib/electrochem/calibration).
+	 */
+	sigma_model_curve_v?: Array<[soc: number, v: number]>;
+	/** A reading is determinate only when its 95 % interval is narrower than this (SOC fraction). */
+	determinate_width?: number;
+	/**
+	 * Half the gap between the charge and the discharge branch, V per cell, piecewise linear over z:
+	 * charge branch = curve + h(z), discharge branch = curve − h(z). Absent: no hysteresis.
+	 */
+	hysteresis_half_v?: Array<[soc: number, v: number]>;
+	/** The flat two-phase region, [from, to] in z: a reading there is indeterminate whatever its offset. */
+	plateau?: [from: number, to: number];
 	temperature_range_c: [number, number];
 	rechargeable: boolean;
 	lithium_ion: boolean;
@@ -99,6 +113,22 @@ export interface EvaluateOptions {
 	/** 1σ standard uncertainty of the meter on the pack voltage, V. */
 	meter_accuracy_v?: number;
 	indeterminate_width?: number;
+	/** 1σ uncertainty of the cell temperature, K (a surface probe: ±2 K). */
+	temperature_uncertainty_k?: number;
+	/** How the cell was last moved: picks the hysteresis branch; unknown covers both. */
+	last_direction?: LastDirection;
+}
+
+export type LastDirection = 'after_charge' | 'after_discharge' | 'unknown';
+
+/** What an interval is made of, 1σ in V per cell, and which part limits it. */
+export interface UncertaintyBudget {
+	meter_v: number;
+	model_v: number;
+	temperature_v: number;
+	/** Half the branch gap when the branch is unknown, else 0. */
+	hysteresis_v: number;
+	limited_by: 'model' | 'meter' | 'temperature' | 'plateau';
 }
 
 export interface UnitResult {
@@ -112,7 +142,12 @@ export interface UnitResult {
 	expected_ocv_v: number | null;
 	residual_v: number | null;
 	flags: FlagCode[];
+	/** Always set by evaluateReading; optional because evaluations stored before it have none. */
+	uncertainty?: UncertaintyBudget;
 }
+
+/** What evaluateReading returns: a UnitResult whose budget is always there. */
+export type EvaluatedUnit = UnitResult & { uncertainty: UncertaintyBudget };
 
 export interface InversionResult {
 	soc: number;

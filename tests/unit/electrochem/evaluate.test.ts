@@ -19,15 +19,24 @@ const LFP = getLibraryModel('LFP');
 const numericSlope = (m = NMC, z: number) => (ocvAt(m, z + 1e-5) - ocvAt(m, z - 1e-5)) / 2e-5;
 
 describe('determinacy', () => {
-	it('NMC at 50 % is determinate with σ_SOC < 3 % at 2 mV meter accuracy', () => {
+	it('NMC at 50 %: σ_SOC is the combined σ over the slope, with the calibrated model error', () => {
 		// GUM (JCGM 100:2008) §5.1.2 first-order propagation: σ_SOC = σ_V / |dE/dz|
 		const r = evaluateReading(NMC, { ocv_v: ocvAt(NMC, 0.5), temperature_c: 25 }, { meter_accuracy_v: 0.002 });
-		expect(r.determinate).toBe(true);
 		expect(r.soc).toBeCloseTo(0.5, 6);
-		expect(r.soc_sigma).toBeLessThan(0.03);
+		const u = r.uncertainty;
+		// the model term is at least the calibrated value at 50 % (23 mV, derived from published cells)
+		expect(u.model_v).toBeGreaterThanOrEqual(0.023);
+		const sigmaV = Math.sqrt(u.meter_v ** 2 + u.model_v ** 2 + u.temperature_v ** 2);
+		expect(r.soc_sigma).toBeCloseTo(Math.min(sigmaV / numericSlope(NMC, r.soc), NO_INFORMATION_SIGMA), 6);
+	});
+
+	it('LTO at 50 % with its single 8 mV model error is determinate', () => {
+		// a model without a calibrated curve keeps its single σ_model (LTO sloping curve: common practice)
+		const LTO = getLibraryModel('LTO');
+		const r = evaluateReading(LTO, { ocv_v: ocvAt(LTO, 0.5), temperature_c: 25 }, { meter_accuracy_v: 0.002 });
+		expect(r.determinate).toBe(true);
 		expect(r.flags).toEqual([]);
-		const sigmaV = Math.hypot(0.002, NMC.sigma_model_v);
-		expect(r.soc_sigma).toBeCloseTo(sigmaV / numericSlope(NMC, r.soc), 6);
+		expect(r.uncertainty.model_v).toBe(LTO.sigma_model_v);
 	});
 
 	it('LFP mid-plateau (50 %) is indeterminate', () => {
@@ -56,11 +65,13 @@ describe('determinacy', () => {
 
 	it('the interval is OCV ± 2σ mapped through the curve', () => {
 		// coverage factor k = 2 (GUM JCGM 100:2008 §6.3) applied in voltage, then inverted through the monotonic curve
-		const ocv = ocvAt(NMC, 0.4);
-		const sigma = Math.hypot(0.002, NMC.sigma_model_v);
-		const r = evaluateReading(NMC, { ocv_v: ocv, temperature_c: 25 });
-		expect(ocvAt(NMC, r.soc_low)).toBeCloseTo(ocv - 2 * sigma, 9);
-		expect(ocvAt(NMC, r.soc_high)).toBeCloseTo(ocv + 2 * sigma, 9);
+		const LTO = getLibraryModel('LTO');
+		const ocv = ocvAt(LTO, 0.4);
+		const r = evaluateReading(LTO, { ocv_v: ocv, temperature_c: 25 });
+		const u = r.uncertainty;
+		const sigma = Math.sqrt(u.meter_v ** 2 + u.model_v ** 2 + u.temperature_v ** 2);
+		expect(ocvAt(LTO, r.soc_low)).toBeCloseTo(ocv - 2 * sigma, 9);
+		expect(ocvAt(LTO, r.soc_high)).toBeCloseTo(ocv + 2 * sigma, 9);
 	});
 });
 

@@ -11,6 +11,9 @@ const LI_ION = {
 	rechargeable: true,
 	lithium_ion: true,
 	soc_meaning: 'state_of_charge',
+	// 30 SOC points: still tells "near empty" from "mid" from "near full", which is what the air-transport
+	// limit (30 %) and the declared-SOC tolerance need; wider and a reading cannot place the cell (product rule).
+	determinate_width: 0.3,
 	source: `${COMBINED_FORM_NOTE} ${ANCHOR_NOTE} Voltage limits: common practice. ${ENTROPIC_NOTE}`
 } as const;
 
@@ -48,6 +51,20 @@ export const NMC = liIon({
 	min_safe_v: 2.5,
 	max_v: 4.25,
 	sigma_model_v: 0.005,
+	// derived from published cells (calibration/; scripts/derive-ocv-sigma.ts): replaces the 5 mV above
+	sigma_model_curve_v: [
+		[0, 0.47],
+		[0.1, 0.26],
+		[0.2, 0.108],
+		[0.3, 0.05],
+		[0.4, 0.008],
+		[0.5, 0.023],
+		[0.6, 0.059],
+		[0.7, 0.1],
+		[0.8, 0.118],
+		[0.9, 0.09],
+		[1, 0.025]
+	],
 	entropic_mv_per_k: [
 		[0, -0.4],
 		[0.2, -0.2],
@@ -108,6 +125,31 @@ export const LFP = liIon({
 	max_v: 3.65,
 	// hysteresis between charge and discharge branches is tens of mV on the plateau
 	sigma_model_v: 0.012,
+	// derived from published cells (calibration/; scripts/derive-ocv-sigma.ts): replaces the 12 mV above
+	sigma_model_curve_v: [
+		[0, 0.522],
+		[0.1, 0.253],
+		[0.2, 0.106],
+		[0.3, 0.08],
+		[0.4, 0.047],
+		[0.5, 0.035],
+		[0.6, 0.035],
+		[0.7, 0.03],
+		[0.8, 0.008],
+		[0.9, 0.026],
+		[1, 0.034]
+	],
+	// charge branch = curve + h, discharge branch = curve − h: a gap of about 20–30 mV on the two-phase
+	// plateau, less at the ends (e.g. Dreyer et al., Nature Materials 9 (2010) 448; from memory)
+	hysteresis_half_v: [
+		[0, 0.005],
+		[0.2, 0.012],
+		[0.5, 0.015],
+		[0.9, 0.012],
+		[1, 0.005]
+	],
+	// the flat two-phase region of the published LFP cell (Prada 2013, calibration/): about 20–90 % SOC
+	plateau: [0.2, 0.9],
 	entropic_mv_per_k: [
 		[0, -0.1],
 		[0.2, -0.05],

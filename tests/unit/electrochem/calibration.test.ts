@@ -1,0 +1,117 @@
+// Calibrated model error: the library's sigma_model_curve_v is recomputed from published cells, and the
+// 95 % interval is checked against those published curves (each cell's source is named in
+// src/lib/electrochem/calibration/published-cells.ts).
+import { describe, expect, it } from 'vitest';
+import { evaluateReading, getLibraryModel, ocvAt } from '../../../src/lib/electrochem';
+import { CALIBRATED_CHEMISTRIES, deriveSigmaCurve } from '../../../src/lib/electrochem/calibration/derive';
+import { PUBLISHED_CELLS, publishedOcv } from '../../../src/lib/electrochem/calibration/published-cells';
+
+const PROBES = Array.from({ length: 81 }, (_, i) => 0.1 + i * 0.01);
+
+function median(xs: number[]): number {
+	const s = [...xs].sort((a, b) => a - b);
+	const m = s.length >> 1;
+	return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+}
+
+describe('derivation', () => {
+	it.each(CALIBRATED_CHEMISTRIES)('%s: the stored sigma curve is the one derived from the published cells', (code) => {
+		const model = getLibraryModel(code);
+		const cells = PUBLISHED_CELLS.filter((c) => c.chemistry === code);
+		expect(cells.length).toBeGreaterThan(0);
+		expect(model.sigma_model_curve_v).toEqual(deriveSigmaCurve(model, cells));
+	});
+
+	it('the Prada 2013 window puts 0 % at the 2.0 V cut-off and 100 % near the 3.6 V one', () => {
+		// Prada et al., J. Electrochem. Soc. 160 (2013) A616: cut-offs 2.0 and 3.6 V
+		const cell = PUBLISHED_CELLS.find((c) => c.id === 'prada2013-lfp')!;
+		expect(publishedOcv(cell, 0)).toBeCloseTo(2.0, 6);
+		expect(publishedOcv(cell, 1)).toBeGreaterThan(3.55);
+		expect(publishedOcv(cell, 1)).toBeLessThan(3.65);
+	});
+
+	it('the Chen 2020 window spans the cell’s 2.5–4.2 V range', () => {
+		// Chen et al., J. Electrochem. Soc. 167 (2020) 080534: cut-offs 2.5 and 4.2 V
+		const cell = PUBLISHED_CELLS.find((c) => c.id === 'chen2020-nmc811')!;
+		expect(publishedOcv(cell, 0)).toBeCloseTo(2.5, 1);
+		expect(publishedOcv(cell, 1)).toBeCloseTo(4.2, 1);
+	});
+});
+
+describe('coverage on published curves (10–90 % SOC, 25 °C, branch unknown)', () => {
+	it.each(PUBLISHED_CELLS.map((c) => [c.id, c] as const))('%s: the 95 %% interval holds the true SOC in ≥ 90 %% of probes', (_id, cell) => {
+		const model = getLibraryModel(cell.chemistry);
+		const results = PROBES.map((z) => ({ z, r: evaluateReading(model, { ocv_v: publishedOcv(cell, z), temperature_c: 25 }) }));
+		const inside = results.filter(({ z, r }) => r.soc_low <= z && z <= r.soc_high).length;
+		const halfWidths = results.map(({ r }) => (r.soc_high - r.soc_low) / 2);
+		console.log(`${cell.id}: coverage ${inside}/${results.length}, median half-width ${(median(halfWidths) * 100).toFixed(1)} SOC points`);
+		expect(inside / results.length).toBeGreaterThanOrEqual(0.9);
+		// a determinate reading must be right: its interval holds the truth
+		for (const { z, r } of results) if (r.determinate) expect(z >= r.soc_low && z <= r.soc_high).toBe(true);
+	});
+});
+
+describe('LFP hysteresis and plateau', () => {
+	const LFP = getLibraryModel('LFP');
+
+	it.each([-0.04, -0.035, -0.03, 0.03, 0.035, 0.04])('a reading %s V off the 50 %% plateau is indeterminate', (offset) => {
+		// LFP two-phase plateau: a few tens of mV of hysteresis and relaxation cannot be told from SOC (common practice)
+		for (const last_direction of ['unknown', 'after_charge', 'after_discharge'] as const) {
+			const r = evaluateReading(LFP, { ocv_v: ocvAt(LFP, 0.5) + offset, temperature_c: 25 }, { last_direction });
+			expect(r.determinate).toBe(false);
+			expect(r.flags).toContain('soc_indeterminate');
+		}
+	});
+
+	it('on the plateau the budget names the plateau as the limit', () => {
+		const r = evaluateReading(LFP, { ocv_v: ocvAt(LFP, 0.5), temperature_c: 25 });
+		expect(r.uncertainty.limited_by).toBe('plateau');
+	});
+
+	it('an unknown branch widens the interval to cover both branches', () => {
+		const ocv_v = ocvAt(LFP, 0.95);
+		const up = evaluateReading(LFP, { ocv_v, temperature_c: 25 }, { last_direction: 'after_charge' });
+		const down = evaluateReading(LFP, { ocv_v, temperature_c: 25 }, { last_direction: 'after_discharge' });
+		const both = evaluateReading(LFP, { ocv_v, temperature_c: 25 }, { last_direction: 'unknown' });
+		// after a charge the reading sits on the upper branch, so the same voltage means a lower SOC
+		expect(up.soc).toBeLessThan(down.soc);
+		expect(both.soc_low).toBeLessThanOrEqual(Math.min(up.soc_low, down.soc_low) + 1e-12);
+		expect(both.soc_high).toBeGreaterThanOrEqual(Math.max(up.soc_high, down.soc_high) - 1e-12);
+		expect(both.uncertainty.hysteresis_v).toBeGreaterThan(0);
+		expect(up.uncertainty.hysteresis_v).toBe(0);
+	});
+
+	it('refuses an unknown direction, naming the field', () => {
+		// @ts-expect-error: bad input on purpose
+		expect(() => evaluateReading(LFP, { ocv_v: 3.3, temperature_c: 25 }, { last_direction: 'sideways' })).toThrow(/last_direction/);
+	});
+});
+
+describe('uncertainty budget', () => {
+	const NMC = getLibraryModel('NMC');
+
+	it('the temperature term is |dU/dT| × the temperature uncertainty', () => {
+		// NMC dU/dT at 20 % SOC: −0.2 mV/K in the library table (from memory); ±2 K surface probe → 0.4 mV
+		const r = evaluateReading(NMC, { ocv_v: ocvAt(NMC, 0.2), temperature_c: 25 });
+		expect(r.uncertainty.temperature_v).toBeCloseTo(0.0004, 4);
+		const wide = evaluateReading(NMC, { ocv_v: ocvAt(NMC, 0.2), temperature_c: 25 }, { temperature_uncertainty_k: 10 });
+		expect(wide.uncertainty.temperature_v).toBeCloseTo(0.002, 4);
+	});
+
+	it('the budget names the largest term: a coarse meter, else the model', () => {
+		// LTO carries a single 8 mV model error; a 50 mV (1σ) meter outweighs it
+		const LTO = getLibraryModel('LTO');
+		const r = evaluateReading(LTO, { ocv_v: ocvAt(LTO, 0.5), temperature_c: 25 }, { meter_accuracy_v: 0.05 });
+		expect(r.uncertainty.limited_by).toBe('meter');
+		const fine = evaluateReading(NMC, { ocv_v: ocvAt(NMC, 0.7), temperature_c: 25 }, { meter_accuracy_v: 0.001 });
+		expect(fine.uncertainty.limited_by).toBe('model');
+	});
+
+	it('the interval is clipped to [0, 1]', () => {
+		for (const z of [0, 0.02, 0.98, 1]) {
+			const r = evaluateReading(NMC, { ocv_v: ocvAt(NMC, z), temperature_c: 25 });
+			expect(r.soc_low).toBeGreaterThanOrEqual(0);
+			expect(r.soc_high).toBeLessThanOrEqual(1);
+		}
+	});
+});
