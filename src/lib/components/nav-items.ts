@@ -31,6 +31,7 @@ export const NAV: Record<Role, NavItem[]> = {
 		{ href: '/admin/organisations', label: 'Organisations' },
 		{ href: '/admin/tokens', label: 'API tokens' },
 		{ href: '/admin/outbox', label: 'Mail outbox' },
+		{ href: '/admin/webhooks', label: 'Webhooks' },
 		{ href: '/models', label: 'OCV models' }
 	],
 	supplier: [{ href: '/portal', label: 'Our lots & notices' }]
