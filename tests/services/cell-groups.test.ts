@@ -121,7 +121,8 @@ describe('BMS readout import and the weakest group', () => {
 		const packUnit = evaluation.units.find((u) => u.serial === 'VCEB36-024-00003');
 		expect(packUnit?.ocv_cell_v).toBeGreaterThan(3.0); // the average cell voltage alone looks fine
 		expect(packUnit?.cell_groups).toMatchObject({ weakest_group: 6, deep_discharge_groups: [6] });
-		expect(evaluation.reasons.find((r) => r.code === 'deep_discharge')?.units).toEqual(['VCEB36-024-00003']);
+		const deep = evaluation.reasons.find((r) => r.code === 'deep_discharge');
+		expect(deep && 'units' in deep ? deep.units : null).toEqual(['VCEB36-024-00003']);
 		const [audit] = await db.sql<{ details: { count: number } }>(
 			`select details from audit_events where action = 'readings.cell_groups_imported' and lot_id = $1`,
 			[lotId]

@@ -33,6 +33,21 @@ const COLUMNS: Column<ReportUnit>[] = [
 	{ title: 'flags', weight: 22.5, align: 'left', cell: flagsCell }
 ];
 
+/** Packs with cell-group voltages: their lowest–highest group, taken out of the flags column's width. */
+const GROUP_COLUMN: Column<ReportUnit> = {
+	title: 'groups V min–max',
+	weight: 10.5,
+	align: 'right',
+	cell: (u) =>
+		u.cell_group_min_v == null || u.cell_group_max_v == null ? MISSING : `${fixed(u.cell_group_min_v, 3)}–${fixed(u.cell_group_max_v, 3)}`
+};
+
+function columnsFor(units: readonly ReportUnit[]): Column<ReportUnit>[] {
+	if (!units.some((u) => u.cell_group_min_v != null)) return COLUMNS;
+	const flags = COLUMNS.at(-1)!;
+	return [...COLUMNS.slice(0, -1), GROUP_COLUMN, { ...flags, weight: flags.weight - GROUP_COLUMN.weight }];
+}
+
 /** Nonconforming rows get a cross in the margin and a faint tint: shape and the "NC" word, not colour alone. */
 function markNonconforming(page: PDFPage, unit: ReportUnit, box: { x: number; y: number; width: number; height: number }): void {
 	if (!unit.nonconforming) return;
@@ -46,5 +61,5 @@ export function drawReadingsTable(cursor: Cursor, units: ReportUnit[]): void {
 		cursor.gap(8);
 		return;
 	}
-	drawTable(cursor, COLUMNS, units, { decorate: markNonconforming, continuedTitle: 'Readings (continued)' });
+	drawTable(cursor, columnsFor(units), units, { decorate: markNonconforming, continuedTitle: 'Readings (continued)' });
 }

@@ -15,6 +15,9 @@ export interface ReportUnit {
 	residual_v: number | null;
 	flags: string[];
 	nonconforming: boolean;
+	/** A pack's lowest and highest cell-group voltage, V (null: groups not recorded). */
+	cell_group_min_v?: number | null;
+	cell_group_max_v?: number | null;
 }
 export interface ReportReason {
 	code: string;

@@ -42,6 +42,8 @@ const READING_COLUMNS: Array<{ title: string; width: number; format?: string; va
 	{ title: 'SOC determinate', width: 15, value: (u) => (u.determinate ? 'yes' : VERDICT.indeterminate.word.toLowerCase()) },
 	{ title: 'expected OCV (V)', width: 16, format: '0.0000', value: (u) => u.expected_ocv_v },
 	{ title: 'residual (mV)', width: 13, format: '0.0', value: (u) => mv(u.residual_v) },
+	{ title: 'lowest cell group (V)', width: 19, format: '0.000', value: (u) => u.cell_group_min_v ?? null },
+	{ title: 'highest cell group (V)', width: 20, format: '0.000', value: (u) => u.cell_group_max_v ?? null },
 	{ title: 'nonconforming', width: 14, value: (u) => (u.nonconforming ? 'yes' : 'no') },
 	{ title: 'flags', width: 36, value: (u) => u.flags.join('; ') }
 ];

@@ -78,7 +78,10 @@ function unitsOf(engine: Engine, acById: Map<number, number | null>): ReportUnit
 			expected_ocv_v: u.expected_ocv_v,
 			residual_v: u.residual_v,
 			flags: [...new Set([...u.flags, ...u.unit_flags])],
-			nonconforming: u.nonconforming
+			nonconforming: u.nonconforming,
+			// Evaluations stored before cell groups existed have no `cell_groups`.
+			cell_group_min_v: u.cell_groups?.min_v ?? null,
+			cell_group_max_v: u.cell_groups?.max_v ?? null
 		};
 	});
 }
