@@ -1,7 +1,7 @@
 // Switching-rule sequences, each citing the ISO 2859-1:1999 clause it exercises (clause numbers from
 // memory; the rules themselves also appear in MIL-STD-105E 4.7).
 import { describe, expect, it } from 'vitest';
-import { switchingState, nextSwitchingScore, type SwitchingEntry } from '../../../src/lib/inspection';
+import { switchingState, nextSwitchingScore, type LotOutcome, type SwitchingEntry } from '../../../src/lib/inspection';
 
 let seq = 0;
 const lot = (accepted: boolean, nonconforming?: number): SwitchingEntry => {
@@ -96,7 +96,7 @@ describe('reduced -> normal (ISO 2859-1:1999 9.3.4 a; no Ac/Re gap in Table 2-C)
 
 describe('original inspection only (ISO 2859-1:1999 9.3)', () => {
 	it('a resubmitted lot does not count toward tightening', () => {
-		const resubmitted: SwitchingEntry = { ...lot(false), resubmitted: true };
+		const resubmitted: LotOutcome = { ...(lot(false) as LotOutcome), resubmitted: true };
 		const r = switchingState([lot(false), resubmitted, lot(true)], ACZERO);
 		expect(r.severity).toBe('normal');
 		expect(r.history.at(-1)?.reason).toMatch(/Resubmitted lot/);

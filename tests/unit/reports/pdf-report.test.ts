@@ -26,6 +26,7 @@ describe('renderInspectionReport', () => {
 		expect(text).toContain('SAFETY');
 		expect(text).toContain('SOC % ± σ');
 		expect(text).toMatch(/no more than 30 % SOC/);
+		expect(text).toContain('Sampling plan (ISO 2859-1:1999)');
 	});
 
 	it('lists every unit exactly once across the pages, the last one on the last page', async () => {

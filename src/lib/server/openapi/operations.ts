@@ -245,9 +245,14 @@ const reference: ApiOperation[] = [
 		method: 'get',
 		path: '/sampling/plan',
 		tag: 'Sampling',
-		summary: 'An ISO 2859-1 single sampling plan (code letter, n, Ac, Re)',
+		summary: 'An ISO 2859-1:1999 single sampling plan (code letter, n, Ac, Re, edition)',
 		query: planQuerySchema,
-		responses: { 200: { description: 'The plan', schema: described('code letter, sample size, Ac, Re, standard and table') } }
+		responses: {
+			200: {
+				description: 'The plan of Tables 1 and 2-A/2-B/2-C, arrows followed; a bad parameter answers 400 naming it',
+				schema: described('code_letter, plan_code_letter, sample_size, accept, reject, hundred_percent, edition ("ISO 2859-1:1999")')
+			}
+		}
 	},
 	{
 		method: 'get',

@@ -4,6 +4,7 @@ import { DECISION_KIND, INSPECTION_SEVERITY, LOT_STATUS, TRANSPORT, VARIABLES_RE
 import { sectionTitle, type Cursor } from './layout';
 import { palette } from './palette';
 import type { ReportData } from './types';
+import { EDITION } from '$lib/inspection/iso2859/tables';
 
 export function drawLotSection(cursor: Cursor, data: ReportData): void {
 	const { lot, supplier, part } = data;
@@ -32,7 +33,7 @@ export function drawLotSection(cursor: Cursor, data: ReportData): void {
 }
 
 export function drawPlanSection(cursor: Cursor, data: ReportData): void {
-	sectionTitle(cursor, 'Sampling plan (ISO 2859-1)');
+	sectionTitle(cursor, `Sampling plan (${EDITION})`);
 	const { plan } = data;
 	if (!plan) {
 		paragraph(cursor, `No sampling plan recorded. Inspection severity: ${wordOf(INSPECTION_SEVERITY, data.severity)}.`, {
