@@ -7,7 +7,7 @@
  * A state is never shown by colour alone: the word always travels with its shape, and the tone
  * only adds colour on top (web: text-status-<tone>; PDF: the palette's status colours).
  */
-import type { LotStatus, TransportMode } from '$lib/schemas/lot';
+import type { LastDirection, LotStatus, TransportMode } from '$lib/schemas/lot';
 
 /** Marks that tell states apart without colour; drawn by status-shape.svelte and reports/shapes.ts. */
 export type Shape =
@@ -99,6 +99,13 @@ export const DECISION_KIND: Record<'automatic' | 'override', string> = {
 };
 
 export const TRANSPORT: Record<TransportMode, string> = { air: 'Air', sea: 'Sea', road: 'Road', rail: 'Rail' };
+
+/** How the cells were last moved before shipping (the lot form and lot page). */
+export const LAST_DIRECTION: Record<LastDirection, string> = {
+	unknown: 'Not known',
+	after_charge: 'Last charged',
+	after_discharge: 'Last discharged'
+};
 
 /** A lot state's word inside a sentence: "The lot is on the bench". */
 export const lotStateInText = (code: string) => wordOf(LOT_STATUS, code).toLowerCase();

@@ -46,9 +46,17 @@ describe('lotApiSchema', () => {
 			quantity: 1200,
 			declaredSoc: 0.3,
 			transport: 'air',
+			lastDirection: 'unknown',
 			unNumber: 'UN3480',
 			expectedArrival: null
 		});
+	});
+
+	it('last_direction defaults to unknown and refuses other words, naming the field', () => {
+		expect(lotApiSchema.parse({ ...api, last_direction: 'after_charge' }).last_direction).toBe('after_charge');
+		const bad = lotApiSchema.safeParse({ ...api, last_direction: 'sideways' });
+		expect(bad.success).toBe(false);
+		expect(bad.error?.issues[0].path).toEqual(['last_direction']);
 	});
 
 	it.each([

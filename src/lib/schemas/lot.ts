@@ -7,6 +7,9 @@ import { fromText, text, wholeNumber } from './fields';
 
 export const TRANSPORTS = ['air', 'sea', 'road', 'rail'] as const;
 export type TransportMode = (typeof TRANSPORTS)[number];
+/** How the cells were last moved before shipping: picks the OCV hysteresis branch (LFP); unknown covers both. */
+export const LAST_DIRECTIONS = ['unknown', 'after_charge', 'after_discharge'] as const;
+export type LastDirection = (typeof LAST_DIRECTIONS)[number];
 
 export const LOT_STATUSES = [
 	'draft',
@@ -60,6 +63,7 @@ const quantity = wholeNumber('Enter the number of units as a whole number')
 	.positive('The quantity must be at least 1')
 	.max(10_000_000, 'The quantity can be at most 10,000,000');
 const transport = z.enum(TRANSPORTS, { error: 'Choose air, sea, road or rail' });
+const lastDirection = z.enum(LAST_DIRECTIONS, { error: 'Choose unknown, after charge or after discharge' });
 const unNumber = text({ error: 'Write the UN number as text, e.g. UN3480' })
 	.trim()
 	.toUpperCase()
@@ -84,6 +88,7 @@ export const lotFormSchema = z
 			.nullable()
 			.default(null),
 		transport,
+		last_direction: lastDirection.default('unknown'),
 		un_number: unNumber.default(''),
 		expected_arrival: z.union([z.literal(''), isoDate]).default('')
 	})
@@ -104,6 +109,7 @@ export const lotApiSchema = z.object({
 		.min(0, 'declared_soc is a fraction between 0 and 1')
 		.max(1, 'declared_soc is a fraction between 0 and 1'),
 	transport,
+	last_direction: z.enum(LAST_DIRECTIONS, { error: 'last_direction must be unknown, after_charge or after_discharge' }).default('unknown'),
 	un_number: unNumber.nullish(),
 	expected_arrival: isoDate.nullish()
 });
@@ -117,6 +123,7 @@ export interface LotInput {
 	quantity: number;
 	declaredSoc: number;
 	transport: TransportMode;
+	lastDirection: LastDirection;
 	unNumber: string | null;
 	expectedArrival: string | null;
 }
@@ -129,6 +136,7 @@ export function lotInputFromForm(form: LotForm): LotInput {
 		quantity: form.quantity,
 		declaredSoc: Math.round((form.declared_soc_pct ?? 0) * 100) / 10_000,
 		transport: form.transport,
+		lastDirection: form.last_direction,
 		unNumber: form.un_number || null,
 		expectedArrival: form.expected_arrival || null
 	};
@@ -142,6 +150,7 @@ export function lotInputFromApi(body: LotApiInput): LotInput {
 		quantity: body.quantity,
 		declaredSoc: body.declared_soc,
 		transport: body.transport,
+		lastDirection: body.last_direction,
 		unNumber: body.un_number || null,
 		expectedArrival: body.expected_arrival ?? null
 	};
@@ -155,6 +164,7 @@ export const LOT_FIELD: Record<keyof LotInput, string> = {
 	quantity: 'quantity',
 	declaredSoc: 'declared_soc',
 	transport: 'transport',
+	lastDirection: 'last_direction',
 	unNumber: 'un_number',
 	expectedArrival: 'expected_arrival'
 };

@@ -4,7 +4,7 @@
  * A pure read (works inside the caller's transaction); the decisions service stores its result.
  */
 import { asc, eq, sql } from 'drizzle-orm';
-import { evaluateReadings, getLibraryModel, isChemistryCode, validateModel, type OcvModel } from '$lib/electrochem';
+import { evaluateReadings, getLibraryModel, isChemistryCode, validateModel, type LastDirection, type OcvModel } from '$lib/electrochem';
 import {
 	evaluateLot,
 	samplingPlan,
@@ -33,7 +33,8 @@ export interface DiscontinuedReason {
 export type EvaluationReason = Reason | DiscontinuedReason;
 
 export interface EvaluationInputs {
-	lot: LotInfo & { id: string; lot_code: string; status: string };
+	/** last_direction: the OCV hysteresis branch the lot declares (absent in snapshots from before it: unknown). */
+	lot: LotInfo & { id: string; lot_code: string; status: string; last_direction?: LastDirection };
 	part: {
 		id: string;
 		part_number: string;
@@ -211,7 +212,7 @@ export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<
 	};
 	const limits = limitsOf(part);
 	const inputs: EvaluationInputs = {
-		lot: { ...lotInfo, id: lot.id, lot_code: lot.lotCode, status: lot.status },
+		lot: { ...lotInfo, id: lot.id, lot_code: lot.lotCode, status: lot.status, last_direction: lot.lastDirection },
 		part: {
 			id: part.id,
 			part_number: part.partNumber,
@@ -241,7 +242,12 @@ export function computeEvaluation(inputs: EvaluationInputs, plan = planOf(inputs
 	const results = evaluateReadings(
 		inputs.model,
 		r.ocv_v.map((ocv_v, i) => ({ ocv_v, temperature_c: r.temperature_c[i] })),
-		{ cells_in_series: inputs.part.cells_in_series, declared_soc: inputs.lot.declared_soc, meter_accuracy_v: inputs.part.meter_accuracy_v }
+		{
+			cells_in_series: inputs.part.cells_in_series,
+			declared_soc: inputs.lot.declared_soc,
+			meter_accuracy_v: inputs.part.meter_accuracy_v,
+			last_direction: inputs.lot.last_direction ?? 'unknown'
+		}
 	);
 	const timed: TimedUnitReading[] = results.map((result, i) => ({
 		serial: r.serial[i],
@@ -249,7 +255,7 @@ export function computeEvaluation(inputs: EvaluationInputs, plan = planOf(inputs
 		result,
 		cell_group_voltages: r.cell_group_voltages?.[i] ?? null
 	}));
-	const { id: _id, lot_code: _code, status: _status, ...lot } = inputs.lot;
+	const { id: _id, lot_code: _code, status: _status, last_direction: _direction, ...lot } = inputs.lot;
 	const disposition = evaluateLot({
 		lot,
 		plan,

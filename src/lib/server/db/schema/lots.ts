@@ -1,6 +1,6 @@
 import { sql } from 'drizzle-orm';
 import { check, date, doublePrecision, index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
-import { lotStatusEnum, severityEnum, transportEnum } from './enums';
+import { lastDirectionEnum, lotStatusEnum, severityEnum, transportEnum } from './enums';
 import { organisations } from './organisations';
 import { parts } from './parts';
 import { users } from './users';
@@ -21,6 +21,8 @@ export const lots = pgTable(
 		quantity: integer('quantity').notNull(),
 		declaredSoc: doublePrecision('declared_soc'),
 		transport: transportEnum('transport').notNull(),
+		/** How the cells were last moved (OCV hysteresis branch); unknown: the interval covers both branches. */
+		lastDirection: lastDirectionEnum('last_direction').notNull().default('unknown'),
 		unNumber: text('un_number'),
 		expectedArrival: date('expected_arrival'),
 		receivedAt: timestamp('received_at', { withTimezone: true }),

@@ -35,6 +35,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		quantity: lot.quantity,
 		declared_soc_pct: lot.declaredSoc === null ? null : Math.round(lot.declaredSoc * 1e6) / 1e4,
 		transport: lot.transport,
+		last_direction: lot.lastDirection,
 		un_number: lot.unNumber ?? '',
 		expected_arrival: lot.expectedArrival ?? ''
 	} as LotForm;

@@ -1,0 +1,2 @@
+CREATE TYPE "public"."last_direction" AS ENUM('unknown', 'after_charge', 'after_discharge');--> statement-breakpoint
+ALTER TABLE "lots" ADD COLUMN "last_direction" "last_direction" DEFAULT 'unknown' NOT NULL;
