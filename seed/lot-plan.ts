@@ -10,7 +10,8 @@ export type Finding =
 	| 'declared_mismatch' // SOC clearly differs from the declaration → hold
 	| 'plateau' // LFP mid-plateau: SOC indeterminate where the declared-SOC check needs it → hold
 	| 'mixed_lot' // two populations: spread over limit → hold
-	| 'documents_missing'; // no UN 38.3 summary → hold
+	| 'documents_missing' // no UN 38.3 summary → hold
+	| 'weak_cell_group'; // packs read with their cell groups (BMS); one pack hides a dead group in a normal total → safety reject
 
 export type Stage = 'draft' | 'awaiting_arrival' | 'in_inspection' | 'pending_decision' | 'decided' | 'cancelled';
 
@@ -279,7 +280,7 @@ export const LOTS: LotSeed[] = [
 		declaredSoc: 0.3,
 		transport: road,
 		stage: 'in_inspection',
-		finding: 'as_declared',
+		finding: 'weak_cell_group',
 		daysAgo: 2
 	},
 	{ po: 'KM-PO-24125', part: 'fl280', quantity: 200, declaredSoc: 0.3, transport: rail, stage: 'awaiting_arrival', daysAgo: 2 },

@@ -19,6 +19,8 @@ export interface DemoReading {
 	temperature_c: number;
 	ac_resistance_mohm: number | null;
 	measured_at: string;
+	/** Packs read with their BMS: one voltage per cell group. */
+	cell_group_voltages?: number[];
 }
 
 const clampSoc = (z: number) => Math.min(0.99, Math.max(0.02, z));
@@ -44,6 +46,20 @@ function cellOcv(part: SeededPart, finding: Finding, soc: number, tempC: number,
 	return ocvAt(model, soc, tempC) + 0.0015 * normal();
 }
 
+/**
+ * The groups of one pack around its cell OCV (±2 mV); with `weak`, the sixth group rests 0.4 V below
+ * the chemistry's minimum while the other groups sit a little higher, so the pack total still looks normal.
+ */
+function cellGroups(part: SeededPart, cellV: number, weak: boolean, normal: () => number): number[] {
+	const groups = Array.from({ length: part.series }, () => cellV + 0.002 * normal());
+	if (weak && part.series >= 6) {
+		const low = getLibraryModel(part.chemistry).min_safe_v - 0.4;
+		const lift = (groups[5] - low) / (part.series - 1);
+		groups.forEach((_, g) => (groups[g] = g === 5 ? low : groups[g] + lift));
+	}
+	return groups.map((v) => Math.round(v * 10000) / 10000);
+}
+
 export function demoReadings(part: SeededPart, finding: Finding, declared: number, count: number, seed: number, at: Date): DemoReading[] {
 	const { next, normal } = prng(seed);
 	// Fresh primary cells come out of one production run far more alike than stored secondaries.
@@ -52,8 +68,12 @@ export function demoReadings(part: SeededPart, finding: Finding, declared: numbe
 	return Array.from({ length: count }, (_, i) => {
 		const tempC = Math.round((21.5 + 2 * next()) * 10) / 10;
 		const soc = unitSoc(finding, declared, i, count, normal, spread);
-		const pack = cellOcv(part, finding, soc, tempC, i, normal) * part.series;
+		const cellV = cellOcv(part, finding, soc, tempC, i, normal);
+		const groups = finding === 'weak_cell_group' ? cellGroups(part, cellV, i === 2, normal) : null;
+		// With groups, the pack reads their sum (as the meter and the BMS agree).
+		const pack = groups ? groups.reduce((a, v) => a + v, 0) : cellV * part.series;
 		return {
+			...(groups ? { cell_group_voltages: groups } : {}),
 			serial: `${prefix}-${String(seed % 1000).padStart(3, '0')}-${String(i + 1).padStart(5, '0')}`,
 			ocv_v: Math.round(pack * 10000) / 10000,
 			temperature_c: tempC,
