@@ -160,7 +160,8 @@ function fittedModel(
 	n: number,
 	stats: { rmse_v: number; max_error_v: number }
 ): OcvModel {
-	const base = getLibraryModel(chemistry);
+	// the library's calibrated error curve belongs to its generic curve, not to a curve fitted to a supplier's cell
+	const { sigma_model_curve_v: _genericCurve, ...base } = getLibraryModel(chemistry);
 	const fn = combinedFunctions(params);
 	return {
 		...base,

@@ -1,6 +1,7 @@
 // Shared types of the electrochemistry core.
 
-export type ChemistryCode = 'LCO' | 'NMC' | 'NCA' | 'LMO' | 'LFP' | 'LTO' | 'NIMH' | 'NICD' | 'PBACID' | 'ALKALINE' | 'LIMNO2' | 'LISOCL2';
+export type ChemistryCode =
+	'LCO' | 'NMC' | 'NCA' | 'LMO' | 'LFP' | 'LTO' | 'SIB' | 'NIMH' | 'NICD' | 'PBACID' | 'ALKALINE' | 'LIMNO2' | 'LISOCL2';
 
 export const CHEMISTRY_CODES: readonly ChemistryCode[] = Object.freeze([
 	'LCO',
@@ -9,6 +10,7 @@ export const CHEMISTRY_CODES: readonly ChemistryCode[] = Object.freeze([
 	'LMO',
 	'LFP',
 	'LTO',
+	'SIB',
 	'NIMH',
 	'NICD',
 	'PBACID',

@@ -67,11 +67,11 @@ describe('every library model', () => {
 });
 
 describe('library lookup', () => {
-	it('lists all twelve chemistries with their limits', () => {
-		// the twelve codes of the product's chemistry list (Restvolt issue text)
+	it('lists all thirteen chemistries with their limits', () => {
+		// the twelve codes of the product's chemistry list (Restvolt issue text) and sodium-ion (issue 15)
 		const list = listChemistries();
 		expect(list.map((c) => c.code)).toEqual([...CHEMISTRY_CODES]);
-		expect(list).toHaveLength(12);
+		expect(list).toHaveLength(13);
 		const lfp = list.find((c) => c.code === 'LFP');
 		expect(lfp?.max_v).toBe(3.65);
 	});

@@ -4,6 +4,7 @@ import { CHEMISTRY_CODES, type ChemistryCode, type OcvModel } from '../types';
 import { NICD, NIMH, PBACID } from './aqueous';
 import { LCO, LFP, LMO, LTO, NCA, NMC } from './lithium-ion';
 import { ALKALINE, LIMNO2, LISOCL2 } from './primary';
+import { SIB } from './sodium-ion';
 
 const LIBRARY: Readonly<Record<ChemistryCode, OcvModel>> = Object.freeze({
 	LCO,
@@ -12,6 +13,7 @@ const LIBRARY: Readonly<Record<ChemistryCode, OcvModel>> = Object.freeze({
 	LMO,
 	LFP,
 	LTO,
+	SIB,
 	NIMH,
 	NICD,
 	PBACID,
