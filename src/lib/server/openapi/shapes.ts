@@ -4,7 +4,7 @@
  * field by field, beside the service that builds them (named in each comment).
  */
 import { z } from 'zod';
-import { LOT_STATUSES, TRANSPORTS } from '$lib/schemas/lot';
+import { LAST_DIRECTIONS, LOT_STATUSES, TRANSPORTS } from '$lib/schemas/lot';
 import { WEBHOOK_EVENTS } from '$lib/schemas/webhook';
 import type { JsonSchema } from './types';
 
@@ -34,6 +34,9 @@ export const lotShape = z.object({
 	quantity: z.number().int(),
 	declared_soc: z.number().describe('Declared state of charge at shipment, a fraction 0–1'),
 	transport: z.enum(TRANSPORTS),
+	last_direction: z
+		.enum(LAST_DIRECTIONS)
+		.describe('How the cells were last moved before shipping: picks the OCV hysteresis branch (LFP); unknown covers both'),
 	un_number: z.string().nullable(),
 	expected_arrival: z.string().nullable().describe('YYYY-MM-DD'),
 	received_at: instant.nullable(),
