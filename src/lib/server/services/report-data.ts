@@ -4,6 +4,7 @@
  */
 import { and, desc, eq, lte } from 'drizzle-orm';
 import { dateTime, fixed } from '$lib/format';
+import { VARIABLES_METHOD } from '$lib/inspection/variables';
 import type { Database, Tx } from '../db';
 import { decisions, evaluations, lots, organisations, parts, readings, users } from '../db/schema';
 import { NotFound } from '../errors';
@@ -94,10 +95,14 @@ function statsOf(s: StoredResult['stats']): ReportData['stats'] {
 
 function variablesOf(v: StoredResult['variables']): ReportData['variables'] {
 	if (!v || v.status === 'not_applicable') return null;
-	const detail = [v.reason, v.k !== null ? `k = ${fixed(v.k, 3)}` : null, v.normality_warning ? 'normality doubtful' : null]
+	// Form 2 (two limits): older stored evaluations have no p̂, so the line is left out for them.
+	const { p_upper: pU, p_lower: pL, max_p: maxP } = v;
+	const pSum =
+		pU != null && pL != null && maxP != null ? `p̂U + p̂L = ${fixed(100 * (pU + pL), 2)} % against M = ${fixed(100 * maxP, 2)} %` : null;
+	const detail = [v.reason, v.k !== null ? `k = ${fixed(v.k, 3)}` : null, pSum, v.normality_warning ? 'normality doubtful' : null]
 		.filter(Boolean)
 		.join('; ');
-	return { method: 's-method (variables, advisory)', result: v.status, detail };
+	return { method: `${VARIABLES_METHOD}; advisory`, result: v.status, detail };
 }
 
 /** The stored e-signature manifest as the report prints it (older manifests have no hash or challenge). */
