@@ -7,7 +7,8 @@
  * later released by quality counts as not accepted, and a lot first accepted stays accepted even if
  * it is overridden later: resubmissions and reviews do not rewrite the original inspection. When a
  * lot has no decision row (older data), its current status is used (accepted vs on_hold/rejected).
- * Lots are ordered by the time of that original decision. Cancelled lots never count.
+ * Lots are ordered by the time of that original decision. Cancelled lots never count, and a lot marked
+ * resubmitted (lots.resubmitted) is listed but skipped by the rules: it is not an original inspection.
  */
 import { sql } from 'drizzle-orm';
 import {
@@ -29,6 +30,8 @@ export interface SwitchingLot {
 	accepted: boolean;
 	/** The original disposition (accepted / on_hold / rejected). */
 	original_status: string;
+	/** Submitted again after non-acceptance: does not count for switching (ISO 2859-1:1999 9.3). */
+	resubmitted: boolean;
 	nonconforming: number | null;
 	severity_used: Severity | null;
 }
@@ -60,6 +63,7 @@ interface HistoryRow extends Record<string, unknown> {
 	lot_id: string;
 	lot_code: string;
 	quantity: number;
+	resubmitted: boolean;
 	original_status: string;
 	decided_at: Date | string;
 	nonconforming: number | null;
@@ -71,7 +75,7 @@ const iso = (d: Date | string) => (d instanceof Date ? d : new Date(d)).toISOStr
 async function decidedLots(db: Database | Tx, supplierId: string, partId: string, opts: SeverityOptions): Promise<HistoryRow[]> {
 	const before = opts.before ?? null;
 	const result = await db.execute<HistoryRow>(sql`
-		select l.id as lot_id, l.lot_code, l.quantity,
+		select l.id as lot_id, l.lot_code, l.quantity, l.resubmitted,
 		       coalesce(d.to_status::text, l.status::text) as original_status,
 		       coalesce(d.decided_at, l.decided_at) as decided_at,
 		       (e.result->>'nonconforming')::int as nonconforming,
@@ -117,6 +121,7 @@ function toLots(rows: HistoryRow[]): SwitchingLot[] {
 		decided_at: iso(r.decided_at),
 		accepted: r.original_status === 'accepted',
 		original_status: r.original_status,
+		resubmitted: r.resubmitted === true,
 		nonconforming: r.nonconforming === null ? null : Number(r.nonconforming),
 		severity_used: asSeverity(r.severity_used)
 	}));
@@ -130,6 +135,7 @@ function entriesOf(lots: SwitchingLot[], resumes: Array<{ at: string; reason: st
 			lot_id: l.lot_id,
 			accepted: l.accepted,
 			decided_at: l.decided_at,
+			...(l.resubmitted ? { resubmitted: true } : {}),
 			...(l.nonconforming === null ? {} : { nonconforming: l.nonconforming }),
 			...(l.severity_used ? { severity_used: l.severity_used } : {})
 		})),

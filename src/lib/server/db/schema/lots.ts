@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { check, date, doublePrecision, index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { boolean, check, date, doublePrecision, index, integer, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { lastDirectionEnum, lotStatusEnum, severityEnum, transportEnum } from './enums';
 import { organisations } from './organisations';
 import { parts } from './parts';
@@ -24,6 +24,8 @@ export const lots = pgTable(
 		/** How the cells were last moved (OCV hysteresis branch); unknown: the interval covers both branches. */
 		lastDirection: lastDirectionEnum('last_direction').notNull().default('unknown'),
 		unNumber: text('un_number'),
+		/** Submitted again after it was not accepted: not an original inspection, so it does not count for switching (ISO 2859-1:1999 9.3). */
+		resubmitted: boolean('resubmitted').notNull().default(false),
 		expectedArrival: date('expected_arrival'),
 		receivedAt: timestamp('received_at', { withTimezone: true }),
 		status: lotStatusEnum('status').notNull().default('draft'),

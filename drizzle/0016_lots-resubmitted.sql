@@ -1,0 +1,1 @@
+ALTER TABLE "lots" ADD COLUMN "resubmitted" boolean DEFAULT false NOT NULL;
