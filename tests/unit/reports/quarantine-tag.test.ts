@@ -27,6 +27,15 @@ describe('renderQuarantineTag', () => {
 		expect(text).toContain('QUARANTINE — ON HOLD');
 		expect(text).not.toContain('do not charge');
 		expect(text).toContain('site procedure');
+		expect(text.replace(/\s+/g, ' ')).toContain('until quality releases it');
+	});
+
+	it('never promises a release for a rejected lot', async () => {
+		const file = writeTemp('tag.pdf', await renderQuarantineTag(makeTag({ status: 'rejected', safety: false })));
+		const text = pdfText(file).replace(/\s+/g, ' ');
+		expect(text).toContain('QUARANTINE — REJECTED');
+		expect(text).not.toContain('releases');
+		expect(text).toContain('returned or disposed of');
 	});
 
 	it('draws the QR modules where a scanner expects them', async () => {

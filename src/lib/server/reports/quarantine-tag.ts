@@ -25,7 +25,12 @@ function tagCaution(tag: TagData): string {
 	if (tag.safety) {
 		return 'Deep-discharged lithium-ion units: do not charge. Keep them in the quarantine area, apart from combustible material, and handle them per the site procedure and local regulations.';
 	}
-	return 'Do not use, ship or rework this lot until quality releases it. Handle swollen or damaged units per the site procedure and local regulations.';
+	// A rejected lot is never released; only a lot on hold waits for quality's decision.
+	const use =
+		tag.status === 'rejected'
+			? 'Rejected: do not use, ship or rework this lot. It stays here until it is returned or disposed of as recorded.'
+			: 'Do not use, ship or rework this lot until quality releases it.';
+	return `${use} Handle swollen or damaged units per the site procedure and local regulations.`;
 }
 
 /** A printable quarantine tag for the lot, with a QR code that opens its record. */
