@@ -28,6 +28,8 @@ export const readingSchema = z.object({
 		.nullish(),
 	measured_at: plausibleInstant('measured_at').nullish(),
 	client_key: text().min(8).max(64).nullish(),
+	// The inspector confirms an OCV the entry guard found implausible (src/lib/inspection/entry-guard.ts).
+	confirmed: z.boolean({ error: 'confirmed must be true or false' }).nullish(),
 	// A pack's cell-group voltages (one per cell in series, V); the service checks the count against the part.
 	cell_group_voltages: z
 		.array(
@@ -49,6 +51,7 @@ export const readingCorrectionSchema = z
 		ocv_v: readingSchema.shape.ocv_v.optional(),
 		temperature_c: readingSchema.shape.temperature_c.optional(),
 		ac_resistance_mohm: readingSchema.shape.ac_resistance_mohm,
+		confirmed: readingSchema.shape.confirmed,
 		reason: text({ multiline: true }).trim().min(3, 'say why the value was wrong').max(500)
 	})
 	.refine((c) => c.serial !== undefined || c.ocv_v !== undefined || c.temperature_c !== undefined || c.ac_resistance_mohm !== undefined, {

@@ -174,7 +174,7 @@ export async function commitImport(
 				skipped_invalid: skipped
 			};
 		}
-		const added = await addReadingsTx(tx, user, lotId, mapped.rows, 'import', created.id);
+		const added = await addReadingsTx(tx, user, lotId, mapped.rows, 'import', created.id, (i) => `row ${mapped.fileRows[i]}.OCV`);
 		return { ...added, import_id: created.id, already_imported_at: null, skipped_invalid: skipped };
 	});
 }

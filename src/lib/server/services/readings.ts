@@ -12,6 +12,7 @@ import { cellGroupProblems } from '$lib/inspection/cell-groups';
 import type { Database, Tx } from '../db';
 import { readings } from '../db/schema';
 import { Conflict, Invalid, NotFound, TooLarge, type Issue } from '../errors';
+import { guardOcv, implausibleMessage, type GuardPart } from '$lib/inspection/entry-guard';
 import { recordAudit } from './audit';
 import { recordArrival, transitionLot } from './lots';
 import { requiredSampleSize } from './evaluation';
@@ -47,6 +48,8 @@ export interface StoredReading {
 	import_id: string | null;
 	/** A pack's cell-group voltages, V (null when not recorded). */
 	cell_group_voltages: number[] | null;
+	/** An OCV outside the part's plausible window that the inspector confirmed. */
+	confirmed_out_of_window: boolean;
 }
 
 interface LockedLot {
@@ -93,14 +96,15 @@ async function insertChunk(
 	lotId: string,
 	user: SessionUser,
 	rows: ReadingInputRow[],
+	confirmedOutOfWindow: boolean[],
 	source: ReadingSource,
 	importId: string | null
 ): Promise<number> {
 	const now = new Date().toISOString();
 	const result = await tx.execute(sql`
-		insert into readings (lot_id, serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key, cell_group_voltages, source, import_id, entered_by)
+		insert into readings (lot_id, serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key, cell_group_voltages, confirmed_out_of_window, source, import_id, entered_by)
 		select ${lotId}::uuid, u.serial, u.ocv_v, u.temperature_c, u.ac_resistance_mohm, u.measured_at, u.client_key,
-		       u.cell_groups::float8[], ${source}::reading_source, ${importId}::uuid, ${user.id}
+		       u.cell_groups::float8[], u.confirmed, ${source}::reading_source, ${importId}::uuid, ${user.id}
 		from unnest(
 			${sql.param(rows.map((r) => r.serial))}::text[],
 			${sql.param(rows.map((r) => r.ocv_v))}::float8[],
@@ -108,8 +112,9 @@ async function insertChunk(
 			${sql.param(rows.map((r) => r.ac_resistance_mohm ?? null))}::float8[],
 			${sql.param(rows.map((r) => r.measured_at ?? now))}::timestamptz[],
 			${sql.param(rows.map((r) => r.client_key ?? null))}::text[],
-			${sql.param(rows.map((r) => groupsLiteral(r.cell_group_voltages)))}::text[]
-		) as u(serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key, cell_groups)
+			${sql.param(rows.map((r) => groupsLiteral(r.cell_group_voltages)))}::text[],
+			${sql.param(confirmedOutOfWindow)}::boolean[]
+		) as u(serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key, cell_groups, confirmed)
 		on conflict (lot_id, client_key) do nothing`);
 	return result.rowCount ?? 0;
 }
@@ -139,6 +144,37 @@ async function checkCellGroups(tx: Tx, lotId: string, rows: ReadingInputRow[]): 
 		throw new Invalid(`Cell-group voltages of ${issues.length} reading(s) do not fit the part; nothing was stored`, issues.slice(0, 200));
 }
 
+async function guardPart(tx: Tx, lotId: string): Promise<GuardPart> {
+	const [part] = (
+		await tx.execute<GuardPart & Record<string, unknown>>(
+			sql`select p.ocv_min_cell_v, p.ocv_max_cell_v, p.cells_in_series from lots l join parts p on p.id = l.part_id where l.id = ${lotId}`
+		)
+	).rows;
+	return part;
+}
+
+/**
+ * The entry guard: an OCV outside the part's plausible window is refused (422 implausible_reading,
+ * nothing stored) unless its row is confirmed. `label(i)` names the row in the issues (a file row for an import).
+ */
+function refuseImplausible(
+	part: GuardPart,
+	rows: Array<{ ocv_v?: number; confirmed?: boolean | null }>,
+	label: (i: number) => string
+): void {
+	const issues: Issue[] = rows.flatMap((r, i) =>
+		r.ocv_v !== undefined && !r.confirmed && !guardOcv(r.ocv_v, part).plausible
+			? [{ path: label(i), message: implausibleMessage(r.ocv_v, part) }]
+			: []
+	);
+	if (issues.length > 0)
+		throw new Invalid(
+			`${issues.length} reading(s) lie far outside the part's window; nothing was stored. Fix them, or confirm each value that is right.`,
+			issues.slice(0, 200),
+			'implausible_reading'
+		);
+}
+
 /** Inside an open transaction (used by the meter import, which also writes its import row). */
 export async function addReadingsTx(
 	tx: Tx,
@@ -146,7 +182,8 @@ export async function addReadingsTx(
 	lotId: string,
 	rows: ReadingInputRow[],
 	source: ReadingSource,
-	importId: string | null = null
+	importId: string | null = null,
+	rowLabel: (i: number) => string = (i) => `readings.${i}.ocv_v`
 ): Promise<AddReadingsResult> {
 	const lot = await lockLot(tx, lotId);
 	if (!(OPEN_STATUSES as readonly string[]).includes(lot.status)) {
@@ -155,10 +192,14 @@ export async function addReadingsTx(
 		);
 	}
 	await checkCellGroups(tx, lotId, rows);
+	const part = await guardPart(tx, lotId);
+	refuseImplausible(part, rows, rowLabel);
+	const outOfWindow = rows.map((r) => !guardOcv(r.ocv_v, part).plausible);
 	const arrived = lot.status === 'awaiting_arrival';
 	if (arrived) await recordArrival(tx, user, lotId);
 	let inserted = 0;
-	for (let i = 0; i < rows.length; i += CHUNK) inserted += await insertChunk(tx, lotId, user, rows.slice(i, i + CHUNK), source, importId);
+	for (let i = 0; i < rows.length; i += CHUNK)
+		inserted += await insertChunk(tx, lotId, user, rows.slice(i, i + CHUNK), outOfWindow.slice(i, i + CHUNK), source, importId);
 	if (inserted > 0) {
 		await recordAudit(tx, {
 			actorId: user.id,
@@ -238,7 +279,8 @@ const selectColumns = {
 	source: readings.source,
 	client_key: readings.clientKey,
 	import_id: readings.importId,
-	cell_group_voltages: readings.cellGroupVoltages
+	cell_group_voltages: readings.cellGroupVoltages,
+	confirmed_out_of_window: readings.confirmedOutOfWindow
 };
 
 /** All readings of a lot in the order they were stored. */
@@ -266,7 +308,10 @@ export async function correctReading(
 			.from(readings)
 			.where(and(eq(readings.id, readingId), eq(readings.lotId, lotId)));
 		if (!before) throw new NotFound('reading');
+		const part = await guardPart(tx, lotId);
+		refuseImplausible(part, [change], () => 'ocv_v');
 		const patch = {
+			...(change.ocv_v !== undefined ? { confirmedOutOfWindow: !guardOcv(change.ocv_v, part).plausible } : {}),
 			...(change.serial !== undefined ? { serial: change.serial } : {}),
 			...(change.ocv_v !== undefined ? { ocvV: change.ocv_v } : {}),
 			...(change.temperature_c !== undefined ? { temperatureC: change.temperature_c } : {}),

@@ -10,6 +10,8 @@ export interface BenchRow {
 	ocv_v: number;
 	temperature_c: number;
 	ac_resistance_mohm: number | null;
+	/** The inspector confirmed an OCV the entry guard found implausible. */
+	confirmed?: boolean;
 	measured_at: string;
 	state: RowState;
 	message?: string;
@@ -96,7 +98,8 @@ export class SaveQueue {
 				method: 'POST',
 				headers: { 'content-type': 'application/json' },
 				body: JSON.stringify({
-					readings: batch.map(({ serial, ocv_v, temperature_c, ac_resistance_mohm, measured_at, client_key }) => ({
+					readings: batch.map(({ serial, ocv_v, temperature_c, ac_resistance_mohm, confirmed, measured_at, client_key }) => ({
+						confirmed: confirmed ?? false,
 						serial,
 						ocv_v,
 						temperature_c,
