@@ -4,7 +4,7 @@
  * down first), the production refusal of internal webhook targets, and the serial trace across a
  * re-inspection. The first app runs with NODE_ENV=test, where loopback receivers are allowed.
  */
-import { createHmac } from 'node:crypto';
+import { createHash, createHmac, randomBytes } from 'node:crypto';
 import { createServer, type Server } from 'node:http';
 import type { AddressInfo } from 'node:net';
 import { Validator } from '@seriousme/openapi-schema-validator';
@@ -13,7 +13,7 @@ import { freePort } from '../../scripts/lib/proc.mjs';
 import { buildOpenApiDocument } from '../../src/lib/server/openapi';
 import { startApp, type RunningApp } from '../helpers/app';
 import { tokenFor } from '../helpers/auth';
-import { freshDatabase } from '../helpers/db';
+import { freshDatabase, withClient } from '../helpers/db';
 import { call, createLot, modelReadings, type Caller } from './readings-fixtures';
 
 interface Received {
@@ -209,5 +209,35 @@ describe('GET /api/v1/readings (serial trace)', () => {
 		expect(neither.json.error.issues[0].path).toBe('serial');
 		const short = await call(inspector, '/api/v1/readings?serial_prefix=ab');
 		expect(short.json.error.issues[0].path).toBe('serial_prefix');
+	});
+});
+
+describe('API token scopes', () => {
+	/** A token of the inspector with a scope and an expiry, stored as the admin page stores it (sha256 only). */
+	async function scopedToken(scope: string, expiresAt: string): Promise<Caller> {
+		const token = `rv_${randomBytes(32).toString('base64url')}`;
+		await withClient(db.url, (c) =>
+			c.query(
+				`insert into api_tokens (user_id, label, token_hash, prefix, scope, expires_at)
+				 select id, 'scope test', $1, $2, $3, $4 from "user" where email = 'inspector@kestrel-mobility.example'`,
+				[createHash('sha256').update(token).digest('hex'), token.slice(0, 10), scope, expiresAt]
+			)
+		);
+		return { base: app.url, token };
+	}
+
+	it('a read-only token reads but may not record readings (403 token_scope); an expired token is not accepted', async () => {
+		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
+		const tomorrow = new Date(Date.now() + 86_400_000).toISOString();
+		const reader = await scopedToken('read', tomorrow);
+		expect((await call(reader, `/api/v1/lots/${lot.id}`)).status).toBe(200);
+		const refused = await call(reader, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', 1, 0.3) } });
+		expect(refused.status).toBe(403);
+		expect(refused.json.error.code).toBe('token_scope');
+		const writer = await scopedToken('readings:write', tomorrow);
+		expect((await call(writer, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', 1, 0.3) } })).status).toBe(201);
+		expect((await call(writer, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).status).toBe(403);
+		const expired = await scopedToken('role', new Date(Date.now() - 1000).toISOString());
+		expect((await call(expired, '/api/v1/me')).status).toBe(401);
 	});
 });
