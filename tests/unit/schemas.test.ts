@@ -48,8 +48,16 @@ describe('lotApiSchema', () => {
 			transport: 'air',
 			lastDirection: 'unknown',
 			unNumber: 'UN3480',
-			expectedArrival: null
+			expectedArrival: null,
+			resubmitted: false
 		});
+	});
+
+	it('resubmitted defaults to false, takes a boolean and refuses text, naming the field (ISO 2859-1:1999 9.3)', () => {
+		expect(lotInputFromApi(lotApiSchema.parse({ ...api, resubmitted: true })).resubmitted).toBe(true);
+		const bad = lotApiSchema.safeParse({ ...api, resubmitted: 'yes' });
+		expect(bad.success).toBe(false);
+		expect(bad.error?.issues[0].path).toEqual(['resubmitted']);
 	});
 
 	it('last_direction defaults to unknown and refuses other words, naming the field', () => {

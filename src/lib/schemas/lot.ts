@@ -90,7 +90,8 @@ export const lotFormSchema = z
 		transport,
 		last_direction: lastDirection.default('unknown'),
 		un_number: unNumber.default(''),
-		expected_arrival: z.union([z.literal(''), isoDate]).default('')
+		expected_arrival: z.union([z.literal(''), isoDate]).default(''),
+		resubmitted: z.boolean({ error: 'Resubmitted is yes or no' }).default(false)
 	})
 	.refine((v) => v.declared_soc_pct !== null, {
 		path: ['declared_soc_pct'],
@@ -111,7 +112,9 @@ export const lotApiSchema = z.object({
 	transport,
 	last_direction: z.enum(LAST_DIRECTIONS, { error: 'last_direction must be unknown, after_charge or after_discharge' }).default('unknown'),
 	un_number: unNumber.nullish(),
-	expected_arrival: isoDate.nullish()
+	expected_arrival: isoDate.nullish(),
+	/** Submitted again after it was not accepted (ISO 2859-1:1999 9.3: does not count for switching). */
+	resubmitted: z.boolean({ error: 'resubmitted must be true or false' }).default(false)
 });
 export type LotApiInput = z.infer<typeof lotApiSchema>;
 
@@ -126,6 +129,7 @@ export interface LotInput {
 	lastDirection: LastDirection;
 	unNumber: string | null;
 	expectedArrival: string | null;
+	resubmitted: boolean;
 }
 
 export function lotInputFromForm(form: LotForm): LotInput {
@@ -138,7 +142,8 @@ export function lotInputFromForm(form: LotForm): LotInput {
 		transport: form.transport,
 		lastDirection: form.last_direction,
 		unNumber: form.un_number || null,
-		expectedArrival: form.expected_arrival || null
+		expectedArrival: form.expected_arrival || null,
+		resubmitted: form.resubmitted
 	};
 }
 
@@ -152,7 +157,8 @@ export function lotInputFromApi(body: LotApiInput): LotInput {
 		transport: body.transport,
 		lastDirection: body.last_direction,
 		unNumber: body.un_number || null,
-		expectedArrival: body.expected_arrival ?? null
+		expectedArrival: body.expected_arrival ?? null,
+		resubmitted: body.resubmitted
 	};
 }
 
@@ -166,7 +172,8 @@ export const LOT_FIELD: Record<keyof LotInput, string> = {
 	transport: 'transport',
 	lastDirection: 'last_direction',
 	unNumber: 'un_number',
-	expectedArrival: 'expected_arrival'
+	expectedArrival: 'expected_arrival',
+	resubmitted: 'resubmitted'
 };
 
 /** An empty query parameter (`?status=`) means "no filter", as HTML GET forms send it. */

@@ -117,6 +117,7 @@ export async function createLot(db: Database, actor: SessionUser, input: LotInpu
 				lastDirection: input.lastDirection,
 				unNumber: input.unNumber,
 				expectedArrival: input.expectedArrival,
+				resubmitted: input.resubmitted,
 				status: opts.status,
 				severity,
 				createdBy: actor.id
@@ -258,6 +259,7 @@ export async function updateLot(db: Database, actor: SessionUser, lotId: string,
 				lastDirection: input.lastDirection,
 				unNumber: input.unNumber,
 				expectedArrival: input.expectedArrival,
+				resubmitted: input.resubmitted,
 				updatedAt: new Date()
 			})
 			.where(and(eq(lots.id, lotId), inArray(lots.status, [...BEFORE_INSPECTION])))
@@ -381,6 +383,7 @@ export function lotJson(lot: LotRow & Partial<LotView>) {
 		last_direction: lot.lastDirection,
 		un_number: lot.unNumber,
 		expected_arrival: lot.expectedArrival,
+		resubmitted: lot.resubmitted,
 		received_at: isoDate(lot.receivedAt),
 		status: lot.status,
 		severity: lot.severity,

@@ -37,7 +37,8 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		transport: lot.transport,
 		last_direction: lot.lastDirection,
 		un_number: lot.unNumber ?? '',
-		expected_arrival: lot.expectedArrival ?? ''
+		expected_arrival: lot.expectedArrival ?? '',
+		resubmitted: lot.resubmitted
 	} as LotForm;
 	return {
 		lot: { id: lot.id, lotCode: lot.lotCode, status: lot.status },
