@@ -33,6 +33,7 @@ export const load: PageServerLoad = async ({ locals }) => {
 	const [tokens, people] = await Promise.all([listTokens(), listUsers()]);
 	return {
 		tokens,
+		now: Date.now(),
 		scopes: TOKEN_SCOPES.map((value) => ({ value, label: TOKEN_SCOPE_LABEL[value] })),
 		people: people.filter((p) => p.active).map((p) => ({ id: p.id, email: p.email, role: p.role })),
 		form: await superValidate(zod4(newToken), { id: 'new-token' })
