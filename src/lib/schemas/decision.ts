@@ -2,9 +2,15 @@
 import { z } from 'zod';
 import { text } from './fields';
 
+/** Longest override reason, in characters (it goes into the audit trail and the supplier notice). */
+export const OVERRIDE_REASON_MAX = 2000;
+
 export const overrideSchema = z.object({
 	decision: z.enum(['accept', 'reject']),
-	reason: text({ multiline: true }).trim().min(5, 'Give a reason (at least 5 characters)').max(2000),
+	reason: text({ multiline: true })
+		.trim()
+		.min(5, 'Give a reason (at least 5 characters)')
+		.max(OVERRIDE_REASON_MAX, `The reason is limited to 2,000 characters; shorten it (nothing is cut)`),
 	password: z.string().min(1, 'Re-enter your password to sign')
 });
 export type OverrideForm = z.infer<typeof overrideSchema>;

@@ -2,6 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { refusalOf } from '$lib/server/action-errors';
 import { can } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
+import { CANCEL_REASON_MAX, tooLongMessage } from '$lib/text/length-limit';
 import { BEFORE_INSPECTION, cancelLot, getLotForUser, lotTimeline, markAwaitingArrival } from '$lib/server/services/lots';
 import { listDocuments, missingDocuments } from '$lib/server/services/documents';
 import { uploadDocument } from '$lib/server/services/uploads';
@@ -103,9 +104,10 @@ export const actions: Actions = {
 	cancel: async ({ locals, params, request }) => {
 		if (!can(locals.user, 'lot:cancel')) error(403, 'Only buyers cancel lots');
 		await lotOr404(locals, params.id);
-		const reason = String((await request.formData()).get('reason') ?? '')
-			.trim()
-			.slice(0, 500);
+		const reason = String((await request.formData()).get('reason') ?? '').trim();
+		if (reason.length > CANCEL_REASON_MAX) {
+			return fail(400, { action: 'cancel', ok: false, message: tooLongMessage('The reason', reason.length, CANCEL_REASON_MAX) });
+		}
 		if (hasControlCharacters(reason, { multiline: true })) {
 			return fail(400, { action: 'cancel', ok: false, message: 'The reason must not contain control characters such as NUL.' });
 		}
