@@ -177,7 +177,17 @@ function listConditions(db: Database, user: SessionUser, filter: LotListFilter):
 	if (filter.partId) conditions.push(eq(lots.partId, filter.partId));
 	if (filter.search) {
 		const like = `%${filter.search.replace(/[\\%_]/g, (c) => '\\' + c)}%`;
-		conditions.push(or(ilike(lots.poNumber, like), ilike(lots.lotCode, like))!);
+		// PO, lot code, part number and supplier by substring; a unit serial exactly (index readings_serial_idx).
+		const bySerial = db.select({ lotId: readings.lotId }).from(readings).where(eq(readings.serial, filter.search.trim()));
+		conditions.push(
+			or(
+				ilike(lots.poNumber, like),
+				ilike(lots.lotCode, like),
+				ilike(parts.partNumber, like),
+				ilike(organisations.name, like),
+				inArray(lots.id, bySerial)
+			)!
+		);
 	}
 	// A serial trace: the lots holding a reading of this unit (index readings_serial_idx).
 	if (filter.serial)
