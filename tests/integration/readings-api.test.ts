@@ -236,9 +236,9 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 });
 
 describe('GET /api/v1/sampling/plan', () => {
-	// Expected values: MIL-STD-105E Table I (code letters) and Tables II-A/II-B/II-C (single sampling,
-	// normal/tightened/reduced), identical to ISO 2859-1:1999. Cells cross-checked against the inspection
-	// core's own unit tests (an independent copy of the tables), otherwise from memory.
+	// Expected values: ISO 2859-1:1999 Table 1 and Tables 2-A/2-B/2-C (normal/tightened/reduced); 1, 2-A
+	// and 2-B carry MIL-STD-105E's plans. Cells cross-checked against the inspection core's column-wise
+	// copy (tests/unit/inspection/tables-1999.test.ts), otherwise from memory.
 	const cases: Array<[string, Record<string, unknown>]> = [
 		[
 			'lot_size=500&aql=1&level=II',
@@ -255,15 +255,28 @@ describe('GET /api/v1/sampling/plan', () => {
 		// Lot of 5: letter A; at AQL 1.0 the arrow leads to E (n 13, Ac 0 Re 1) which exceeds the lot → 100 %.
 		['lot_size=5&aql=1&level=II', { code_letter: 'A', plan_code_letter: 'E', sample_size: 5, accept: 0, reject: 1, hundred_percent: true }],
 		// II-B (tightened), arrow down over G and H → J, n 80, Ac 1 Re 2
-		['lot_size=200&aql=1.0&level=II&severity=tightened', { code_letter: 'G', plan_code_letter: 'J', sample_size: 80, accept: 1, reject: 2 }]
+		[
+			'lot_size=200&aql=1.0&level=II&severity=tightened',
+			{ code_letter: 'G', plan_code_letter: 'J', sample_size: 80, accept: 1, reject: 2 }
+		],
+		// 2-C of 1999 (Re = Ac + 1): K at AQL 1.0 → n 50, 2/3 (the older military II-C gave 1/4)
+		['lot_size=2000&aql=1.0&level=II&severity=reduced', { code_letter: 'K', plan_code_letter: 'K', sample_size: 50, accept: 2, reject: 3 }],
+		// 2-A edge cell: letter A at AQL 10 follows the arrow down to n 5, 1/2
+		['lot_size=8&aql=10&level=II', { code_letter: 'A', plan_code_letter: 'C', sample_size: 5, accept: 1, reject: 2 }]
 	];
 	for (const [query, expected] of cases) {
 		it(`?${query}`, async () => {
 			const res = await call(inspector, `/api/v1/sampling/plan?${query}`);
 			expect(res.status).toBe(200);
-			expect(res.json).toMatchObject(expected);
+			expect(res.json).toMatchObject({ ...expected, edition: 'ISO 2859-1:1999' });
 		});
 	}
+
+	it('names the refused parameter', async () => {
+		const res = await call(inspector, '/api/v1/sampling/plan?lot_size=500&aql=0.3');
+		expect(res.status).toBe(400);
+		expect(res.json.error.issues).toEqual([expect.objectContaining({ path: 'aql' })]);
+	});
 
 	it('answers 400 on a bad query', async () => {
 		for (const q of [
