@@ -2,6 +2,7 @@
  * A lot's paper trail for the decision panel and the review page: evaluations (newest first),
  * decisions with who/when/why, notices with delivery and acknowledgement, and supplier replies.
  */
+import { personLabel } from '$lib/people';
 import { asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Database, Tx } from '../db';
 import { decisions, documents, evaluations, noticeResponses, notices, users } from '../db/schema';
@@ -66,8 +67,11 @@ const iso = (d: Date | null) => (d ? d.toISOString() : null);
 async function userNames(db: Db, ids: (string | null)[]): Promise<Map<string, string>> {
 	const wanted = [...new Set(ids.filter((id): id is string => !!id))];
 	if (wanted.length === 0) return new Map();
-	const rows = await db.select({ id: users.id, name: users.name, email: users.email }).from(users).where(inArray(users.id, wanted));
-	return new Map(rows.map((r) => [r.id, r.name ?? r.email]));
+	const rows = await db
+		.select({ id: users.id, name: users.name, email: users.email, role: users.role })
+		.from(users)
+		.where(inArray(users.id, wanted));
+	return new Map(rows.map((r) => [r.id, personLabel(r)]));
 }
 
 export async function listEvaluations(db: Db, lotId: string): Promise<HistoryEvaluation[]> {

@@ -2,6 +2,7 @@
  * Lots: registration, listing (keyset pages), supplier-isolated reads, status transitions and the
  * lot history. All SQL for lots lives here; other services reuse `transitionLot`.
  */
+import { personLabel } from '$lib/people';
 import { and, asc, desc, eq, getTableColumns, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import type { Database, Tx } from '../db';
 import { auditEvents, decisions, lots, organisations, parts, readings, users } from '../db/schema';
@@ -341,9 +342,17 @@ export interface HistoryEntry {
 
 /** The lot's trail: audit events that name the lot, and its decisions, oldest first. */
 export async function lotTimeline(db: Database, lotId: string): Promise<HistoryEntry[]> {
+	// People are named by name and role here as in the decision trail (services/decision-history.ts).
 	const events = await db
-		.select({ at: auditEvents.at, action: auditEvents.action, actor: auditEvents.actorEmail, details: auditEvents.details })
+		.select({
+			at: auditEvents.at,
+			action: auditEvents.action,
+			actorEmail: auditEvents.actorEmail,
+			person: { name: users.name, email: users.email, role: users.role },
+			details: auditEvents.details
+		})
 		.from(auditEvents)
+		.leftJoin(users, eq(users.id, auditEvents.actorId))
 		.where(eq(auditEvents.lotId, lotId))
 		.orderBy(asc(auditEvents.at), asc(auditEvents.id));
 	const decided = await db
@@ -353,19 +362,24 @@ export async function lotTimeline(db: Database, lotId: string): Promise<HistoryE
 			from: decisions.fromStatus,
 			to: decisions.toStatus,
 			reason: decisions.reason,
-			actor: users.email
+			person: { name: users.name, email: users.email, role: users.role }
 		})
 		.from(decisions)
 		.leftJoin(users, eq(users.id, decisions.decidedBy))
 		.where(eq(decisions.lotId, lotId))
 		.orderBy(asc(decisions.decidedAt));
 	const entries: HistoryEntry[] = [
-		...events.map((e) => ({ ...e, kind: 'event' as const, details: (e.details ?? {}) as Record<string, unknown> })),
+		...events.map(({ actorEmail, person, ...e }) => ({
+			...e,
+			kind: 'event' as const,
+			actor: person ? personLabel(person) : actorEmail,
+			details: (e.details ?? {}) as Record<string, unknown>
+		})),
 		...decided.map((d) => ({
 			at: d.at,
 			kind: 'decision' as const,
 			action: `decision.${d.kind}`,
-			actor: d.actor,
+			actor: d.person ? personLabel(d.person) : null,
 			details: { from: d.from, to: d.to, reason: d.reason }
 		}))
 	];
