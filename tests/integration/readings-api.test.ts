@@ -199,7 +199,7 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 		expect(deep).toMatchObject({ severity: 'reject', units: [rows[7].serial] });
 	});
 
-	it('LFP mid-plateau: soc_indeterminate only where a rule needs the SOC', async () => {
+	it('LFP on the generic curve: soc_indeterminate, never a confident verdict', async () => {
 		// FL-PR-100: LFP, AQL 1.0, level II. With a declared SOC the declared-SOC check needs the SOC → hold.
 		const declared = await sampleLot({ partNumber: 'FL-PR-100', quantity: 200, declaredSoc: 0.5, documents: [...LI_DOCS] });
 		// MIL-STD-105E Table I: 151–280 at level II → G; Table II-A: G at AQL 1.0 points down to H, n 50.
@@ -211,15 +211,17 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 		expect(held.status).toBe('hold');
 		expect(held.reasons.map((r: { code: string }) => r.code)).toContain('soc_indeterminate');
 		expect(held.reasons.map((r: { code: string }) => r.code)).not.toContain('declared_soc_mismatch');
-		// The same part read on the steep low-SOC slope (declared and read at 8 %): the SOC is determinate,
-		// so no soc_indeterminate hold.
+		// The same part read on the steep low-SOC slope (declared and read at 8 %). On the generic LFP curve this
+		// is not determinate either: near empty the published LFP cell (Prada 2013, electrochem/calibration)
+		// sits 100–500 mV from the curve, so the interval is wide and the check says so instead of passing.
 		const steep = await sampleLot({ partNumber: 'FL-PR-100', quantity: 200, declaredSoc: 0.08, documents: [...LI_DOCS] });
 		await call(inspector, `/api/v1/lots/${steep.lot.id}/readings`, {
 			body: { readings: modelReadings('LFP', steep.n, 0.08, { halfWidth: 0.005 }) }
 		});
-		const free = (await call(inspector, `/api/v1/lots/${steep.lot.id}/evaluation`)).json;
-		expect(free.reasons.map((r: { code: string }) => r.code)).not.toContain('soc_indeterminate');
-		expect(free.status).toBe('accept');
+		const steepEv = (await call(inspector, `/api/v1/lots/${steep.lot.id}/evaluation`)).json;
+		expect(steepEv.reasons.map((r: { code: string }) => r.code)).toContain('soc_indeterminate');
+		expect(steepEv.reasons.map((r: { code: string }) => r.code)).not.toContain('declared_soc_mismatch');
+		expect(steepEv.status).toBe('hold');
 	});
 
 	it('refuses readings on a decided lot with 409', async () => {
