@@ -67,7 +67,8 @@ const lots: ApiOperation[] = [
 		path: '/lots/{id}/readings',
 		tag: 'Readings',
 		summary: `Record up to ${MAX_READINGS_PER_CALL} readings, all or nothing`,
-		description: 'The first reading records the arrival. Rows sent with a client_key are stored once.',
+		description:
+			'The first reading records the arrival. Rows sent with a client_key are stored once. An OCV far outside the part window (× cells in series, with a margin) answers 422 implausible_reading for the whole batch, naming each row, unless the row carries confirmed: true.',
 		body: { schema: z.object({ readings: z.array(readingSchema).min(1).max(MAX_READINGS_PER_CALL) }) },
 		responses: {
 			201: {
@@ -82,6 +83,7 @@ const lots: ApiOperation[] = [
 		path: '/lots/{id}/readings/{readingId}',
 		tag: 'Readings',
 		summary: 'Correct a wrong value before the decision (with a reason)',
+		description: 'An OCV far outside the part window answers 422 implausible_reading unless confirmed: true is sent.',
 		body: { schema: readingCorrectionSchema },
 		responses: { 200: { description: 'The corrected reading', schema: described('The reading after the correction') } },
 		errors: { 409: 'The lot is decided already' }
