@@ -2,6 +2,8 @@
 // Precedence: reject beats pending beats hold beats accept. Deterministic: same input, same output.
 import { lotStatistics, robustCentre, robustOutliers, selfDischargeOfParsed, spreadCheck, median, type LotStatistics } from './statistics';
 import { variablesCheck, type VariablesCheck } from './variables';
+import { dgFindings, dgSummary, findDgRule, type DgFamily, type DgShipment, type DgSummary, type Packing } from './dangerous-goods';
+import { outlierCondemned, outlierMessage, type OutlierContext } from './outliers';
 import { checkCellGroups, type CellGroupCheck } from './cell-groups';
 import type { SamplingPlan, Severity, UnitResult } from './types';
 
@@ -28,8 +30,16 @@ export interface LotInfo {
 	transport: Transport;
 	lithium_ion: boolean;
 	documents: LotDocument[];
-	/** The part's required documents; when absent: CoC, plus the UN 38.3 summary for lithium-ion. */
+	/** The part's required documents; when absent: CoC, plus the UN 38.3 summary for lithium and sodium-ion. */
 	required_documents?: LotDocument[];
+	/** How the cells travel (default alone), the lot's UN number, the chemistry's DG family (default from lithium_ion). */
+	packing?: Packing;
+	un_number?: string | null;
+	dg_family?: DgFamily | null;
+	/** One cell or battery of the part: nominal voltage × capacity, Wh. */
+	energy_wh?: number | null;
+	/** The day whose DG rules apply (ISO date); absent: the latest. */
+	dg_date?: string;
 }
 
 export interface UnitInput {
@@ -64,6 +74,8 @@ export type ReasonCode =
 	| 'nonconforming_over_limit'
 	| 'sample_incomplete'
 	| 'dg_soc_over_limit'
+	| 'dg_soc_unverified'
+	| 'dg_note'
 	| 'declared_soc_mismatch'
 	| 'soc_indeterminate'
 	| 'spread_over_limit'
@@ -108,6 +120,8 @@ export interface Disposition {
 	stats: LotStatistics;
 	variables: VariablesCheck;
 	units: UnitDisposition[];
+	/** The dangerous-goods rule applied (e.g. "IATA DGR 67th ed. PI 966") and the lot's packing. */
+	dg: DgSummary;
 }
 
 /** Air transport limit for lithium-ion cells/batteries shipped alone: 30 % SOC. */
@@ -118,7 +132,6 @@ const NC_FLAGS: ReadonlySet<UnitFlag> = new Set<UnitFlag>([
 	'imbalance_over_limit',
 	'outside_part_window',
 	'residual_over_tolerance',
-	'outlier',
 	'self_discharge_over_limit'
 ]);
 
@@ -129,7 +142,6 @@ const INFO_REASONS: ReadonlyArray<{ code: ReasonCode; flag: UnitFlag; message: s
 		flag: 'imbalance_over_limit',
 		message: "Cell-group voltages differ (max − min) by more than the part's imbalance limit; counted as nonconforming."
 	},
-	{ code: 'outliers_present', flag: 'outlier', message: 'OCV far from the lot median (robust outlier rule); counted as nonconforming.' },
 	{
 		code: 'self_discharge_over_limit',
 		flag: 'self_discharge_over_limit',
@@ -175,11 +187,49 @@ const DOCUMENT_NAMES: Partial<Record<LotDocument, string>> = {
 };
 
 function documentReasons(lot: LotInfo): Reason[] {
-	const needed: LotDocument[] = lot.required_documents ?? (lot.lithium_ion ? ['coc', 'un38_3_summary'] : ['coc']);
+	const needed: LotDocument[] = lot.required_documents ?? (dgFamily(lot) ? ['coc', 'un38_3_summary'] : ['coc']);
 	const missing = needed.filter((d) => !lot.documents.includes(d));
 	if (missing.length === 0) return [];
 	const names = missing.map((d) => DOCUMENT_NAMES[d] ?? d);
 	return [{ code: 'documents_missing', severity: 'hold', message: `Missing: ${names.join(', ')}.` }];
+}
+
+function dgFamily(lot: LotInfo): DgFamily | null {
+	return lot.dg_family !== undefined ? lot.dg_family : lot.lithium_ion ? 'lithium_ion' : null;
+}
+
+function dgShipment(lot: LotInfo): DgShipment {
+	return {
+		transport: lot.transport,
+		un_number: lot.un_number ?? null,
+		packing: lot.packing ?? 'alone',
+		family: dgFamily(lot),
+		energy_wh: lot.energy_wh ?? null,
+		on: lot.dg_date
+	};
+}
+
+/** Robust outliers: counted only when the part's own limits condemn them too (see outliers.ts). */
+function outlierReason(units: readonly UnitDisposition[], ctx: OutlierContext): Reason | null {
+	const flagged = units.filter((u) => u.unit_flags.includes('outlier'));
+	if (flagged.length === 0) return null;
+	const counted = flagged.filter((u) => outlierCondemned(u, ctx));
+	return {
+		code: 'outliers_present',
+		severity: 'info',
+		message: outlierMessage(flagged.length, counted.length, units.length),
+		units: flagged.map((u) => u.serial)
+	};
+}
+
+function outlierContext(n: number, lot: LotInfo, limits: PartLimits, medianV: number): OutlierContext {
+	return {
+		sample_size: n,
+		median_v: medianV,
+		spread_limit_mv: limits.spread_limit_mv,
+		declared_soc: lot.declared_soc,
+		declared_soc_tolerance: limits.declared_soc_tolerance
+	};
 }
 
 /** SOC rules (air DG limit, declared SOC) and the hold when they needed a SOC they could not get. */
@@ -189,22 +239,7 @@ function socReasons(lot: LotInfo, limits: PartLimits, units: readonly UnitDispos
 	const mostlyIndeterminate = units.length > 0 && determinate.length * 2 < units.length;
 	const needsSoc: string[] = [];
 
-	if (lot.lithium_ion && lot.transport === 'air') {
-		const over = units.filter((u) => u.soc_low > AIR_SOC_LIMIT).map((u) => u.serial);
-		const declaredOver = lot.declared_soc !== null && lot.declared_soc > AIR_SOC_LIMIT;
-		if (over.length > 0 || declaredOver) {
-			const what =
-				over.length > 0
-					? `${over.length} unit(s) read wholly above ${pct(AIR_SOC_LIMIT)} SOC`
-					: `declared SOC ${pct(lot.declared_soc ?? 0)}`;
-			reasons.push({
-				code: 'dg_soc_over_limit',
-				severity: 'hold',
-				message: `Air shipment of lithium-ion cells: ${what}, above the ${pct(AIR_SOC_LIMIT)} limit. Check current DG regulations and the site's procedure before onward shipping.`,
-				units: over.length > 0 ? over : undefined
-			});
-		} else if (mostlyIndeterminate) needsSoc.push('air-transport SOC limit');
-	}
+	reasons.push(...dgFindings(findDgRule(dgShipment(lot)), dgShipment(lot), lot.declared_soc, units));
 
 	if (lot.declared_soc !== null) {
 		if (mostlyIndeterminate || determinate.length === 0) needsSoc.push('declared-SOC check');
@@ -293,6 +328,7 @@ export function decideLot(input: DispositionInput): Disposition {
 	// One median/MAD for both the outlier rule and the statistics block (each would otherwise sort twice).
 	const centre = ocv.length > 0 ? robustCentre(ocv) : undefined;
 	const outlierIdx = new Set(robustOutliers(ocv, limits.outlier_k, input.ocv_resolution_v ?? 0.0005, centre));
+	const outliers = outlierContext(ocv.length, lot, limits, centre?.median ?? 0);
 	const units: UnitDisposition[] = input.units.map((u, i) => {
 		const groups = cellGroupsOf(u, input);
 		const flags = unitFlags(u, limits, outlierIdx.has(i), groups);
@@ -300,7 +336,7 @@ export function decideLot(input: DispositionInput): Disposition {
 			serial: u.serial,
 			...u.result,
 			self_discharge_mv_per_day: u.self_discharge_mv_per_day ?? null,
-			nonconforming: flags.some((f) => NC_FLAGS.has(f)),
+			nonconforming: flags.some((f) => NC_FLAGS.has(f)) || (flags.includes('outlier') && outlierCondemned(u.result, outliers)),
 			unit_flags: flags,
 			cell_groups: groups
 		};
@@ -360,6 +396,8 @@ export function decideLot(input: DispositionInput): Disposition {
 			units: hot
 		});
 	}
+	const outlier = outlierReason(units, outliers);
+	if (outlier) reasons.push(outlier);
 	for (const { code, flag, message } of INFO_REASONS) {
 		const serials = serialsWith(units, flag);
 		if (serials.length > 0) reasons.push({ code, severity: 'info', message, units: serials });
@@ -382,7 +420,8 @@ export function decideLot(input: DispositionInput): Disposition {
 		nonconforming_serials: ncSerials,
 		stats: lotStatistics(ocv, centre),
 		variables,
-		units
+		units,
+		dg: dgSummary(findDgRule(dgShipment(lot)), dgShipment(lot))
 	};
 }
 

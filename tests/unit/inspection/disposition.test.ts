@@ -43,13 +43,16 @@ const with_ = (i: number, o: Partial<UnitInput>, units = goodUnits()) => {
 	units[i] = { ...units[i], ...o };
 	return units;
 };
-const codes = (d: ReturnType<typeof decideLot>) => d.reasons.map((r) => r.code);
+// The base lot flies (IATA DGR PI 965), which always adds the cargo-aircraft-only note; the DG rules have their
+// own tests (dangerous-goods.test.ts), so these rule tests leave the notes out.
+const notes = (d: ReturnType<typeof decideLot>) => d.reasons.filter((r) => r.code !== 'dg_note');
+const codes = (d: ReturnType<typeof decideLot>) => notes(d).map((r) => r.code);
 
 describe('decideLot reasons', () => {
 	it('clean lot is accepted', () => {
 		const d = decideLot(base());
 		expect(d.status).toBe('accept');
-		expect(d.reasons).toEqual([]);
+		expect(notes(d)).toEqual([]);
 		expect(d.nonconforming).toBe(0);
 	});
 	it('deep_discharge -> reject, safety', () => {
@@ -115,7 +118,7 @@ describe('decideLot reasons', () => {
 		}));
 		const d = decideLot(base(flat));
 		expect(d.status).toBe('hold');
-		expect(codes(d)).toEqual(['soc_indeterminate']);
+		expect(codes(d)).toEqual(['dg_soc_unverified', 'soc_indeterminate']);
 		const noRule = base(flat);
 		noRule.lot = { ...noRule.lot, declared_soc: null, transport: 'sea' };
 		expect(decideLot(noRule).status).toBe('accept');
@@ -128,7 +131,7 @@ describe('decideLot reasons', () => {
 	it('documents_missing -> hold (CoC always, UN 38.3 summary for lithium)', () => {
 		const input = base();
 		input.lot.documents = ['coc'];
-		expect(decideLot(input).reasons[0]).toMatchObject({ code: 'documents_missing', severity: 'hold' });
+		expect(notes(decideLot(input))[0]).toMatchObject({ code: 'documents_missing', severity: 'hold' });
 		input.lot.lithium_ion = false;
 		expect(decideLot(input).status).toBe('accept');
 	});
@@ -138,23 +141,35 @@ describe('decideLot reasons', () => {
 		input.lot.required_documents = ['coc', 'un38_3_summary', 'sds'];
 		const d = decideLot(input);
 		expect(d.status).toBe('hold');
-		expect(d.reasons[0]).toMatchObject({ code: 'documents_missing', message: 'Missing: safety data sheet.' });
+		expect(notes(d)[0]).toMatchObject({ code: 'documents_missing', message: 'Missing: safety data sheet.' });
 		// A lithium-metal coin cell is not lithium-ion, but its part can still require the UN 38.3 summary.
 		input.lot.lithium_ion = false;
 		input.lot.documents = ['coc'];
 		input.lot.required_documents = ['coc', 'un38_3_summary'];
-		expect(decideLot(input).reasons[0]).toMatchObject({ code: 'documents_missing', message: 'Missing: UN 38.3 test summary.' });
+		expect(notes(decideLot(input))[0]).toMatchObject({ code: 'documents_missing', message: 'Missing: UN 38.3 test summary.' });
 	});
 	it('temperature_out_of_range -> hold', () => {
 		const d = decideLot(base(with_(6, { result: result({ flags: ['temperature_out_of_range'] }) })));
 		expect(d.status).toBe('hold');
 		expect(d.reasons.find((r) => r.code === 'temperature_out_of_range')?.units).toEqual(['RV-007']);
 	});
-	it('outliers_present counts as nonconforming (info)', () => {
+	it('outliers_present is advisory when the unit is within the part spread limit and SOC tolerance', () => {
+		// 20 mV from the median, inside the 30 mV spread limit: the outlier rule is never stricter than the part.
 		const d = decideLot(base(with_(8, { result: result({ ocv_cell_v: 3.67, ocv_at_25c_v: 3.67 }) })));
-		expect(d.reasons).toEqual([expect.objectContaining({ code: 'outliers_present', severity: 'info', units: ['RV-009'] })]);
+		expect(notes(d)).toEqual([expect.objectContaining({ code: 'outliers_present', severity: 'info', units: ['RV-009'] })]);
 		expect(d.units[8].unit_flags).toContain('outlier');
-		expect(d.nonconforming).toBe(1);
+		expect(d.nonconforming).toBe(0);
+	});
+	it('outliers_present counts when the unit is also beyond the part spread limit (n >= 8)', () => {
+		const d = decideLot(base(with_(8, { result: result({ ocv_cell_v: 3.69, ocv_at_25c_v: 3.69 }) })));
+		expect(d.nonconforming_serials).toEqual(['RV-009']);
+	});
+	it('outliers on a sample under 8 units only note', () => {
+		const input = base(with_(3, { result: result({ ocv_cell_v: 3.69, ocv_at_25c_v: 3.69 }) }, goodUnits(5)));
+		const d = decideLot(input);
+		expect(d.units[3].unit_flags).toContain('outlier');
+		expect(d.nonconforming).toBe(0);
+		expect(notes(d).find((r) => r.code === 'outliers_present')?.message).toMatch(/Noted only/);
 	});
 	it('self_discharge_over_limit counts as nonconforming (info)', () => {
 		const d = decideLot(base(with_(3, { self_discharge_mv_per_day: 4 })));
