@@ -20,6 +20,8 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 	const form = await superValidate(zod4(lotFormSchema), { id: FORM_ID });
 	// No transport preselected: the buyer states it (the schema's first enum value would otherwise be the default).
 	form.data.transport = '' as LotForm['transport'];
+	// The quantity starts empty, not at 0: the buyer types the real count, and an empty box is refused by name.
+	form.data.quantity = null as unknown as LotForm['quantity'];
 	const supplier = url.searchParams.get('supplier_id');
 	if (supplier && choices.suppliers.some((s) => s.id === supplier)) form.data.supplier_id = supplier;
 	return { form, ...choices };
