@@ -6,6 +6,7 @@ import {
 	ElectrochemError,
 	type ChemistryCode,
 	curve,
+	evaluateReadings,
 	getLibraryModel,
 	invertSoc,
 	isChemistryCode,
@@ -174,8 +175,23 @@ describe('chemistry windows against rules of thumb', () => {
 		// specific gravity taken as linear in state of charge (common practice) → OCV linear in z
 		const mid = (ocvAt(m, 0) + ocvAt(m, 1)) / 2;
 		expect(ocvAt(m, 0.5)).toBeCloseTo(mid, 6);
-		// 10.5 V per block is the usual deep-discharge line (common practice)
-		expect(6 * m.min_safe_v).toBeCloseTo(10.5, 6);
+		// The deep-discharge threshold is a REST voltage: 1.95 V/cell = 11.7 V per block (OCV ≈ SG + 0.84 at SG ≈ 1.11,
+		// below a discharged cell's SG ≈ 1.12; Linden's Handbook of Batteries, lead-acid chapter, from memory). The
+		// 10.5 V often quoted is the end of discharge under load, so a block resting at 11.4 V must be flagged.
+		expect(6 * m.min_safe_v).toBeCloseTo(11.7, 6);
+	});
+	it('a 12 V lead-acid block resting at 11.4 V is flagged deep-discharged; one at 12.0 V is not', () => {
+		const m = getLibraryModel('PBACID');
+		const [low, ok] = evaluateReadings(
+			m,
+			[
+				{ ocv_v: 11.4, temperature_c: 25 },
+				{ ocv_v: 12.0, temperature_c: 25 }
+			],
+			{ cells_in_series: 6 }
+		);
+		expect(low.flags).toContain('deep_discharge');
+		expect(ok.flags).not.toContain('deep_discharge');
 	});
 
 	it('alkaline 1.05–1.6 V, Li-MnO2 coin 2.8–3.3 V, Li-SOCl2 3.60–3.67 V', () => {

@@ -35,7 +35,9 @@ export const NIMH: OcvModel = {
 	nominal_v: 1.2,
 	ocv_empty_v: 1.15,
 	ocv_full_v: 1.45,
-	min_safe_v: 1.0,
+	// A rest voltage: a cell discharged to the usual 1.0 V end under load recovers to about 1.1–1.2 V at rest,
+	// so resting below 1.10 V it was driven past that end (from memory; common practice).
+	min_safe_v: 1.1,
 	max_v: 1.5,
 	// strong hysteresis and slow relaxation of the nickel electrode
 	sigma_model_v: 0.015,
@@ -57,7 +59,9 @@ export const NICD: OcvModel = {
 	nominal_v: 1.2,
 	ocv_empty_v: 1.15,
 	ocv_full_v: 1.4,
-	min_safe_v: 1.0,
+	// A rest voltage: a cell discharged to the usual 1.0 V end under load recovers to about 1.1–1.2 V at rest,
+	// so resting below 1.10 V it was driven past that end (from memory; common practice).
+	min_safe_v: 1.1,
 	max_v: 1.45,
 	sigma_model_v: 0.015,
 	temperature_range_c: [10, 35],
@@ -78,8 +82,11 @@ export const PBACID: OcvModel = {
 	nominal_v: 2.0,
 	ocv_empty_v: leadAcidOcvFromSpecificGravity(LEAD_ACID_SG_EMPTY),
 	ocv_full_v: leadAcidOcvFromSpecificGravity(LEAD_ACID_SG_FULL),
-	// 10.5 V per 12 V block
-	min_safe_v: 1.75,
+	// A REST voltage: 1.95 V per cell (11.7 V for a 12 V block) is the open-circuit voltage at specific gravity
+	// ≈ 1.11, below a fully discharged cell (SG ≈ 1.12, OCV ≈ SG + 0.84 V). The 1.75 V/cell often quoted is the
+	// end-of-discharge voltage under load, not a rest value. Source: Linden's Handbook of Batteries, lead-acid
+	// chapter (OCV–specific-gravity relation and discharged SG), from memory; the threshold itself is common practice.
+	min_safe_v: 1.95,
 	// surface charge right after charging can sit above the rested value
 	max_v: 2.2,
 	sigma_model_v: 0.01,

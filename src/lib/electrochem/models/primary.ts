@@ -35,7 +35,8 @@ export const ALKALINE = primary({
 	nominal_v: 1.5,
 	ocv_empty_v: 1.05,
 	ocv_full_v: 1.6,
-	min_safe_v: 0.8,
+	// Rest voltage: an alkaline cell resting below 1.0 V is exhausted (0.8 V is the end voltage under load); from memory, common practice.
+	min_safe_v: 1.0,
 	max_v: 1.65,
 	sigma_model_v: 0.02,
 	ocv_information: 'good'
@@ -48,7 +49,8 @@ export const LIMNO2 = primary({
 	nominal_v: 3.0,
 	ocv_empty_v: 2.8,
 	ocv_full_v: 3.3,
-	min_safe_v: 2.0,
+	// Rest voltage: a Li–MnO2 cell resting below 2.5 V is exhausted (2.0 V is the end voltage under load); from memory, common practice.
+	min_safe_v: 2.5,
 	max_v: 3.4,
 	sigma_model_v: 0.015,
 	ocv_information: 'poor'
@@ -62,7 +64,8 @@ export const LISOCL2 = primary({
 	nominal_v: 3.6,
 	ocv_empty_v: 3.6,
 	ocv_full_v: 3.67,
-	min_safe_v: 3.0,
+	// Rest voltage: a Li–SOCl2 cell resting below 3.3 V is at end of life (its OCV stays near 3.65 V until then); from memory, common practice.
+	min_safe_v: 3.3,
 	max_v: 3.7,
 	sigma_model_v: 0.015,
 	ocv_information: 'none'
