@@ -102,16 +102,26 @@ const lots: ApiOperation[] = [
 		method: 'post',
 		path: '/lots/{id}/imports',
 		tag: 'Readings',
-		summary: 'Import a meter file (CSV or XLSX): preview, or commit with a column mapping',
+		summary: 'Import a meter file (CSV or XLSX): preview, or commit with a column mapping; or a BMS readout of cell-group voltages',
 		body: multipart(
 			{
 				file: { type: 'string', format: 'binary' },
-				mapping: { type: 'string', description: 'JSON column mapping; without it the answer is a preview' }
+				mapping: { type: 'string', description: 'JSON column mapping; without it the answer is a preview' },
+				kind: {
+					type: 'string',
+					enum: ['cell_groups'],
+					description:
+						'cell_groups: the file is a BMS readout, a header row then `serial,group_1,…,group_N` in volts (N = cells in series); each row sets the cell-group voltages of that unit’s latest reading, all or nothing'
+				}
 			},
 			['file']
 		),
 		responses: {
-			200: { description: 'A preview, or the same file imported before', schema: described('preview or already_imported_at') },
+			200: {
+				description:
+					'A preview, the same file imported before, or (kind=cell_groups) {updated, readings: [{serial, reading_id, min_v, max_v}]}',
+				schema: described('preview, already_imported_at or the cell groups set')
+			},
 			201: { description: 'Imported', schema: described('The import result') }
 		},
 		errors: { 413: 'The file is too large', 415: 'Not a CSV or XLSX file' }
