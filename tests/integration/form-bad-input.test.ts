@@ -137,4 +137,16 @@ describe('other pages', () => {
 		);
 		expect(status).not.toBe('cancelled');
 	});
+
+	it('refuses a cancellation reason over 500 characters in a sentence instead of cutting it', async () => {
+		const lot = await createLot(buyer, { partNumber: PART, quantity: 100, declaredSoc: 0.3 });
+		const res = await postForm(app.url, `/lots/${lot.id}?/cancel`, { reason: 'r'.repeat(501) }, buyerCookie);
+		expect(res.status).toBe(400);
+		expect(await res.text()).toContain('limited to 500 characters and this one has 501');
+		const status = await withClient(
+			db.url,
+			async (c) => (await c.query('select status::text as s from lots where id = $1', [lot.id])).rows[0].s
+		);
+		expect(status).not.toBe('cancelled');
+	});
 });
