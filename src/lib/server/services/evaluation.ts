@@ -19,6 +19,7 @@ import {
 	type SwitchingState,
 	type TimedUnitReading
 } from '$lib/inspection';
+import { dgFamilyOf, type DgSummary } from '$lib/inspection/dangerous-goods';
 import type { Database, Tx } from '../db';
 import { lots, ocvModels, parts, readings } from '../db/schema';
 import { nextLotSeverity } from './sampling-state';
@@ -73,6 +74,10 @@ export interface LotEvaluation {
 	nonconforming_serials: string[];
 	units: Disposition['units'];
 	safety: boolean;
+	/** The dangerous-goods rule applied, e.g. "IATA DGR 67th ed. PI 966" (null: none applies), and the lot's packing. */
+	dg_rule: string | null;
+	packing: DgSummary['packing'];
+	dg: DgSummary;
 	/** Readings stored (a unit measured twice counts twice); units = distinct serials. */
 	reading_count: number;
 	model: { id: string | null; version: string; chemistry: string; source: 'part' | 'library' };
@@ -208,7 +213,12 @@ export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<
 		transport: lot.transport,
 		lithium_ion: model.ocv.lithium_ion,
 		documents,
-		required_documents: part.requiredDocuments as LotInfo['documents']
+		required_documents: part.requiredDocuments as LotInfo['documents'],
+		un_number: lot.unNumber,
+		dg_family: dgFamilyOf(part.chemistry),
+		// One cell or battery of the part: nominal voltage × capacity (the PI 966 2.7 Wh threshold reads it).
+		// No dg_date: the latest rules apply, since the goods move on (or go back) under today's rules.
+		energy_wh: model.ocv.nominal_v * part.cellsInSeries * part.nominalCapacityAh
 	};
 	const limits = limitsOf(part);
 	const inputs: EvaluationInputs = {
@@ -290,6 +300,9 @@ export function computeEvaluation(inputs: EvaluationInputs, plan = planOf(inputs
 		nonconforming_serials: disposition.nonconforming_serials,
 		units: disposition.units,
 		safety: disposition.safety,
+		dg_rule: disposition.dg.rule,
+		packing: disposition.dg.packing,
+		dg: disposition.dg,
 		reading_count: r.serial.length,
 		inputs,
 		evaluated_at: new Date().toISOString()
