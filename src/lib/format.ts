@@ -132,3 +132,8 @@ export function timeOnly(value: Instant): string {
 	const date = dateOf(value);
 	return date ? `${date.toISOString().slice(11, 16)} UTC` : MISSING;
 }
+
+/** An evaluated reading's SOC as an interval, e.g. "31 % (22–40 %)": the estimate and its 95 % bounds. */
+export function formatSocInterval(r: { soc: Maybe; soc_low: Maybe; soc_high: Maybe }, decimals = 0): string {
+	return socInterval(r.soc, r.soc_low, r.soc_high, decimals);
+}

@@ -94,7 +94,8 @@ export function drawModelSection(cursor: Cursor, data: ReportData): void {
 	const left: Pair[] = [
 		['Model version', model.version],
 		['Model chemistry', model.chemistry],
-		['Model source', model.source]
+		['Model source', model.source],
+		['Model error σ', millivolts(model.sigma_model_v)]
 	];
 	const right: Pair[] = decision
 		? [

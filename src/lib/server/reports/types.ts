@@ -65,7 +65,8 @@ export interface ReportData {
 	variables: { method: string; result: string; detail: string } | null;
 	limits: { ocv_min_v: number; ocv_max_v: number; expected_ocv_v: number | null };
 	units: ReportUnit[];
-	model: { version: string; chemistry: string; source: string };
+	/** sigma_model_v: the model's 1σ voltage error (cross-validated for a part's fitted model), V. */
+	model: { version: string; chemistry: string; source: string; sigma_model_v?: number | null };
 	decision: { by: string; at: string; kind: 'automatic' | 'override'; reason: string | null; signature?: ReportSignature | null } | null;
 }
 /** The e-signature manifest of a quality override as printed (21 CFR Part 11, §11.50); hash and challenge are null on older records. */

@@ -80,7 +80,16 @@ export interface LotEvaluation {
 	dg: DgSummary;
 	/** Readings stored (a unit measured twice counts twice); units = distinct serials. */
 	reading_count: number;
-	model: { id: string | null; version: string; chemistry: string; source: 'part' | 'library' };
+	/** The model used; name, form and σ_model (V; cross-validated for fitted part models) say which and how good. */
+	model: {
+		id: string | null;
+		version: string;
+		chemistry: string;
+		source: 'part' | 'library';
+		name?: string;
+		form?: string;
+		sigma_model_v?: number;
+	};
 	inputs: EvaluationInputs;
 	evaluated_at: string;
 }
@@ -106,10 +115,14 @@ async function loadLot(db: Database | Tx, lotId: string) {
 
 function resolveModel(chemistry: string, modelId: string | null, parameters: unknown): LotEvaluation['model'] & { ocv: OcvModel } {
 	const stored = parameters === null || parameters === undefined ? null : validateModel(parameters);
-	if (stored) return { id: modelId, version: stored.version, chemistry: stored.chemistry, source: 'part', ocv: stored };
+	if (stored) {
+		const about = { name: stored.name, form: stored.form, sigma_model_v: stored.sigma_model_v };
+		return { id: modelId, version: stored.version, chemistry: stored.chemistry, source: 'part', ...about, ocv: stored };
+	}
 	if (!isChemistryCode(chemistry)) throw new EvaluationError('model_invalid', `No OCV model for chemistry ${chemistry}`);
 	const library = getLibraryModel(chemistry);
-	return { id: null, version: library.version, chemistry: library.chemistry, source: 'library', ocv: library };
+	const about = { name: library.name, form: library.form, sigma_model_v: library.sigma_model_v };
+	return { id: null, version: library.version, chemistry: library.chemistry, source: 'library', ...about, ocv: library };
 }
 
 async function documentKinds(db: Database | Tx, lotId: string): Promise<LotDocument[]> {

@@ -218,7 +218,12 @@ export async function buildReportData(db: Db, lotId: string, opts: { decisionId?
 			expected_ocv_v: units.find((u) => u.expected_ocv_v !== null)?.expected_ocv_v ?? null
 		},
 		units,
-		model: { version: result.model.version, chemistry: result.model.chemistry, source: engine.modelSource },
+		model: {
+			version: result.model.version,
+			chemistry: result.model.chemistry,
+			source: engine.modelSource,
+			sigma_model_v: engine.inputs.model?.sigma_model_v ?? null
+		},
 		decision
 	};
 }

@@ -24,7 +24,15 @@ export interface EvaluationView {
 	unit_count?: number;
 	safety: boolean;
 	reading_count: number;
-	model: { id: string | null; version: string; chemistry: string; source: 'part' | 'library' };
+	model: {
+		id: string | null;
+		version: string;
+		chemistry: string;
+		source: 'part' | 'library';
+		name?: string;
+		form?: string;
+		sigma_model_v?: number;
+	};
 	inputs?: {
 		lot: { declared_soc: number | null; transport: string; lithium_ion: boolean; quantity: number };
 		limits: PartLimits;

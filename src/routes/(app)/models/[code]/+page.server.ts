@@ -5,7 +5,7 @@ import { getLibraryModel, isChemistryCode, type ChemistryCode } from '$lib/elect
 import { can } from '$lib/server/policy';
 import { validateForm } from '$lib/server/forms';
 import { strictNumberFromText } from '$lib/schemas/fields';
-import { getModelVersion, listModelVersions, saveFittedModel } from '$lib/server/services/models';
+import { getModelVersion, listModelVersions, modelHistory, saveFittedModel } from '$lib/server/services/models';
 import { saveFitForm } from '$lib/schemas/electrochem';
 import { approveAction, emptyApproveForm } from '../approve-action';
 import { parseReferenceCsv } from './reference-csv';
@@ -44,6 +44,7 @@ export const load: PageServerLoad = async ({ params, url, locals }) => {
 		code,
 		model: storedModel ?? getLibraryModel(code),
 		version: stored?.version ?? null,
+		history: stored ? await modelHistory(stored.version.id) : [],
 		storedModelInvalid: !!stored && !storedModel,
 		versions: canRead ? await listModelVersions({ chemistry: code }) : [],
 		temperature,
