@@ -40,6 +40,8 @@ test('a buyer registers a lot with documents and releases it', async ({ page }) 
 
 	await page.getByRole('link', { name: 'Register a lot' }).first().click();
 	await expect(page.getByRole('heading', { name: 'Register a lot' })).toBeVisible();
+	// A new form starts empty, not at 0.
+	await expect(page.getByLabel('Quantity (units)')).toHaveValue('');
 	await page.getByRole('button', { name: 'Save draft lot' }).click();
 	await expect(page.getByText('Enter the purchase order number')).toBeVisible();
 	await expect(page.getByText('Choose a supplier', { exact: true })).toBeVisible();
