@@ -5,7 +5,7 @@
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startApp, type RunningApp } from '../helpers/app';
-import { tokenFor } from '../helpers/auth';
+import { DEMO_PASSWORD, tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient } from '../helpers/db';
 
 let app: RunningApp;
@@ -14,6 +14,7 @@ const EMAILS = {
 	buyer: 'buyer@kestrel-mobility.example',
 	inspector: 'inspector@kestrel-mobility.example',
 	quality: 'quality@kestrel-mobility.example',
+	quality2: 'quality2@kestrel-mobility.example',
 	supplier: 'supplier@voltaria-cells.example'
 } as const;
 type Who = keyof typeof EMAILS;
@@ -339,24 +340,42 @@ describe('POST /api/v1/ocv/fit', () => {
 		const points = await nmcReference();
 		const reply = await post('buyer', '/api/v1/ocv/fit', { chemistry: 'NMC', temperature_c: 25, points });
 		expect(reply.status, JSON.stringify(reply.body)).toBe(200);
-		expect(Object.keys(reply.body).sort()).toEqual(['max_error_v', 'monotonic', 'parameters', 'rmse_v']);
 		expect(reply.body.monotonic).toBe(true);
+		expect(['nernst', 'tabulated']).toContain(reply.body.form);
 		expect(reply.body.rmse_v).toBeLessThan(0.001); // the library curve is itself a combined-model curve
 		expect(reply.body.max_error_v).toBeGreaterThanOrEqual(reply.body.rmse_v);
-		expect(Object.keys(reply.body.parameters).sort()).toEqual(['epsilon', 'k0', 'k1', 'k2', 'k3', 'k4']);
+		expect(reply.body.sigma_model_v).toBeGreaterThanOrEqual(0.001); // never below the meter's resolution
+		expect(reply.body.curve).toHaveLength(101);
+		expect(reply.body.curve[50].soc).toBe(0.5);
+		// the model object can be sent back to evaluate
+		const back = await post('buyer', '/api/v1/ocv/evaluate', {
+			model: reply.body.model,
+			readings: [{ ocv_v: points[10].ocv_v, temperature_c: 25 }]
+		});
+		expect(back.status, JSON.stringify(back.body)).toBe(200);
+		expect(back.body.results[0].soc).toBeCloseTo(points[10].soc, 2);
 	});
 
-	it('rejects a non-monotonic curve with 422, still giving rmse and monotonic: false', async () => {
-		const reply = await post('buyer', '/api/v1/ocv/fit', { chemistry: 'NMC', temperature_c: 25, points: await wavyReference() });
+	it('rejects non-increasing points with 422 naming them, and pools them when smooth: true', async () => {
+		const points = await wavyReference();
+		const reply = await post('buyer', '/api/v1/ocv/fit', { chemistry: 'NMC', temperature_c: 25, points });
 		expectError(reply, 422);
-		expect(reply.body.error.code).toBe('fit_rejected');
-		expect(reply.body.error.message).toMatch(/not increasing/);
-		expect(reply.body.monotonic).toBe(false);
-		expect(reply.body.rmse_v).toBeGreaterThan(0);
+		expect(reply.body.error.code).toBe('non_monotonic');
+		expect(reply.body.error.issues.length).toBeGreaterThan(0);
+		expect(reply.body.error.issues[0].path).toMatch(/^points\.\d+$/);
+		const smoothed = await post('buyer', '/api/v1/ocv/fit', {
+			chemistry: 'NMC',
+			temperature_c: 25,
+			points,
+			smooth: true,
+			form: 'tabulated'
+		});
+		if (smoothed.status === 200) expect(smoothed.body.smoothed).toBe(true);
+		else expectError(smoothed, 422); // too few points may remain after pooling
 	});
 
 	it('answers 422 for too few points or SOC outside 0–1', async () => {
-		const few = (await nmcReference()).slice(0, 5);
+		const few = (await nmcReference()).slice(0, 4);
 		expectError(await post('buyer', '/api/v1/ocv/fit', { chemistry: 'NMC', temperature_c: 25, points: few }), 422, 'points');
 		const pct = (await nmcReference()).map((p) => ({ soc: p.soc * 100, ocv_v: p.ocv_v }));
 		expectError(await post('buyer', '/api/v1/ocv/fit', { chemistry: 'NMC', temperature_c: 25, points: pct }), 422);
@@ -394,16 +413,23 @@ describe('model versions', () => {
 
 		const one = await call('buyer', `/api/v1/models/${saved.body.id}`);
 		expect(one.body.model.chemistry).toBe('NMC');
-		expect(one.body.model.form).toBe('combined');
+		expect(['combined', 'tabulated']).toContain(one.body.model.form);
 		expect(one.body.model.fit.temperature_c).toBe(23);
 
 		const path = `/api/v1/models/${saved.body.id}/approve`;
-		expectError(await post('buyer', path, {}), 403);
-		expectError(await post('inspector', path, {}), 403);
-		const approved = await post('quality', path, {});
+		const sign = { password: DEMO_PASSWORD, reason: 'points checked against our readings' };
+		expectError(await post('buyer', path, sign), 403);
+		expectError(await post('inspector', path, sign), 403);
+		expectError(await post('quality', path, sign), 403); // the author may not approve own fit
+		expectError(await post('quality2', path, { ...sign, password: 'wrong-password' }), 403);
+		const approved = await post('quality2', path, sign);
 		expect(approved.status, JSON.stringify(approved.body)).toBe(200);
-		expect(approved.body).toMatchObject({ id: saved.body.id, status: 'approved', approved_by: EMAILS.quality });
-		expectError(await post('quality', path, {}), 409);
+		expect(approved.body).toMatchObject({ id: saved.body.id, status: 'approved', approved_by: EMAILS.quality2 });
+		expectError(await post('quality2', path, sign), 409);
+
+		const byId = await post('buyer', '/api/v1/ocv/evaluate', { model_id: saved.body.id, readings: [{ ocv_v: 3.7, temperature_c: 25 }] });
+		expect(byId.status, JSON.stringify(byId.body)).toBe(200);
+		expect(byId.body.model.version).toBe(saved.body.version);
 
 		const again = await post('quality', '/api/v1/models', body);
 		expect(again.body.version).not.toBe(saved.body.version); // a new version number each time
@@ -422,7 +448,8 @@ describe('model versions', () => {
 			c.query(`select count(*)::int as n from ocv_models where origin = 'fitted' and fit_rmse_v > 0.01`)
 		);
 		expect(count.rows[0].n).toBe(0);
-		expectError(await post('quality', '/api/v1/models/00000000-0000-4000-8000-000000000000/approve', {}), 404);
+		const sign = { password: DEMO_PASSWORD, reason: 'points checked against our readings' };
+		expectError(await post('quality', '/api/v1/models/00000000-0000-4000-8000-000000000000/approve', sign), 404);
 		expectError(await call('quality', '/api/v1/models/00000000-0000-4000-8000-000000000000'), 404);
 		expectError(await call('quality', '/api/v1/models?status=maybe'), 400, 'status');
 	});
