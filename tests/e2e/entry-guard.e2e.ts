@@ -69,4 +69,10 @@ test('36.5 is questioned and Enter takes 3.65 V; a confirmed 0.9 V is stored mar
 	expect(await storedOcv(lot.id, 'EG-E2E-002')).toEqual([{ ocv_v: 0.9, confirmed_out_of_window: true }]);
 	await expect(page.getByTestId('bench-row').first().getByTestId('confirmed-mark')).toHaveText('value confirmed outside window');
 	await shot(page, 'confirmed-out-of-window');
+
+	// Correcting a saved row: the correction row takes focus (OCV field) and Escape closes it.
+	await page.getByRole('button', { name: 'Correct reading EG-E2E-001' }).click();
+	await expect(page.getByLabel('OCV (V)', { exact: true })).toBeFocused();
+	await page.keyboard.press('Escape');
+	await expect(page.getByTestId('correction-row')).toHaveCount(0);
 });
