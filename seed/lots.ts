@@ -137,6 +137,8 @@ async function seedOne(db: Database, people: SeededPeople, part: SeededPart, spe
 			declaredSoc: spec.declaredSoc,
 			transport: spec.transport,
 			unNumber: unNumberFor(part),
+			// Demo lots are cells and packs bought on their own (DG packing 'alone': UN3480 / PI 965 by air).
+			packing: 'alone',
 			expectedArrival: new Date(when.getTime() + 7 * DAY).toISOString().slice(0, 10)
 		},
 		{ status: 'draft' }

@@ -178,8 +178,21 @@ describe('POST /api/v1/lots', () => {
 	it('lets a non-lithium lot go without a UN number and normalises a lower-case one', async () => {
 		const lead = await createLot({ supplier_id: ids.plumbridge, part_id: ids.pb12, un_number: undefined, transport: 'road' });
 		expect(lead.un_number).toBeNull();
-		const lower = await createLot({ un_number: 'un3481' });
+		const lower = await createLot({ un_number: 'un3481', packing: 'with_equipment' });
 		expect(lower.un_number).toBe('UN3481');
+		expect(lower.packing).toBe('with_equipment');
+	});
+
+	it('records packing (default alone) and refuses a UN number that does not fit it, naming packing', async () => {
+		// UN 3480 is lithium-ion batteries on their own, UN 3481 with or in equipment (UN Model Regulations
+		// Dangerous Goods List, from memory).
+		expect((await createLot({})).packing).toBe('alone');
+		const wrong = await call('buyer', '/api/v1/lots', { body: { ...validLot(), un_number: 'UN3480', packing: 'in_equipment' } });
+		expect(wrong.status).toBe(422);
+		expect(JSON.stringify(wrong.json.error.issues)).toMatch(/packing/);
+		const unknown = await call('buyer', '/api/v1/lots', { body: { ...validLot(), packing: 'boxed' } });
+		expect(unknown.status).toBe(422);
+		expect(JSON.stringify(unknown.json.error.issues)).toMatch(/packing/);
 	});
 
 	it('refuses roles that may not register lots', async () => {

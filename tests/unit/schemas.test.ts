@@ -13,6 +13,7 @@ import {
 	lotInputFromForm,
 	lotListQuerySchema,
 	unNumberProblem,
+	packingProblem,
 	isLithium,
 	isLithiumIon
 } from '../../src/lib/schemas/lot';
@@ -47,6 +48,7 @@ describe('lotApiSchema', () => {
 			declaredSoc: 0.3,
 			transport: 'air',
 			lastDirection: 'unknown',
+			packing: 'alone',
 			unNumber: 'UN3480',
 			expectedArrival: null,
 			resubmitted: false
@@ -130,6 +132,26 @@ describe('lotFormSchema', () => {
 	it('asks for the declared SOC when it was left empty, and refuses > 100 %', () => {
 		expect(paths(lotFormSchema.safeParse({ ...form, declared_soc_pct: null }))).toEqual(['declared_soc_pct']);
 		expect(paths(lotFormSchema.safeParse({ ...form, declared_soc_pct: 101 }))).toEqual(['declared_soc_pct']);
+	});
+});
+
+describe('packing and UN number (UN Model Regulations Dangerous Goods List, from memory)', () => {
+	it('the API takes packing (default alone) and the UN number must fit it', () => {
+		expect(
+			lotApiSchema.safeParse({
+				po_number: 'P',
+				supplier_id: SUPPLIER,
+				part_id: PART,
+				quantity: 1,
+				declared_soc: 0.2,
+				transport: 'air',
+				packing: 'boxed'
+			}).success
+		).toBe(false);
+		expect(packingProblem('UN3480', 'alone')).toBeNull();
+		expect(packingProblem('UN3480', 'with_equipment')).toMatch(/UN3481/);
+		expect(packingProblem('UN3091', 'alone')).toMatch(/UN3090/);
+		expect(packingProblem('UN3552', 'in_equipment')).toBeNull();
 	});
 });
 

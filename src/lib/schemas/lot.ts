@@ -3,6 +3,7 @@
  * JSON API (declared SOC as a fraction 0–1) and the service.
  */
 import { z } from 'zod';
+import { PACKINGS, familyOfUnNumber, unNumberFor, type Packing } from '$lib/inspection/dangerous-goods';
 import { fromText, text, wholeNumber } from './fields';
 
 export const TRANSPORTS = ['air', 'sea', 'road', 'rail'] as const;
@@ -10,6 +11,8 @@ export type TransportMode = (typeof TRANSPORTS)[number];
 /** How the cells were last moved before shipping: picks the OCV hysteresis branch (LFP); unknown covers both. */
 export const LAST_DIRECTIONS = ['unknown', 'after_charge', 'after_discharge'] as const;
 export type LastDirection = (typeof LAST_DIRECTIONS)[number];
+
+export { PACKINGS, type Packing };
 
 export const LOT_STATUSES = [
 	'draft',
@@ -54,6 +57,22 @@ export function unNumberProblem(chemistry: string, unNumber: string | null | und
 	return null;
 }
 
+const PACKING_WORDS: Record<Packing, string> = {
+	alone: 'on their own',
+	with_equipment: 'packed with equipment',
+	in_equipment: 'contained in equipment'
+};
+
+/** Why the UN number does not fit the packing (e.g. UN3480 is for batteries on their own), or null. */
+export function packingProblem(unNumber: string | null | undefined, packing: Packing): string | null {
+	const family = unNumber ? familyOfUnNumber(unNumber.trim()) : null;
+	if (!family || !unNumber) return null;
+	const expected = unNumberFor(family, packing);
+	return expected === unNumber.trim()
+		? null
+		: `Cells and batteries ${PACKING_WORDS[packing]} travel under ${expected}, not ${unNumber.trim()}`;
+}
+
 const poNumber = text({ error: 'Enter the purchase order number' })
 	.trim()
 	.min(1, 'Enter the purchase order number')
@@ -89,6 +108,7 @@ export const lotFormSchema = z
 			.default(null),
 		transport,
 		last_direction: lastDirection.default('unknown'),
+		packing: z.enum(PACKINGS, { error: 'Choose how the cells travel: alone, with equipment or in equipment' }).default('alone'),
 		un_number: unNumber.default(''),
 		expected_arrival: z.union([z.literal(''), isoDate]).default(''),
 		resubmitted: z.boolean({ error: 'Resubmitted is yes or no' }).default(false)
@@ -111,6 +131,7 @@ export const lotApiSchema = z.object({
 		.max(1, 'declared_soc is a fraction between 0 and 1'),
 	transport,
 	last_direction: z.enum(LAST_DIRECTIONS, { error: 'last_direction must be unknown, after_charge or after_discharge' }).default('unknown'),
+	packing: z.enum(PACKINGS, { error: 'packing must be alone, with_equipment or in_equipment' }).default('alone'),
 	un_number: unNumber.nullish(),
 	expected_arrival: isoDate.nullish(),
 	/** Submitted again after it was not accepted (ISO 2859-1:1999 9.3: does not count for switching). */
@@ -127,6 +148,7 @@ export interface LotInput {
 	declaredSoc: number;
 	transport: TransportMode;
 	lastDirection: LastDirection;
+	packing: Packing;
 	unNumber: string | null;
 	expectedArrival: string | null;
 	resubmitted: boolean;
@@ -141,6 +163,7 @@ export function lotInputFromForm(form: LotForm): LotInput {
 		declaredSoc: Math.round((form.declared_soc_pct ?? 0) * 100) / 10_000,
 		transport: form.transport,
 		lastDirection: form.last_direction,
+		packing: form.packing,
 		unNumber: form.un_number || null,
 		expectedArrival: form.expected_arrival || null,
 		resubmitted: form.resubmitted
@@ -156,6 +179,7 @@ export function lotInputFromApi(body: LotApiInput): LotInput {
 		declaredSoc: body.declared_soc,
 		transport: body.transport,
 		lastDirection: body.last_direction,
+		packing: body.packing,
 		unNumber: body.un_number || null,
 		expectedArrival: body.expected_arrival ?? null,
 		resubmitted: body.resubmitted
@@ -171,6 +195,7 @@ export const LOT_FIELD: Record<keyof LotInput, string> = {
 	declaredSoc: 'declared_soc',
 	transport: 'transport',
 	lastDirection: 'last_direction',
+	packing: 'packing',
 	unNumber: 'un_number',
 	expectedArrival: 'expected_arrival',
 	resubmitted: 'resubmitted'

@@ -19,7 +19,7 @@ import {
 	type SwitchingState,
 	type TimedUnitReading
 } from '$lib/inspection';
-import { dgFamilyOf, type DgSummary } from '$lib/inspection/dangerous-goods';
+import { dgFamilyOf, type DgSummary, type Packing } from '$lib/inspection/dangerous-goods';
 import type { Database, Tx } from '../db';
 import { lots, ocvModels, parts, readings } from '../db/schema';
 import { nextLotSeverity } from './sampling-state';
@@ -228,6 +228,7 @@ export async function evaluateLotNow(db: Database | Tx, lotId: string): Promise<
 		documents,
 		required_documents: part.requiredDocuments as LotInfo['documents'],
 		un_number: lot.unNumber,
+		packing: lot.packing as Packing,
 		dg_family: dgFamilyOf(part.chemistry),
 		// One cell or battery of the part: nominal voltage × capacity (the PI 966 2.7 Wh threshold reads it).
 		// No dg_date: the latest rules apply, since the goods move on (or go back) under today's rules.

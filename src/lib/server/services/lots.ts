@@ -7,7 +7,7 @@ import { and, asc, desc, eq, getTableColumns, ilike, inArray, or, sql, type SQL 
 import type { Database, Tx } from '../db';
 import { auditEvents, decisions, lots, organisations, parts, readings, users } from '../db/schema';
 import type { SessionUser } from '$lib/roles';
-import { LOT_FIELD, unNumberProblem, type LotInput, type LotStatus } from '$lib/schemas/lot';
+import { LOT_FIELD, packingProblem, unNumberProblem, type LotInput, type LotStatus } from '$lib/schemas/lot';
 import { recordAudit } from './audit';
 import { queueWebhookEvent } from './webhooks';
 import { currentSeverity } from './switching';
@@ -74,6 +74,8 @@ async function checkReferences(tx: Tx, input: LotInput): Promise<{ chemistry: st
 	}
 	const unProblem = part ? unNumberProblem(part.chemistry, input.unNumber) : null;
 	if (unProblem) issues.push({ path: LOT_FIELD.unNumber, message: unProblem });
+	const packProblem = unProblem ? null : packingProblem(input.unNumber, input.packing);
+	if (packProblem) issues.push({ path: LOT_FIELD.packing, message: packProblem });
 	if (issues.length > 0) throw invalidFields(issues);
 	return { chemistry: part!.chemistry };
 }
@@ -116,6 +118,7 @@ export async function createLot(db: Database, actor: SessionUser, input: LotInpu
 				declaredSoc: input.declaredSoc,
 				transport: input.transport,
 				lastDirection: input.lastDirection,
+				packing: input.packing,
 				unNumber: input.unNumber,
 				expectedArrival: input.expectedArrival,
 				resubmitted: input.resubmitted,
@@ -268,6 +271,7 @@ export async function updateLot(db: Database, actor: SessionUser, lotId: string,
 				declaredSoc: input.declaredSoc,
 				transport: input.transport,
 				lastDirection: input.lastDirection,
+				packing: input.packing,
 				unNumber: input.unNumber,
 				expectedArrival: input.expectedArrival,
 				resubmitted: input.resubmitted,
@@ -405,6 +409,7 @@ export function lotJson(lot: LotRow & Partial<LotView>) {
 		declared_soc: lot.declaredSoc,
 		transport: lot.transport,
 		last_direction: lot.lastDirection,
+		packing: lot.packing,
 		un_number: lot.unNumber,
 		expected_arrival: lot.expectedArrival,
 		resubmitted: lot.resubmitted,

@@ -24,6 +24,8 @@ export const lots = pgTable(
 		/** How the cells were last moved (OCV hysteresis branch); unknown: the interval covers both branches. */
 		lastDirection: lastDirectionEnum('last_direction').notNull().default('unknown'),
 		unNumber: text('un_number'),
+		/** How the cells travel: alone, with_equipment or in_equipment (selects the DG packing instruction). */
+		packing: text('packing').notNull().default('alone'),
 		/** Submitted again after it was not accepted: not an original inspection, so it does not count for switching (ISO 2859-1:1999 9.3). */
 		resubmitted: boolean('resubmitted').notNull().default(false),
 		expectedArrival: date('expected_arrival'),
@@ -46,7 +48,8 @@ export const lots = pgTable(
 		index('lots_part_decided_idx').on(t.supplierId, t.partId, t.decidedAt),
 		check('lots_quantity_positive', sql`${t.quantity} > 0`),
 		check('lots_declared_soc_range', sql`${t.declaredSoc} is null or (${t.declaredSoc} >= 0 and ${t.declaredSoc} <= 1)`),
-		check('lots_un_number_format', sql`${t.unNumber} is null or ${t.unNumber} ~ '^UN[0-9]{4}$'`)
+		check('lots_un_number_format', sql`${t.unNumber} is null or ${t.unNumber} ~ '^UN[0-9]{4}$'`),
+		check('lots_packing_known', sql`${t.packing} in ('alone', 'with_equipment', 'in_equipment')`)
 	]
 );
 

@@ -6,7 +6,7 @@ import { validateForm } from '$lib/server/forms';
 import { getDb } from '$lib/server/db';
 import { refuseForm } from '$lib/server/action-errors';
 import { BEFORE_INSPECTION, getLotForUser, LotConflictError, updateLot } from '$lib/server/services/lots';
-import { lotFormSchema, lotInputFromForm, type LotForm } from '$lib/schemas/lot';
+import { lotFormSchema, lotInputFromForm, type LotForm, type Packing } from '$lib/schemas/lot';
 import { lotStateInText } from '$lib/status';
 import { formField, lotFormChoices } from '../../lot-form.server';
 import type { Actions, PageServerLoad } from './$types';
@@ -36,6 +36,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 		declared_soc_pct: lot.declaredSoc === null ? null : Math.round(lot.declaredSoc * 1e6) / 1e4,
 		transport: lot.transport,
 		last_direction: lot.lastDirection,
+		packing: lot.packing as Packing,
 		un_number: lot.unNumber ?? '',
 		expected_arrival: lot.expectedArrival ?? '',
 		resubmitted: lot.resubmitted

@@ -1,0 +1,2 @@
+ALTER TABLE "lots" ADD COLUMN "packing" text DEFAULT 'alone' NOT NULL;--> statement-breakpoint
+ALTER TABLE "lots" ADD CONSTRAINT "lots_packing_known" CHECK ("lots"."packing" in ('alone', 'with_equipment', 'in_equipment'));
