@@ -48,6 +48,8 @@ export function makeReport(overrides: Partial<ReportData> = {}, unitCount = 300)
 			declared_soc: 0.3,
 			transport: 'air',
 			un_number: 'UN 3480',
+			packing: 'alone',
+			dg_rule: 'IATA DGR 67th ed. PI 965',
 			received_at: '2031-05-12T13:05:00.000Z',
 			created_at: '2031-05-02T09:00:00.000Z'
 		},

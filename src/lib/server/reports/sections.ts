@@ -6,6 +6,12 @@ import { palette } from './palette';
 import type { ReportData } from './types';
 import { EDITION } from '$lib/inspection/iso2859/tables';
 
+const PACKING_WORDS: Record<string, string> = {
+	alone: 'On their own',
+	with_equipment: 'Packed with equipment',
+	in_equipment: 'Contained in equipment'
+};
+
 export function drawLotSection(cursor: Cursor, data: ReportData): void {
 	const { lot, supplier, part } = data;
 	sectionTitle(cursor, 'Lot, supplier and part');
@@ -17,6 +23,8 @@ export function drawLotSection(cursor: Cursor, data: ReportData): void {
 		['Declared SOC', percent(lot.declared_soc)],
 		['Transport', TRANSPORT[lot.transport]],
 		['UN number', lot.un_number ?? MISSING],
+		['Packing', PACKING_WORDS[lot.packing] ?? lot.packing],
+		['DG rule applied', lot.dg_rule ?? 'None (no UN number of the rules table)'],
 		['Received', dateTime(lot.received_at)],
 		['Registered', dateTime(lot.created_at)]
 	];

@@ -37,6 +37,10 @@ export interface ReportData {
 		declared_soc: number | null;
 		transport: 'air' | 'sea' | 'road' | 'rail';
 		un_number: string | null;
+		/** alone, with_equipment or in_equipment. */
+		packing: string;
+		/** The DG rule the evaluation applied, e.g. "IATA DGR 67th ed. PI 965"; null when none applied. */
+		dg_rule: string | null;
 		received_at: string | null;
 		created_at: string;
 	};

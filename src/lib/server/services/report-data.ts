@@ -186,6 +186,9 @@ export async function buildReportData(db: Db, lotId: string, opts: { decisionId?
 			declared_soc: lot.declaredSoc,
 			transport: lot.transport,
 			un_number: lot.unNumber,
+			packing: lot.packing,
+			// Evaluations stored before the DG rules table have no dg_rule.
+			dg_rule: (engine.result.dg_rule as string | null | undefined) ?? null,
 			received_at: lot.receivedAt?.toISOString() ?? null,
 			created_at: lot.createdAt.toISOString()
 		},
