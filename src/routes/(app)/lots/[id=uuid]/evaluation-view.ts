@@ -23,6 +23,8 @@ export interface EvaluationView {
 	units?: UnitDisposition[];
 	unit_count?: number;
 	safety: boolean;
+	/** The DG rule applied, e.g. "IATA DGR 67th ed. PI 965"; absent on evaluations stored before the rules table. */
+	dg_rule?: string | null;
 	reading_count: number;
 	model: {
 		id: string | null;
