@@ -167,6 +167,7 @@ describe('GET /api/v1/chemistries and curves', () => {
 		for (const c of reply.body) {
 			expect(Object.keys(c).sort()).toEqual([
 				'code',
+				'default_required_documents',
 				'max_v',
 				'min_safe_v',
 				'name',
@@ -179,6 +180,11 @@ describe('GET /api/v1/chemistries and curves', () => {
 			expect(c.min_safe_v).toBeLessThan(c.max_v);
 		}
 		const byCode = Object.fromEntries(reply.body.map((c: { code: string }) => [c.code, c]));
+		// The UN 38.3 test summary is a default document for every lithium chemistry, lithium metal included
+		// (UN Model Regulations 2.9.4), and for sodium-ion (2.9.5, from memory); every part asks for its CoC.
+		for (const code of ['NMC', 'LFP', 'LIMNO2', 'LISOCL2', 'SIB'])
+			expect(byCode[code].default_required_documents).toEqual(['coc', 'un38_3_summary']);
+		expect(byCode.PBACID.default_required_documents).toEqual(['coc']);
 		// Primary cells are not rechargeable; Li-ion charge limits 4.20 V (+ tolerance) and LFP 3.65 V: common practice
 		expect(byCode.ALKALINE.rechargeable).toBe(false);
 		expect(byCode.LISOCL2.rechargeable).toBe(false);
