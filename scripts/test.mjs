@@ -12,7 +12,11 @@ import { freePort, runInherit } from './lib/proc.mjs';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 process.chdir(root);
-const only = process.argv.slice(2); // e.g. `npm test -- unit integration`
+// e.g. `npm test -- unit integration`; other words filter the files of the test stages
+// (`npm test -- integration e2e access-matrix journey` runs those files only).
+const STAGES = ['check', 'lint', 'unit', 'services', 'integration', 'e2e'];
+const only = process.argv.slice(2).filter((a) => STAGES.includes(a));
+const fileFilters = process.argv.slice(2).filter((a) => !STAGES.includes(a));
 const wants = (stage) => only.length === 0 || only.includes(stage);
 
 await ensureNodeModules(root);
@@ -87,7 +91,8 @@ try {
 		}
 		if (!wants(stage)) continue;
 		console.log(`\n[restvolt] ── ${stage}: ${cmd} ${args.join(' ')}`);
-		const code = await runInherit(cmd, args, { env });
+		const filtered = ['unit', 'services', 'integration', 'e2e'].includes(stage) ? [...args, ...fileFilters] : args;
+		const code = await runInherit(cmd, filtered, { env });
 		if (code !== 0) failures.push(stage);
 	}
 } catch (error) {

@@ -9,7 +9,7 @@ import { startApp, type RunningApp } from '../helpers/app';
 import { signInPage, tokenFor } from '../helpers/auth';
 import { freshDatabase } from '../helpers/db';
 import { screens } from '../helpers/screens';
-import { createLot, modelReadings, type Caller } from '../integration/readings-fixtures';
+import { createLot, modelReadings, VC21_MODEL, type Caller } from '../integration/readings-fixtures';
 
 let app: RunningApp;
 let db: { url: string; drop: () => Promise<void> };
@@ -44,7 +44,7 @@ test('keyboard entry, live feedback, retry after a network error, meter import a
 		declaredSoc: 0.3,
 		documents: ['coc', 'un38_3_summary', 'sds']
 	});
-	const rows = modelReadings('NMC', 5, 0.3, { prefix: 'VC50G' });
+	const rows = modelReadings(VC21_MODEL, 5, 0.3, { prefix: 'VC50G' });
 
 	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
 	await page.goto(`${app.url}/inspect`);
@@ -61,9 +61,9 @@ test('keyboard entry, live feedback, retry after a network error, meter import a
 	await page.getByLabel('OCV in volts').fill(rows[0].ocv_v.toFixed(4));
 	await page.getByLabel('Temperature in °C').fill('25');
 	const entry = page.getByTestId('entry-row');
-	// rows[0] was generated at 29 % SOC; the expected OCV at the declared 30 % is the model's 3.592 V.
+	// rows[0] was generated at 29 % SOC; the expected OCV at the declared 30 % is the part model's 3.595 V (its datasheet point).
 	await expect(entry).toContainText('29 % ±');
-	await expect(entry).toContainText('3.592 V');
+	await expect(entry).toContainText('3.595 V');
 	await expect(entry).toContainText('in window');
 	await shot(page, 'live-feedback');
 	await page.getByLabel('Temperature in °C').press('Enter');
@@ -153,7 +153,7 @@ test('a mistyped stored reading is corrected in place with a reason, and the eva
 		documents: ['coc', 'un38_3_summary', 'sds']
 	});
 	const inspector: Caller = { base: app.url, token: await tokenFor(db.url, 'inspector@kestrel-mobility.example') };
-	const readings = modelReadings('NMC', 3, 0.3, { prefix: 'VC50G-FIX' });
+	const readings = modelReadings(VC21_MODEL, 3, 0.3, { prefix: 'VC50G-FIX' });
 	readings[1] = { ...readings[1], ocv_v: 2.05 }; // typed wrong: reads as a deep discharge
 	const saved = await fetch(`${app.url}/api/v1/lots/${lot.id}/readings`, {
 		method: 'POST',
@@ -187,7 +187,7 @@ test('a row typed in this sitting can be corrected at once, without reloading th
 		declaredSoc: 0.3,
 		documents: ['coc', 'un38_3_summary', 'sds']
 	});
-	const [row] = modelReadings('NMC', 1, 0.3, { prefix: 'VC50G-NOW' });
+	const [row] = modelReadings(VC21_MODEL, 1, 0.3, { prefix: 'VC50G-NOW' });
 	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
 	await page.goto(`${app.url}/lots/${lot.id}/inspect`);
 	await expect(page.getByLabel('Serial')).toBeFocused();

@@ -6,7 +6,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import { curve, getLibraryModel, type ChemistryCode } from '../../src/lib/electrochem';
 import { startApp, type RunningApp } from '../helpers/app';
-import { signInPage } from '../helpers/auth';
+import { DEMO_PASSWORD, signInPage } from '../helpers/auth';
 import { freshDatabase } from '../helpers/db';
 import { screens } from '../helpers/screens';
 
@@ -105,7 +105,22 @@ test('a quality manager saves a fitted NMC version and approves it; a non-monoto
 	await expect(page.getByRole('heading', { level: 1 })).toContainText('in-house C/20 discharge');
 	await shot(page, 'nmc-saved-awaiting');
 
-	await page.getByRole('button', { name: /^Approve NMC fit-/ }).click();
+	// The author may not approve their own version (four eyes): the form says so and nothing changes.
+	const savedUrl = page.url();
+	const sign = page.getByRole('form', { name: /^Sign the approval of NMC fit-/ });
+	await sign.getByLabel('Reason').fill('Checked against our C/20 discharge');
+	await sign.getByLabel('Your password (signs)').fill(DEMO_PASSWORD);
+	await sign.getByRole('button', { name: /^Approve NMC fit-/ }).click();
+	await expect(page.getByText('another quality manager must approve it. Nothing was approved.')).toBeVisible();
+	await shot(page, 'nmc-author-cannot-approve');
+
+	// The other quality manager signs the approval with a reason and their password.
+	await page.context().clearCookies();
+	await signInPage(page, app.url, 'quality2@kestrel-mobility.example');
+	await page.goto(savedUrl);
+	await sign.getByLabel('Reason').fill('Fit residuals checked; C/20 data from our lab book 7, p. 12');
+	await sign.getByLabel('Your password (signs)').fill(DEMO_PASSWORD);
+	await sign.getByRole('button', { name: /^Approve NMC fit-/ }).click();
 	await expect(page.getByText('Approved. Parts may now use this version.')).toBeVisible();
 	await expect(page.locator('header').getByText('Approved', { exact: true })).toBeVisible(); // src/lib/status.ts MODEL_STATUS
 	await shot(page, 'nmc-approved');
@@ -113,6 +128,6 @@ test('a quality manager saves a fitted NMC version and approves it; a non-monoto
 	await page.goto(`${app.url}/models`);
 	const row = page.getByRole('row', { name: /fit-1/ });
 	await expect(row).toContainText('Approved');
-	await expect(row).toContainText('quality@kestrel-mobility.example');
+	await expect(row).toContainText('quality2@kestrel-mobility.example'); // the approver, not the author
 	await shot(page, 'model-list-with-fitted');
 });

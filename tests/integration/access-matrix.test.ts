@@ -51,11 +51,14 @@ let cookies: Record<Exclude<RoleKey, 'anonymous'>, string>;
 let fitPoints: Array<{ soc: number; ocv_v: number }>;
 let partIdA: string;
 let savedModelId = '';
+/** A webhook endpoint registered by the admin, one of its deliveries, and a serial of A's read lot. */
+let hook: { id: string; delivery: string };
+let tracedSerial = '';
 
 interface ApiCase {
 	name: string; // 'METHOD route-file-path' as on disk (checked against the file tree)
 	path: () => string;
-	method?: 'GET' | 'POST' | 'PATCH';
+	method?: 'GET' | 'POST' | 'PATCH' | 'DELETE';
 	/** Body for the call; a fresh one per role (distinct serials, file bytes…). */
 	body?: (role: RoleKey) => unknown | Promise<unknown>;
 	form?: (role: RoleKey) => FormData;
@@ -111,8 +114,10 @@ function apiCases(): ApiCase[] {
 			expect: row(403, 403, ok, 403, 403, 403, 401)
 		},
 		{
+			// Fitted by the second quality manager (beforeAll): four eyes, so the first may approve it.
 			name: 'POST models/[id=uuid]/approve',
 			path: () => `/api/v1/models/${savedModelId}/approve`,
+			body: () => ({ password: DEMO_PASSWORD, reason: 'matrix: residuals checked' }),
 			expect: row(403, 403, ok, 403, 403, 403, 401)
 		},
 		{ name: 'GET lots', path: () => '/api/v1/lots', expect: row(ok, ok, ok, ok, ok, 403, 401) },
@@ -218,6 +223,50 @@ function apiCases(): ApiCase[] {
 			name: 'GET suppliers/[id=uuid]/scorecard',
 			path: () => `/api/v1/suppliers/${ids.supplier.a}/scorecard`,
 			expect: row(ok, ok, ok, 403, 403, 403, 401)
+		},
+		{ name: 'GET openapi.json', path: () => '/api/v1/openapi.json', expect: row(ok, ok, ok, ok, ok, ok, ok) },
+		// Supplier B may trace serials too, and finds only its own (checked below).
+		{
+			name: 'GET readings',
+			path: () => `/api/v1/readings?serial=${encodeURIComponent(tracedSerial)}`,
+			expect: row(ok, ok, ok, ok, ok, 403, 401)
+		},
+		{ name: 'GET webhooks', path: () => '/api/v1/webhooks', expect: row(403, 403, 403, 403, 403, ok, 401) },
+		{
+			name: 'POST webhooks',
+			path: () => '/api/v1/webhooks',
+			body: (r) => ({ url: `http://127.0.0.1:9/matrix-${r}`, events: ['lot.decided'] }),
+			expect: row(403, 403, 403, 403, 403, ok, 401)
+		},
+		{ name: 'GET webhooks/[id=uuid]', path: () => `/api/v1/webhooks/${hook.id}`, expect: row(403, 403, 403, 403, 403, ok, 401) },
+		{
+			name: 'PATCH webhooks/[id=uuid]',
+			method: 'PATCH',
+			path: () => `/api/v1/webhooks/${hook.id}`,
+			body: () => ({ paused: true }),
+			expect: row(403, 403, 403, 403, 403, ok, 401)
+		},
+		{
+			name: 'GET webhooks/[id=uuid]/deliveries',
+			path: () => `/api/v1/webhooks/${hook.id}/deliveries`,
+			expect: row(403, 403, 403, 403, 403, ok, 401)
+		},
+		{
+			name: 'POST webhooks/[id=uuid]/deliveries/[deliveryId=uuid]/resend',
+			path: () => `/api/v1/webhooks/${hook.id}/deliveries/${hook.delivery}/resend`,
+			expect: row(403, 403, 403, 403, 403, ok, 401)
+		},
+		{
+			name: 'POST webhooks/[id=uuid]/rotate-secret',
+			path: () => `/api/v1/webhooks/${hook.id}/rotate-secret`,
+			expect: row(403, 403, 403, 403, 403, ok, 401)
+		},
+		// Last of the webhook rows: the admin's call deletes the endpoint.
+		{
+			name: 'DELETE webhooks/[id=uuid]',
+			method: 'DELETE',
+			path: () => `/api/v1/webhooks/${hook.id}`,
+			expect: row(403, 403, 403, 403, 403, ok, 401)
 		}
 	];
 }
@@ -255,7 +304,8 @@ async function callApi(c: ApiCase, role: RoleKey) {
 
 beforeAll(async () => {
 	db = await freshDatabase('access_matrix');
-	app = await startApp({ databaseUrl: db.url });
+	// NODE_ENV=test lets the admin register a loopback webhook receiver (refused in production: integrations.test.ts).
+	app = await startApp({ databaseUrl: db.url, env: { NODE_ENV: 'test' } });
 	ids = await seedIds(db.url);
 	tokens = Object.fromEntries(
 		await Promise.all(Object.entries(EMAIL).map(async ([r, e]) => [r, await tokenFor(db.url, e)]))
@@ -272,6 +322,24 @@ beforeAll(async () => {
 		await fetch(`${app.url}/api/v1/chemistries/NMC/curve?points=41`, { headers: { authorization: `Bearer ${tokens.buyer}` } })
 	).json();
 	fitPoints = curve.points.filter((p: { soc: number }) => p.soc >= 0.05 && p.soc <= 0.95);
+	// A model version fitted by the second quality manager, for the first to approve.
+	const quality2 = await tokenFor(db.url, 'quality2@kestrel-mobility.example');
+	const saved = await fetch(`${app.url}/api/v1/models`, {
+		method: 'POST',
+		headers: { authorization: `Bearer ${quality2}`, 'content-type': 'application/json' },
+		body: JSON.stringify({ chemistry: 'NMC', temperature_c: 25, points: fitPoints, label: 'matrix' })
+	});
+	if (saved.status !== 201) throw new Error(`model not saved: ${saved.status} ${await saved.text()}`);
+	savedModelId = (await saved.json()).id;
+	// A webhook endpoint with one delivery: registered before a lot is, so lot.registered is queued for it.
+	const admin = { authorization: `Bearer ${tokens.admin}`, 'content-type': 'application/json' };
+	const registered = await fetch(`${app.url}/api/v1/webhooks`, {
+		method: 'POST',
+		headers: admin,
+		body: JSON.stringify({ url: 'http://127.0.0.1:9/matrix', events: ['lot.registered'] })
+	});
+	if (registered.status !== 201) throw new Error(`webhook not registered: ${registered.status} ${await registered.text()}`);
+	const hookId: string = (await registered.json()).id;
 	const ready1 = await measuredLot(buyer, inspector, 'accept');
 	const ready2 = await measuredLot(buyer, inspector, 'accept');
 	L = await withClient(db.url, async (c) => {
@@ -300,6 +368,12 @@ beforeAll(async () => {
 			notice: (await q('select id from notices where lot_id = $1 order by created_at limit 1', [read.id])).id,
 			document: (await q('select id from documents where lot_id = $1 order by id limit 1', [read.id])).id
 		};
+	});
+	await withClient(db.url, async (c) => {
+		const delivery = (await c.query('select id from webhook_deliveries where endpoint_id = $1 limit 1', [hookId])).rows[0];
+		if (!delivery) throw new Error('no webhook delivery was queued for the lot registrations');
+		hook = { id: hookId, delivery: delivery.id };
+		tracedSerial = (await c.query('select serial from readings where lot_id = $1 order by id limit 1', [L.read])).rows[0].serial;
 	});
 }, 120_000);
 
@@ -345,7 +419,6 @@ describe('role × API route matrix', () => {
 				const got = await callApi(c, role);
 				const fine = want === ok ? got.status >= 200 && got.status < 300 : got.status === want;
 				if (!fine) wrong.push(`${c.name} as ${role}: expected ${want}, got ${got.status} ${got.text.slice(0, 160)}`);
-				if (c.name === 'POST models' && role === 'quality' && got.status === 201) savedModelId = JSON.parse(got.text).id;
 				if (want !== ok && got.status >= 400) {
 					// Refusals are in the API's error shape.
 					if (!/^application\/json/.test(got.type) || !JSON.parse(got.text)?.error?.code)
@@ -376,6 +449,12 @@ describe('role × API route matrix', () => {
 				(await c.query('select id from lots where supplier_id = $1', [own])).rows.map((r) => r.id)
 			);
 			expect(notices.every((n) => lotIds.includes(n.lot_id ?? n.lotId))).toBe(true);
+			// The serial trace of a unit in A's lot: A finds it, B finds nothing.
+			const trace = (await (await fetch(`${app.url}/api/v1/readings?serial=${encodeURIComponent(tracedSerial)}`, { headers: auth })).json())
+				.readings as Array<{ lot_id: string }>;
+			if (role === 'supplierA') expect(trace.length).toBeGreaterThan(0);
+			else expect(trace).toEqual([]);
+			expect(trace.every((t) => lotIds.includes(t.lot_id))).toBe(true);
 		}
 	});
 

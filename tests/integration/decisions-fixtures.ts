@@ -8,7 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { simpleParser, type ParsedMail } from 'mailparser';
 import { rawMail, readMail, type ReceivedMail } from '../helpers/mail';
-import { call, createLot, modelReadings, type Caller } from './readings-fixtures';
+import { call, createLot, modelReadings, VC21_MODEL, type Caller } from './readings-fixtures';
 
 export type Scenario = 'accept' | 'hold' | 'safety';
 export const PART = 'VC-21700-50G'; // Voltaria NMC 21700 cell (seed/scenario.ts)
@@ -23,12 +23,12 @@ export async function measuredLot(buyer: Caller, inspector: Caller, scenario: Sc
 	// The hold scenario lacks only the UN 38.3 summary, so attaching it later can release the lot.
 	const documents = scenario === 'hold' ? (['coc', 'sds'] as const) : (['coc', 'un38_3_summary', 'sds'] as const);
 	const lot = await createLot(buyer, { partNumber: PART, quantity: 100, declaredSoc: 0.3, documents: [...documents] });
-	const readings = modelReadings('NMC', 1, 0.3, { prefix: 'P' });
+	const readings = modelReadings(VC21_MODEL, 1, 0.3, { prefix: 'P' });
 	const first = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings } });
 	if (first.status !== 201) throw new Error(`readings refused: ${first.status} ${JSON.stringify(first.json)}`);
 	const summary = await call(inspector, `/api/v1/lots/${lot.id}/evaluation?detail=summary`);
 	const n: number = summary.json.plan.sample_size;
-	const rest = modelReadings('NMC', n - 1, 0.3, { prefix: 'SN', halfWidth: 0.005 });
+	const rest = modelReadings(VC21_MODEL, n - 1, 0.3, { prefix: 'SN', halfWidth: 0.005 });
 	if (scenario === 'safety') rest[0] = { ...rest[0], ocv_v: 2.0 };
 	const second = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: rest } });
 	if (second.status !== 201) throw new Error(`readings refused: ${second.status} ${JSON.stringify(second.json)}`);

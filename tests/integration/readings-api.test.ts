@@ -7,7 +7,7 @@ import XlsxPopulate from 'xlsx-populate';
 import { startApp, type RunningApp } from '../helpers/app';
 import { tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient } from '../helpers/db';
-import { call, createLot, modelReadings, type Caller } from './readings-fixtures';
+import { call, createLot, modelReadings, VC21_MODEL, type Caller } from './readings-fixtures';
 
 const LI_DOCS = ['coc', 'un38_3_summary', 'sds'] as const; // the seeded lithium parts require all three
 let app: RunningApp;
@@ -43,7 +43,7 @@ describe('POST/GET /api/v1/lots/{id}/readings', () => {
 	it('records the arrival, stores readings, and lists them', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
 		expect((await lotStatus(lot.id)).status).toBe('awaiting_arrival');
-		const res = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', 3, 0.3) } });
+		const res = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings(VC21_MODEL, 3, 0.3) } });
 		expect(res.status).toBe(201);
 		expect(res.json).toMatchObject({ inserted: 3, lot_status: 'in_inspection' });
 		const after = await lotStatus(lot.id);
@@ -61,7 +61,7 @@ describe('POST/GET /api/v1/lots/{id}/readings', () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
 		const plan = (await call(inspector, `/api/v1/lots/${lot.id}/evaluation`)).json.plan;
 		expect(plan).toMatchObject({ code_letter: 'F', plan_code_letter: 'E', sample_size: 13 });
-		const rows = modelReadings('NMC', 14, 0.3);
+		const rows = modelReadings(VC21_MODEL, 14, 0.3);
 		const first = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: rows.slice(0, 12) } });
 		expect(first.json.lot_status).toBe('in_inspection');
 		const last = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: rows.slice(12, 13) } });
@@ -74,7 +74,7 @@ describe('POST/GET /api/v1/lots/{id}/readings', () => {
 
 	it('is all or nothing: one bad row (NaN as a string, negative OCV) stores nothing', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
-		const good = modelReadings('NMC', 5, 0.3);
+		const good = modelReadings(VC21_MODEL, 5, 0.3);
 		const bad = [...good.slice(0, 4), { serial: 'SN-BAD', ocv_v: -3.6, temperature_c: 25 }];
 		const res = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: bad } });
 		expect(res.status).toBe(422);
@@ -90,7 +90,7 @@ describe('POST/GET /api/v1/lots/{id}/readings', () => {
 
 	it('refuses 10,001 readings with 413 and takes exactly 10,000 quickly', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 20000, declaredSoc: 0.3 });
-		const many = modelReadings('NMC', 10_001, 0.3, { halfWidth: 0.02 });
+		const many = modelReadings(VC21_MODEL, 10_001, 0.3, { halfWidth: 0.02 });
 		const refused = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: many } });
 		expect(refused.status).toBe(413);
 		expect(await readingCount(lot.id)).toBe(0);
@@ -108,7 +108,7 @@ describe('POST/GET /api/v1/lots/{id}/readings', () => {
 
 	it('is idempotent by client_key (a retried save is not stored twice)', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
-		const rows = modelReadings('NMC', 2, 0.3).map((r, i) => ({ ...r, client_key: `key-${lot.id}-${i}` }));
+		const rows = modelReadings(VC21_MODEL, 2, 0.3).map((r, i) => ({ ...r, client_key: `key-${lot.id}-${i}` }));
 		const first = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: rows } });
 		const retry = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: rows } });
 		expect(first.json.inserted).toBe(2);
@@ -126,14 +126,16 @@ describe('POST/GET /api/v1/lots/{id}/readings', () => {
 
 	it('names no stored ids for rows sent without a client_key', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
-		const saved = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', 2, 0.3) } });
+		const saved = await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings(VC21_MODEL, 2, 0.3) } });
 		expect(saved.status).toBe(201);
 		expect(saved.json).toMatchObject({ inserted: 2, stored: [] });
 	});
 
 	it('keeps suppliers out: 403 on write, 404 on another supplier’s lot, own lot readable', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
-		const write = await call(voltariaSupplier, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', 1, 0.3) } });
+		const write = await call(voltariaSupplier, `/api/v1/lots/${lot.id}/readings`, {
+			body: { readings: modelReadings(VC21_MODEL, 1, 0.3) }
+		});
 		expect(write.status).toBe(403);
 		expect((await call(ferrolithSupplier, `/api/v1/lots/${lot.id}/readings`)).status).toBe(404);
 		expect((await call(ferrolithSupplier, `/api/v1/lots/${lot.id}/evaluation`)).status).toBe(404);
@@ -155,7 +157,7 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 		// VC-21700-50G: AQL 1.0, level II; lot 500 → Table I letter H, II-A n 50, Ac 1 Re 2 (MIL-STD-105E).
 		const { lot, n, plan } = await sampleLot({ partNumber: 'VC-21700-50G', quantity: 500, declaredSoc: 0.3, documents: [...LI_DOCS] });
 		expect(plan).toEqual({ code_letter: 'H', plan_code_letter: 'H', sample_size: 50, accept: 1, reject: 2, hundred_percent: false });
-		await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', n, 0.3) } });
+		await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings(VC21_MODEL, n, 0.3) } });
 		const ev = (await call(inspector, `/api/v1/lots/${lot.id}/evaluation`)).json;
 		expect(ev.status).toBe('accept');
 		expect(ev.severity).toBe('normal');
@@ -163,12 +165,12 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 		expect(ev.reasons.filter((r: { severity: string }) => r.severity !== 'info')).toEqual([]);
 		expect(ev.units).toHaveLength(50);
 		expect(ev.stats.count).toBe(50);
-		// Readings were generated at 29–31 % SOC, 25 °C: the median estimate is 30 % and every interval holds it.
+		// Readings were generated from the part's model at 29–31 % SOC, 25 °C: the median estimate is 30 % and every interval holds it.
 		const socs = ev.units.map((u: { soc: number }) => u.soc).sort((a: number, b: number) => a - b);
 		expect((socs[24] + socs[25]) / 2).toBeCloseTo(0.3, 3);
 		expect(ev.units.every((u: { soc_low: number; soc_high: number }) => u.soc_low <= 0.31 && u.soc_high >= 0.29)).toBe(true);
 		expect(ev.variables).toBeTypeOf('object');
-		expect(ev.model).toMatchObject({ chemistry: 'NMC', version: 'lib-1' });
+		expect(ev.model).toMatchObject({ chemistry: 'NMC', version: VC21_MODEL.version }); // the part's approved tabulated model (seed)
 		// The served body leaves out the readings snapshot (stored evaluations keep it: decisions.test.ts)
 		// and keeps what the lot page's plots draw from; unit numbers are rounded to 1e-6 (1 µV, 0.0001 % SOC).
 		expect(ev.inputs.readings).toBeUndefined();
@@ -189,7 +191,7 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 
 	it('one deep-discharged unit → reject with deep_discharge naming that unit', async () => {
 		const { lot, n } = await sampleLot({ partNumber: 'VC-21700-50G', quantity: 500, declaredSoc: 0.3, documents: [...LI_DOCS] });
-		const rows = modelReadings('NMC', n, 0.3);
+		const rows = modelReadings(VC21_MODEL, n, 0.3);
 		rows[7] = { serial: rows[7].serial, ocv_v: 2.1, temperature_c: 25 }; // below the NMC model's 2.5 V minimum
 		await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: rows } });
 		const ev = (await call(inspector, `/api/v1/lots/${lot.id}/evaluation`)).json;
@@ -226,11 +228,11 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 
 	it('refuses readings on a decided lot with 409', async () => {
 		const { lot, n } = await sampleLot({ partNumber: 'VC-21700-50G', quantity: 500, declaredSoc: 0.3, documents: [...LI_DOCS] });
-		await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings('NMC', n, 0.3) } });
+		await call(inspector, `/api/v1/lots/${lot.id}/readings`, { body: { readings: modelReadings(VC21_MODEL, n, 0.3) } });
 		const submitted = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
 		expect(submitted.status).toBeLessThan(300);
 		const late = await call(inspector, `/api/v1/lots/${lot.id}/readings`, {
-			body: { readings: modelReadings('NMC', 1, 0.3, { prefix: 'LATE' }) }
+			body: { readings: modelReadings(VC21_MODEL, 1, 0.3, { prefix: 'LATE' }) }
 		});
 		expect(late.status).toBe(409);
 		expect(await readingCount(lot.id)).toBe(n);
@@ -314,7 +316,7 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 
 	it('previews a CSV (mV header, decimal commas) with row-level errors and writes nothing', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
-		const csv = csvOf(modelReadings('NMC', 4, 0.3), true) + '\r\nSN-X;abc;25;18;2026-03-02 10:00:00\r\n';
+		const csv = csvOf(modelReadings(VC21_MODEL, 4, 0.3), true) + '\r\nSN-X;abc;25;18;2026-03-02 10:00:00\r\n';
 		const res = await upload(lot.id, 'meter.csv', csv, undefined, true);
 		expect(res.status).toBe(200);
 		expect(res.json.guessed_mapping).toMatchObject({
@@ -336,7 +338,7 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 
 	it('imports a CSV once; the same file again stores nothing and says when it was imported', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
-		const csv = csvOf(modelReadings('NMC', 20, 0.3));
+		const csv = csvOf(modelReadings(VC21_MODEL, 20, 0.3));
 		const preview = await upload(lot.id, 'meter.csv', csv, undefined, true);
 		const mapping = preview.json.guessed_mapping;
 		const first = await upload(lot.id, 'meter.csv', csv, mapping);
@@ -361,7 +363,7 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 
 	it('refuses a file with a bad row unless skip_invalid, all or nothing', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
-		const csv = csvOf(modelReadings('NMC', 3, 0.3)) + '\r\nSN-BAD;;25;18;2026-03-02 10:00:00';
+		const csv = csvOf(modelReadings(VC21_MODEL, 3, 0.3)) + '\r\nSN-BAD;;25;18;2026-03-02 10:00:00';
 		const mapping = { serial: 0, ocv: 1, ocv_unit: 'V', temperature: 2, ac_resistance: 3, time: 4, first_row: 1 };
 		const refused = await upload(lot.id, 'bad.csv', csv, mapping);
 		expect(refused.status).toBe(422);
@@ -375,7 +377,7 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 	it('refuses a CSV whose quoting is broken, naming the row, and stores nothing', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
 		const csv =
-			csvOf(modelReadings('NMC', 3, 0.3)) +
+			csvOf(modelReadings(VC21_MODEL, 3, 0.3)) +
 			'\r\n"SN-OPEN;3,61;25,0;18,0;2026-03-02 10:00:00\r\nSN-NEXT;3,62;25,0;18,0;2026-03-02 10:01:00\r\n';
 		const mapping = { serial: 0, ocv: 1, ocv_unit: 'V', temperature: 2, ac_resistance: 3, time: 4, first_row: 1, skip_invalid: true };
 		const refused = await upload(lot.id, 'broken.csv', csv, mapping);
@@ -387,7 +389,7 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 
 	it('previews and imports an XLSX workbook (numbers as numbers, a header row)', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 100, declaredSoc: 0.3 });
-		const rows = modelReadings('NMC', 12, 0.3);
+		const rows = modelReadings(VC21_MODEL, 12, 0.3);
 		const wb = await XlsxPopulate.fromBlankAsync();
 		wb.sheet(0)!
 			.range(1, 1, rows.length + 1, 3)
@@ -408,7 +410,7 @@ describe('POST /api/v1/lots/{id}/imports', () => {
 
 	it('imports 10,000 rows (speed: npm run bench)', async () => {
 		const lot = await createLot(buyer, { partNumber: 'VC-21700-50G', quantity: 20000, declaredSoc: 0.3 });
-		const csv = csvOf(modelReadings('NMC', 10_000, 0.3, { halfWidth: 0.02 }));
+		const csv = csvOf(modelReadings(VC21_MODEL, 10_000, 0.3, { halfWidth: 0.02 }));
 		const mapping = { serial: 0, ocv: 1, ocv_unit: 'V', temperature: 2, ac_resistance: 3, time: 4, first_row: 1 };
 		const res = await upload(lot.id, 'big.csv', csv, mapping);
 		expect(res.status).toBe(201);

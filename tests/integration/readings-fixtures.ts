@@ -2,7 +2,8 @@
  * Test set-up for the readings, evaluation and import specs: lots registered through the real API
  * and readings generated from the library OCV models (the same forward model the server inverts).
  */
-import { getLibraryModel, ocvAt, type ChemistryCode } from '../../src/lib/electrochem';
+import { getLibraryModel, ocvAt, type ChemistryCode, type OcvModel } from '../../src/lib/electrochem';
+import { vc21Fit } from '../../seed/vc21-datasheet';
 
 export interface Caller {
 	base: string;
@@ -96,17 +97,20 @@ export async function createLot(buyer: Caller, spec: LotSpec): Promise<{ id: str
 	return res.json;
 }
 
+/** The model the seed gives VC-21700-50G (a tabulated fit to its invented datasheet table, seed/part-models.ts). */
+export const VC21_MODEL: OcvModel = vc21Fit().model;
+
 /**
  * n readings of `cells` cells in series at SOC values spread evenly over soc ± halfWidth, at 25 °C,
  * from the library model's forward curve (deterministic: no random numbers).
  */
 export function modelReadings(
-	chemistry: ChemistryCode,
+	chemistryOrModel: ChemistryCode | OcvModel,
 	n: number,
 	soc: number,
 	opts: { cells?: number; halfWidth?: number; prefix?: string; temperatureC?: number } = {}
 ) {
-	const model = getLibraryModel(chemistry);
+	const model = typeof chemistryOrModel === 'string' ? getLibraryModel(chemistryOrModel) : chemistryOrModel;
 	const half = opts.halfWidth ?? 0.01;
 	const t = opts.temperatureC ?? 25;
 	return Array.from({ length: n }, (_, i) => {

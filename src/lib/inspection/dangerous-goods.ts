@@ -247,12 +247,19 @@ const pct = (x: number) => `${Math.round(x * 100)} %`;
 const DEFER = "Check the current dangerous-goods regulations and the site's procedure before any onward shipment or return.";
 
 /**
- * An estimate above the limit is over it. An estimate at or below it whose interval still reaches
- * above, or an indeterminate reading that is not wholly above, does not show compliance.
+ * Where one reading stands against an SOC limit. An estimate above the limit is over it. An estimate
+ * at or below it whose interval still reaches above, or an indeterminate reading that is not wholly
+ * above, does not show compliance. The bench's per-row feedback uses the same test.
  */
+export function socStanding(u: Omit<DgUnit, 'serial'>, limit: number): 'over' | 'unverified' | 'within' {
+	if (u.determinate ? u.soc > limit : u.soc_low > limit) return 'over';
+	if (!u.determinate || u.soc_high > limit) return 'unverified';
+	return 'within';
+}
+
 function splitBySoc(units: readonly DgUnit[], limit: number) {
-	const over = units.filter((u) => (u.determinate ? u.soc > limit : u.soc_low > limit));
-	const unverified = units.filter((u) => !over.includes(u) && (!u.determinate || u.soc_high > limit));
+	const over = units.filter((u) => socStanding(u, limit) === 'over');
+	const unverified = units.filter((u) => socStanding(u, limit) === 'unverified');
 	return { over: over.map((u) => u.serial), unverified: unverified.map((u) => u.serial) };
 }
 
@@ -321,6 +328,8 @@ export interface DgSummary {
 	un_number: UnNumber | null;
 	packing: Packing;
 	soc_rule: SocRule['kind'] | null;
+	/** The SOC limit that binds this shipment (0.3 under PI 965, or PI 966 above 2.7 Wh), else null. */
+	soc_limit: number | null;
 	summary: string | null;
 	basis: string | null;
 }
@@ -331,6 +340,7 @@ export function dgSummary(rule: DgRule | null, shipment: DgShipment): DgSummary 
 		un_number: shipmentUnNumber(shipment),
 		packing: shipment.packing,
 		soc_rule: rule ? (socLimitBinds(rule, shipment.energy_wh) ? 'limit' : rule.soc.kind === 'recommended' ? 'recommended' : 'none') : null,
+		soc_limit: rule && socLimitBinds(rule, shipment.energy_wh) && rule.soc.kind === 'limit' ? rule.soc.limit : null,
 		summary: rule?.summary ?? null,
 		basis: rule?.basis ?? null
 	};

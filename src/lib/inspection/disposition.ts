@@ -266,7 +266,10 @@ function socReasons(lot: LotInfo, limits: PartLimits, units: readonly UnitDispos
 		reasons.push({
 			code: 'soc_indeterminate',
 			severity: 'hold',
-			message: `SOC could not be determined for most units (flat OCV region), so the ${needsSoc.join(' and ')} could not be checked. Use another method (e.g. a capacity check) to confirm.`,
+			message:
+				`The reading cannot place the SOC closely enough for ${units.length - determinate.length} of ${units.length} unit(s) ` +
+				`(the 95 % interval is wider than the model allows: a flat stretch of the curve, a generic curve or an unknown charge/discharge branch), ` +
+				`so the ${needsSoc.join(' and ')} was not made. A part model fitted to the supplier's curve, or another method such as a capacity check, can confirm it.`,
 			units: units.filter((u) => !u.determinate).map((u) => u.serial)
 		});
 	}

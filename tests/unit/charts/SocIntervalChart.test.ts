@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { SocIntervalChart, type SocUnit } from '$lib/components/charts';
 import { dataMarkers, elements, num, textNodes, texts } from './svg';
 
-// Invented demo units. Every fourth unit sits in a flat OCV region and is indeterminate.
+// Invented demo units. Every fourth unit has an interval too wide to place it and is indeterminate.
 function units(count: number): SocUnit[] {
 	return Array.from({ length: count }, (_, i) => {
 		const soc = 0.1 + ((i * 37) % 80) / 100;
@@ -34,7 +34,7 @@ describe('SocIntervalChart', () => {
 		const hollow = dataMarkers(body, 'ring');
 		expect(hollow).toHaveLength(twelve.filter((u) => !u.determinate).length);
 		expect(hollow.every((m) => m.attrs.fill === 'none' && m.title?.endsWith('indeterminate'))).toBe(true);
-		expect(texts(body)).toContain('indeterminate (flat OCV region)');
+		expect(texts(body)).toContain('indeterminate (interval too wide)');
 		expect(texts(body)).toContain('SOC estimate with interval');
 	});
 

@@ -35,6 +35,8 @@ export const load: PageServerLoad = async ({ locals, params, depends }) => {
 		part: inputs.part,
 		model: inputs.model,
 		limits: inputs.limits,
+		// The SOC limit the lot's DG rule binds (the evaluation's own rule), for the per-row air check.
+		dgSocLimit: evaluation.dg?.soc_limit ?? null,
 		plan: evaluation.plan,
 		severity: evaluation.severity,
 		unitsMeasured: evaluation.units.length,

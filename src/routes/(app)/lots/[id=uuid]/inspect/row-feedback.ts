@@ -3,6 +3,7 @@
 import { evaluateReading, type OcvModel } from '$lib/electrochem';
 import { percent, percentRange, signedMillivolts, socSigma, volts } from '$lib/format';
 import type { PartLimits } from '$lib/inspection';
+import { socStanding } from '$lib/inspection/dangerous-goods';
 import { VERDICT, type Look } from '$lib/status';
 
 export interface BenchContext {
@@ -69,10 +70,10 @@ export function feedbackFor(ctx: BenchContext, ocvV: number, temperatureC: numbe
 	if (r.residual_v !== null && Math.abs(r.residual_v) > ctx.limits.residual_tolerance_v && r.determinate) {
 		findings.push(attention('far_from_declared_soc', 'far from declared SOC'));
 	}
-	// Same test as the server's air rule: the unit's SOC interval lies wholly above the limit.
-	if (ctx.airSocLimit != null && r.soc_low > ctx.airSocLimit) {
-		findings.push(attention('above_air_limit', `above ${percent(ctx.airSocLimit)} air limit`));
-	}
+	// Same test as the server's air rule (socStanding in the inspection core).
+	const air = ctx.airSocLimit == null ? 'within' : socStanding(r, ctx.airSocLimit);
+	if (air === 'over') findings.push(attention('above_air_limit', `above ${percent(ctx.airSocLimit!)} air limit`));
+	if (air === 'unverified') findings.push(attention('air_limit_unverified', `≤ ${percent(ctx.airSocLimit!)} not shown`));
 	if (findings.length === 0) findings.push({ ...VERDICT.accept, code: 'in_window', word: 'in window' });
 	return {
 		socText: r.flags.includes('below_window')
