@@ -1,19 +1,16 @@
 /**
- * The lot list and a serial trace at scale (500,000 lots, 10 million readings by default), both
- * through listLots — the service of the /lots page and GET /api/v1/lots — in-process on the same pg
- * pool, each against the bare indexed query that gives the same rows (lots with their supplier's
- * name and part's facts, the page size + 1 that tells whether a next page exists), written by hand:
- * - `lot-list-…`: the buyer's first page of 50, newest first;
- * - `serial-trace-…`: the lots holding a unit's serial (`serial` filter, index readings_serial_idx),
- *   over serials spread across the data set.
- * The SQL listLots issues is captured with a drizzle logger and its EXPLAIN ANALYZE is printed.
+ * The lot list at scale (500,000 lots by default) through listLots — the service of the /lots page
+ * and GET /api/v1/lots — in-process on the same pg pool, against the bare indexed query that gives
+ * the same rows (the buyer's first page of 50, newest first: lots with their supplier's name and
+ * part's facts, the page size + 1 that tells whether a next page exists), written by hand. The SQL
+ * listLots issues is captured with a drizzle logger and its EXPLAIN ANALYZE is printed.
  */
 import { drizzle } from 'drizzle-orm/node-postgres';
 import { getPool, schema } from '$lib/server/db';
 import { listLots, type LotListFilter } from '$lib/server/services/lots';
 import { findUserByEmail, toSessionUser } from '$lib/server/services/users';
 import type { SessionUser } from '$lib/roles';
-import { READINGS_PER_SCALE_LOT, SCALE_LOTS, scaleSerial, sizeLabel } from '../lib/data';
+import { SCALE_LOTS, sizeLabel } from '../lib/data';
 import { interleaved, timeMs, type BenchLine } from '../lib/measure';
 
 const PAGE = 50;
@@ -30,7 +27,8 @@ export interface ListResult {
 	usesIndex: boolean;
 }
 
-async function buyer(): Promise<SessionUser> {
+/** The demo buyer, who sees every lot. */
+export async function benchBuyer(): Promise<SessionUser> {
 	const row = await findUserByEmail('buyer@kestrel-mobility.example');
 	if (!row) throw new Error('the demo buyer is not seeded');
 	return toSessionUser(row);
@@ -48,7 +46,7 @@ async function explainListLots(user: SessionUser, filter: LotListFilter): Promis
 }
 
 /** Mean ms per call over a batch, op and floor interleaved. */
-async function compare(op: () => Promise<unknown>, floor: () => Promise<unknown>) {
+export async function compareBatches(op: () => Promise<unknown>, floor: () => Promise<unknown>) {
 	const batch = (fn: () => Promise<unknown>) => async () =>
 		(await timeMs(async () => {
 			for (let i = 0; i < CALLS_PER_SAMPLE; i++) await fn();
@@ -57,13 +55,13 @@ async function compare(op: () => Promise<unknown>, floor: () => Promise<unknown>
 }
 
 export async function benchLotList(): Promise<ListResult> {
-	const user = await buyer();
+	const user = await benchBuyer();
 	const pool = getPool();
 	const db = drizzle(pool, { schema });
 	const first = await listLots(db, user, { limit: PAGE });
 	if (first.lots.length !== PAGE) throw new Error(`listLots returned ${first.lots.length} lots, expected ${PAGE}`);
 	const explain = await explainListLots(user, { limit: PAGE });
-	const result = await compare(
+	const result = await compareBatches(
 		() => listLots(db, user, { limit: PAGE }),
 		() => pool.query(`${BARE_ROWS} ${NEWEST_FIRST}`)
 	);
@@ -71,36 +69,5 @@ export async function benchLotList(): Promise<ListResult> {
 		line: { name: `lot-list-${sizeLabel(SCALE_LOTS)}`, value: result.op, floor: result.floor, unit: 'ms', target: { op: '<=', value: 2 } },
 		explain,
 		usesIndex: /Index (Only )?Scan/.test(explain) && !/Seq Scan on lots/.test(explain)
-	};
-}
-
-export async function benchSerialTrace(): Promise<ListResult> {
-	const user = await buyer();
-	const pool = getPool();
-	const db = drizzle(pool, { schema });
-	// 97 units spread over the whole data set (a prime step, so they fall on different lots and readings).
-	const serials = Array.from({ length: 97 }, (_, k) => scaleSerial(1 + ((k * 5003) % SCALE_LOTS), 1 + (k % READINGS_PER_SCALE_LOT)));
-	const serialAt = (i: number) => serials[i % serials.length];
-	for (const serial of serials.slice(0, 5)) {
-		const found = await listLots(db, user, { limit: PAGE, serial });
-		if (found.lots.length !== 1) throw new Error(`the trace of ${serial} found ${found.lots.length} lots, expected 1`);
-	}
-	const explain = await explainListLots(user, { limit: PAGE, serial: serials[0] });
-	const bare = `${BARE_ROWS} where l.id in (select lot_id from readings where serial = $1) ${NEWEST_FIRST}`;
-	let call = 0;
-	const result = await compare(
-		() => listLots(db, user, { limit: PAGE, serial: serialAt(call++) }),
-		() => pool.query(bare, [serialAt(call++)])
-	);
-	return {
-		line: {
-			name: `serial-trace-${sizeLabel(SCALE_LOTS * READINGS_PER_SCALE_LOT)}`,
-			value: result.op,
-			floor: result.floor,
-			unit: 'ms',
-			target: { op: '<=', value: 2 }
-		},
-		explain,
-		usesIndex: /readings_serial_idx/.test(explain) && !/Seq Scan/.test(explain)
 	};
 }
