@@ -13,7 +13,7 @@ import { addReadings } from '../src/lib/server/services/readings';
 import { evaluateLotNow } from '../src/lib/server/services/evaluation';
 import { decideOverride, submitLot } from '../src/lib/server/services/decisions';
 import { issueChallenge } from '../src/lib/server/services/signature-challenges';
-import { isLithium, isLithiumIon } from '../src/lib/schemas/lot';
+import { dgFamilyOf, unNumberFor } from '../src/lib/inspection/dangerous-goods';
 import { demoDocument, type DemoDocumentKind } from './documents';
 import { LOTS, type LotSeed } from './lot-plan';
 import type { SeededPeople } from './people';
@@ -28,11 +28,11 @@ function staffUser(people: SeededPeople, role: 'buyer' | 'inspector' | 'quality'
 	return { id: people.staff.get(person.email)!, email: person.email, name: person.name, role, organisationId: people.ownId };
 }
 
-function unNumberFor(part: SeededPart): string | null {
-	if (!isLithium(part.chemistry)) return null;
-	const pack = part.series * part.parallel > 1;
-	if (isLithiumIon(part.chemistry)) return pack ? 'UN3480' : 'UN3480';
-	return 'UN3090';
+/** Demo lots travel on their own: the family's 'alone' number; AGM lead-acid blocks as non-spillable (UN2800). */
+function unNumberOf(part: SeededPart): string | null {
+	const family = dgFamilyOf(part.chemistry);
+	if (family) return unNumberFor(family, 'alone');
+	return part.chemistry === 'PBACID' ? 'UN2800' : null;
 }
 
 async function attachDocuments(db: Database, buyer: SessionUser, lotId: string, spec: LotSeed, part: SeededPart) {
@@ -136,7 +136,7 @@ async function seedOne(db: Database, people: SeededPeople, part: SeededPart, spe
 			quantity: spec.quantity,
 			declaredSoc: spec.declaredSoc,
 			transport: spec.transport,
-			unNumber: unNumberFor(part),
+			unNumber: unNumberOf(part),
 			// Demo lots are cells and packs bought on their own (DG packing 'alone': UN3480 / PI 965 by air).
 			packing: 'alone',
 			expectedArrival: new Date(when.getTime() + 7 * DAY).toISOString().slice(0, 10)

@@ -221,6 +221,12 @@ describe('bad lot input: a clear 4xx and nothing changes', () => {
 		['lithium part without UN number', () => ({ ...validLot(), un_number: null }), 422, 'un_number'],
 		['lithium-ion part with a lithium-metal UN number', () => ({ ...validLot(), un_number: 'UN3090' }), 422, 'un_number'],
 		['malformed UN number', () => ({ ...validLot(), un_number: 'UN34800' }), 422, 'un_number'],
+		[
+			'lead-acid part with a lithium UN number',
+			() => ({ ...validLot(), supplier_id: ids.plumbridge, part_id: ids.pb12, transport: 'road', un_number: 'UN3480' }),
+			422,
+			'un_number'
+		],
 		['bad expected_arrival date', () => ({ ...validLot(), expected_arrival: '2026-02-30' }), 422, 'expected_arrival'],
 		['missing fields', () => ({ po_number: 'PO-1' }), 422, 'supplier_id'],
 		['body that is not JSON', () => '{"quantity": NaN}', 400, null],

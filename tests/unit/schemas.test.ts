@@ -13,6 +13,7 @@ import {
 	lotInputFromForm,
 	lotListQuerySchema,
 	unNumberProblem,
+	unNumberGuide,
 	packingProblem,
 	isLithium,
 	isLithiumIon
@@ -167,10 +168,34 @@ describe('unNumberProblem', () => {
 		expect(unNumberProblem('LIMNO2', 'UN3480')).toMatch(/UN3090 or UN3091/);
 	});
 
-	it('lets other chemistries go without one, but checks the format when given', () => {
+	it('asks sodium-ion shipments for UN3551 or UN3552 (UN Model Regulations, 23rd rev. ed., from memory)', () => {
+		expect(unNumberProblem('SIB', null)).toMatch(/sodium-ion shipment needs its UN number \(UN3551 or UN3552\)/);
+		expect(unNumberProblem('SIB', 'UN3551')).toBeNull();
+		expect(unNumberProblem('SIB', 'UN3552')).toBeNull();
+		expect(unNumberProblem('SIB', 'UN3480')).toMatch(/UN3551 or UN3552/);
+	});
+
+	it('guides the lot form to the number the packing needs (UN Model Regulations, from memory)', () => {
+		expect(unNumberGuide('NMC', 'alone')).toMatchObject({ required: true, placeholder: 'UN3480' });
+		expect(unNumberGuide('NMC', 'in_equipment')).toMatchObject({ required: true, placeholder: 'UN3481' });
+		expect(unNumberGuide('LIMNO2', 'with_equipment').hint).toMatch(/^Required: UN3091 /);
+		expect(unNumberGuide('SIB', 'alone').placeholder).toBe('UN3551');
+		expect(unNumberGuide('PBACID', 'alone')).toMatchObject({ required: false, hint: 'If the shipment carried one: UN2794 or UN2800.' });
+		expect(unNumberGuide(null, 'alone').required).toBe(false);
+	});
+
+	it('lets other chemistries go without one, and accepts only the numbers their batteries travel under', () => {
+		// UN Model Regulations, Dangerous Goods List (from memory): UN2794 wet, acid; UN2800 wet, non-spillable;
+		// UN2795 wet, alkali; UN3496 nickel-metal hydride; alkaline primary cells: none.
 		expect(unNumberProblem('PBACID', null)).toBeNull();
 		expect(unNumberProblem('NIMH', '')).toBeNull();
-		expect(unNumberProblem('PBACID', 'UN2800')).toBeNull(); // UN2800: non-spillable wet batteries (from memory)
+		expect(unNumberProblem('PBACID', 'UN2800')).toBeNull();
+		expect(unNumberProblem('PBACID', 'UN2794')).toBeNull();
+		expect(unNumberProblem('NICD', 'UN2795')).toBeNull();
+		expect(unNumberProblem('NIMH', 'UN3496')).toBeNull();
+		expect(unNumberProblem('PBACID', 'UN3480')).toMatch(/UN2794 or UN2800, or leave it empty/);
+		expect(unNumberProblem('NIMH', 'UN1234')).toMatch(/UN3496, or leave it empty/);
+		expect(unNumberProblem('ALKALINE', 'UN3496')).toMatch(/no UN number of their own/);
 		expect(unNumberProblem('NIMH', 'U-3496')).toMatch(/four digits/);
 	});
 

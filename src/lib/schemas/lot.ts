@@ -3,7 +3,7 @@
  * JSON API (declared SOC as a fraction 0–1) and the service.
  */
 import { z } from 'zod';
-import { PACKINGS, familyOfUnNumber, unNumberFor, type Packing } from '$lib/inspection/dangerous-goods';
+import { PACKINGS, dgFamilyOf, familyOfUnNumber, unNumberFor, type Packing } from '$lib/inspection/dangerous-goods';
 import { fromText, text, wholeNumber } from './fields';
 
 export const TRANSPORTS = ['air', 'sea', 'road', 'rail'] as const;
@@ -29,10 +29,6 @@ export type LotStatus = (typeof LOT_STATUSES)[number];
 /** Lithium chemistries (library codes) and the UN numbers their shipments travel under. */
 export const LITHIUM_ION_CHEMISTRIES = ['LCO', 'NMC', 'NCA', 'LMO', 'LFP', 'LTO'] as const;
 export const LITHIUM_METAL_CHEMISTRIES = ['LIMNO2', 'LISOCL2'] as const;
-const UN_FOR = {
-	ion: ['UN3480', 'UN3481'],
-	metal: ['UN3090', 'UN3091']
-} as const;
 
 export const isLithiumIon = (chemistry: string) => (LITHIUM_ION_CHEMISTRIES as readonly string[]).includes(chemistry);
 export const isLithiumMetal = (chemistry: string) => (LITHIUM_METAL_CHEMISTRIES as readonly string[]).includes(chemistry);
@@ -44,17 +40,58 @@ export const AIR_LITHIUM_ION_SOC_LIMIT = 0.3;
 export const UN_NUMBER_PATTERN = /^UN\d{4}$/;
 
 /**
- * Why the UN number does not fit the part's chemistry, or null when it fits. Lithium shipments need
- * one of the lithium UN numbers (UN3480/3481 ion, UN3090/3091 metal); other chemistries may leave it empty.
+ * UN numbers the other chemistries may travel under (UN Model Regulations, Dangerous Goods List; from
+ * memory): UN2794 batteries, wet, filled with acid; UN2800 batteries, wet, non-spillable; UN2795
+ * batteries, wet, filled with alkali (vented NiCd); UN3496 batteries, nickel-metal hydride. Alkaline
+ * primary cells travel under none. Restvolt applies no SOC rule to these; it records the number.
+ */
+const OTHER_UN_NUMBERS: Readonly<Record<string, readonly string[]>> = {
+	PBACID: ['UN2794', 'UN2800'],
+	NICD: ['UN2795'],
+	NIMH: ['UN3496']
+};
+
+const FAMILY_WORD = { lithium_ion: 'lithium', lithium_metal: 'lithium', sodium_ion: 'sodium-ion' } as const;
+
+/**
+ * Why the UN number does not fit the part's chemistry, or null when it fits. Lithium and sodium-ion
+ * shipments need their family's numbers (UN3480/3481 ion, UN3090/3091 metal, UN3551/3552 sodium-ion);
+ * other chemistries may leave it empty, or give one of the numbers their batteries travel under.
  */
 export function unNumberProblem(chemistry: string, unNumber: string | null | undefined): string | null {
 	const value = unNumber?.trim() ? unNumber.trim() : null;
 	if (value && !UN_NUMBER_PATTERN.test(value)) return 'Write the UN number as UN followed by four digits, e.g. UN3480';
-	const allowed = isLithiumIon(chemistry) ? UN_FOR.ion : isLithiumMetal(chemistry) ? UN_FOR.metal : null;
-	if (!allowed) return null;
-	if (!value) return `A lithium shipment needs its UN number (${allowed.join(' or ')})`;
-	if (!(allowed as readonly string[]).includes(value)) return `For this chemistry the UN number is ${allowed.join(' or ')}`;
-	return null;
+	const family = dgFamilyOf(chemistry);
+	if (family) {
+		const allowed = [unNumberFor(family, 'alone'), unNumberFor(family, 'with_equipment')];
+		if (!value) return `A ${FAMILY_WORD[family]} shipment needs its UN number (${allowed.join(' or ')})`;
+		return allowed.includes(value as (typeof allowed)[number]) ? null : `For this chemistry the UN number is ${allowed.join(' or ')}`;
+	}
+	if (!value) return null;
+	const other = OTHER_UN_NUMBERS[chemistry.toUpperCase()] ?? [];
+	if (other.includes(value)) return null;
+	return other.length > 0
+		? `For this chemistry the UN number is ${other.join(' or ')}, or leave it empty`
+		: 'Cells of this chemistry travel under no UN number of their own; leave it empty';
+}
+
+/** What the lot form says beside the UN number for this chemistry and packing (same table as unNumberProblem). */
+export function unNumberGuide(chemistry: string | null, packing: Packing): { required: boolean; hint: string; placeholder: string } {
+	const family = chemistry ? dgFamilyOf(chemistry) : null;
+	if (family) {
+		const expected = unNumberFor(family, packing);
+		return {
+			required: true,
+			hint: `Required: ${expected} for cells and batteries ${PACKING_WORDS[packing]} (${unNumberFor(family, 'alone')} on their own, ${unNumberFor(family, 'with_equipment')} with or in equipment).`,
+			placeholder: expected
+		};
+	}
+	const other = chemistry ? (OTHER_UN_NUMBERS[chemistry.toUpperCase()] ?? []) : [];
+	return {
+		required: false,
+		hint: other.length > 0 ? `If the shipment carried one: ${other.join(' or ')}.` : 'Required for lithium and sodium-ion parts only.',
+		placeholder: ''
+	};
 }
 
 const PACKING_WORDS: Record<Packing, string> = {

@@ -47,6 +47,23 @@ describe('MIL-STD-414 Section B tables', () => {
 		expect(100 * fractionBeyond(formK(3, 4.0)!, 3)).toBeCloseTo(18.86, 1);
 		expect(100 * fractionBeyond(formK(3, 6.5)!, 3)).toBeCloseTo(26.94, 1);
 	});
+	it('worked example, MIL-STD-414 Section B Example B-1 (Form 1, upper limit 650 Ω, n 10, AQL 2.5; values from memory): x̄ 647, s 17.22, Q_U 0.174 < k 1.41 → not acceptable', () => {
+		const resistances = [643, 651, 619, 627, 658, 670, 673, 641, 638, 650];
+		const check = variablesCheck(resistances, null, 650, 2.5);
+		expect(check.mean).toBe(647);
+		expect(check.sd!).toBeCloseTo(17.22, 2);
+		expect(check.q_upper!).toBeCloseTo(0.174, 3);
+		expect(check.k).toBe(1.41);
+		expect(check.status).toBe('reject');
+	});
+	it('Table B-3 M for n = 10 at AQL 2.5 is 7.26 % (from memory); the B-5 estimator at Q = k = 1.41 gives it within 0.01', () => {
+		expect(Math.abs(100 * fractionBeyond(1.41, 10) - 7.26)).toBeLessThanOrEqual(0.01);
+		// The same sample against 620–680 Ω is judged by Form 2 against that M, never by k on each side.
+		const twoSided = variablesCheck([643, 651, 619, 627, 658, 670, 673, 641, 638, 650], 620, 680, 2.5);
+		expect(twoSided.max_p!).toBeCloseTo(fractionBeyond(1.41, 10), 12);
+		expect(twoSided.p_upper! + twoSided.p_lower!).toBeLessThan(twoSided.max_p!);
+		expect(twoSided.q_lower!).toBeGreaterThan(1.41); // Q_L 1.57 and Q_U 1.92 both pass k alone
+	});
 	it('incomplete beta: I_x(½, ½) = (2/π)·arcsin √x (closed form, any table of the beta function)', () => {
 		for (const x of [0.05, 0.3, 0.5, 0.9]) expect(incompleteBeta(x, 0.5, 0.5)).toBeCloseTo((2 / Math.PI) * Math.asin(Math.sqrt(x)), 12);
 		for (const x of [0.2, 0.7]) expect(incompleteBeta(x, 1, 1)).toBeCloseTo(x, 12);
