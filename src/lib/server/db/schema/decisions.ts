@@ -1,5 +1,6 @@
 import { sql } from 'drizzle-orm';
-import { bigint, bigserial, boolean, check, index, integer, jsonb, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { bigint, bigserial, boolean, check, date, index, integer, jsonb, pgTable, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { MATERIAL_DISPOSITIONS } from '../../../schemas/disposition';
 import { dispositionEnum, lotStatusEnum, severityEnum } from './enums';
 import { lots } from './lots';
 import { ocvModels } from './models';
@@ -43,6 +44,10 @@ export const decisions = pgTable(
 		fromStatus: lotStatusEnum('from_status').notNull(),
 		toStatus: lotStatusEnum('to_status').notNull(),
 		reason: text('reason'),
+		// Quality's material disposition (override only): what happens to the lot and what the supplier is asked.
+		disposition: text('disposition', { enum: MATERIAL_DISPOSITIONS }),
+		// The date by which the supplier is asked to act (every disposition but release).
+		supplierDueDate: date('supplier_due_date', { mode: 'string' }),
 		signature: jsonb('signature'),
 		decidedBy: text('decided_by').references(() => users.id),
 		decidedAt: timestamp('decided_at', { withTimezone: true }).notNull().defaultNow()

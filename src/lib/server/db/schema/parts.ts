@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { check, doublePrecision, index, integer, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
+import { boolean, check, doublePrecision, index, integer, pgTable, text, timestamp, unique, uuid } from 'drizzle-orm/pg-core';
 import { organisations } from './organisations';
 import { ocvModels } from './models';
 
@@ -34,6 +34,8 @@ export const parts = pgTable(
 			.array()
 			.notNull()
 			.default(sql`'{coc}'::text[]`),
+		// An engine 'accept' releases the lot at once; off: quality confirms every lot of this part.
+		autoReleaseAccept: boolean('auto_release_accept').notNull().default(true),
 		createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
 	},
