@@ -7,6 +7,8 @@ export const organisations = pgTable('organisations', {
 	name: text('name').notNull().unique(),
 	kind: organisationKindEnum('kind').notNull(),
 	country: text('country'),
+	/** Postal address as people write it, lines separated by newlines. */
+	address: text('address'),
 	createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow()
 });
 

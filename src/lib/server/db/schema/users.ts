@@ -1,4 +1,4 @@
-import { bigint, boolean, index, integer, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
+import { bigint, boolean, index, integer, jsonb, pgTable, primaryKey, text, timestamp, uuid } from 'drizzle-orm/pg-core';
 import { roleEnum } from './enums';
 import { organisations } from './organisations';
 
@@ -141,4 +141,22 @@ export const signInCodeSteps = pgTable(
 		usedAt: timestamp('used_at', { withTimezone: true })
 	},
 	(t) => [index('sign_in_code_steps_user_idx').on(t.userId)]
+);
+
+/**
+ * A person's own view settings (e.g. the lots list's columns and sort), one row per person and
+ * screen, so they follow the person from one browser or reload to the next. The value is checked
+ * by the screen's own zod schema when it is read.
+ */
+export const userPreferences = pgTable(
+	'user_preferences',
+	{
+		userId: text('user_id')
+			.notNull()
+			.references(() => users.id, { onDelete: 'cascade' }),
+		key: text('key').notNull(),
+		value: jsonb('value').notNull(),
+		updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow()
+	},
+	(t) => [primaryKey({ columns: [t.userId, t.key] })]
 );
