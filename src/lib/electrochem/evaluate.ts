@@ -2,12 +2,15 @@
 //
 // Uncertainty, 1σ in V per cell (GUM, JCGM 100:2008, first-order propagation, coverage factor 2):
 //   meter:       the meter reads the PACK voltage, so σ_meter,cell = meter_accuracy_v / cells_in_series;
-//   model:       the spread of real cells around the generic curve, σ_model(z) (calibrated per chemistry);
-//   temperature: |dU/dT(z)| × the temperature uncertainty (±2 K for a surface probe by default).
-// σ_total = sqrt(σ_meter² + σ_model² + σ_T²); σ_SOC = σ_total / |dE/dz|; the 95 % interval inverts
-// OCV ± 2σ_total through the curve, widened by the hysteresis band when the branch is unknown.
+//   temperature: |dU/dT(z)| × the temperature uncertainty (±2 K for a surface probe by default);
+//   model:       a single σ_model in V (fitted part models, uncalibrated chemistries), combined with the two above.
+// The voltage terms give an interval by inverting OCV ± 2σ through the curve, widened by the hysteresis
+// band when the branch is unknown. A calibrated chemistry carries its model error in SOC instead
+// (sigma_model_soc_curve: how far real cells' own SOC sits from the SOC the generic curve reads at the
+// same OCV, calibration/derive.ts), read at the estimate and added in quadrature to each half of that
+// interval: half-width = sqrt(voltage half-width² + (2σ_SOC,model)²), clipped to [0, 1].
 import { checkCelsius, checkFinite, checkPositiveInteger, checkRange, fail, throwIf } from './errors';
-import { type BranchBand, type PreparedModel, invertPrepared, prepareModel, solveWithTemperature } from './invert';
+import { NO_INFORMATION_SIGMA, type PreparedModel, invertPrepared, prepareModel, solveWithTemperature } from './invert';
 import { entropicMvPerK, entropicShiftV } from './thermal';
 import { piecewiseAt } from './piecewise';
 import type { EvaluateOptions, FlagCode, LastDirection, OcvModel, ReadingInput, UncertaintyBudget, EvaluatedUnit } from './types';
@@ -63,29 +66,50 @@ function flagsFor(model: OcvModel, ocvCell: number, t_c: number, clamped: 'low' 
 	return flags;
 }
 
-/** σ_model at z: the calibrated curve when the model has one, else its single number. */
-export function modelSigmaV(model: OcvModel, z: number): number {
-	return model.sigma_model_curve_v ? piecewiseAt(model.sigma_model_curve_v, z) : model.sigma_model_v;
+/** σ_model in SOC at the estimate z (0 when the model carries its error in volts instead). */
+export function modelSigmaSoc(model: OcvModel, z: number): number {
+	return model.sigma_model_soc_curve ? piecewiseAt(model.sigma_model_soc_curve, z) : 0;
 }
 
-/** The largest σ_model over [low, high]: the truth may sit anywhere in the interval (piecewise linear, so ends and nodes suffice). */
-function worstModelSigmaV(model: OcvModel, low: number, high: number): number {
-	const curve = model.sigma_model_curve_v;
-	if (!curve) return model.sigma_model_v;
-	const inside = curve.filter(([z]) => z > low && z < high).map(([, v]) => v);
-	return Math.max(piecewiseAt(curve, low), piecewiseAt(curve, high), ...inside);
+/** σ_model in V: the single number, or none when the error is carried in SOC. */
+function modelSigmaV(model: OcvModel): number {
+	return model.sigma_model_soc_curve ? 0 : model.sigma_model_v;
 }
 
-const SIGMA_PASSES = 6;
+/** A half-width from the voltage terms and 2σ of the SOC model error, combined in quadrature. */
+function widen(voltageHalf: number, sigmaSoc: number): number {
+	return Math.hypot(voltageHalf, 2 * sigmaSoc);
+}
 
-/** Where the 25 °C curve may sit relative to a reading, given the hysteresis branch. */
-function branchBand(model: OcvModel, z: number, direction: LastDirection): BranchBand {
-	const h = model.hysteresis_half_v ? piecewiseAt(model.hysteresis_half_v, z) : 0;
-	if (h === 0) return { below: 0, above: 0, shift: 0 };
-	// after a charge the cell rests on the upper branch (curve + h): the middle curve is the reading − h
-	if (direction === 'after_charge') return { below: 0, above: 0, shift: -h };
-	if (direction === 'after_discharge') return { below: 0, above: 0, shift: h };
-	return { below: h, above: h, shift: 0 };
+/** Half the branch gap at z, V (0 without hysteresis). */
+function hysteresisHalfV(model: OcvModel, z: number): number {
+	return model.hysteresis_half_v ? piecewiseAt(model.hysteresis_half_v, z) : 0;
+}
+
+/**
+ * Where the reading sits relative to the middle curve, per branch it may be on: after a charge the cell
+ * rests on the upper branch (curve + h), so the middle curve is the reading − h; unknown: either branch.
+ */
+function branchShifts(h: number, direction: LastDirection): number[] {
+	if (h === 0) return [0];
+	if (direction === 'after_charge') return [-h];
+	if (direction === 'after_discharge') return [h];
+	return [-h, h];
+}
+
+interface SocInterval {
+	soc_low: number;
+	soc_high: number;
+}
+
+/** The 95 % interval on one branch: the voltage terms inverted through the curve, widened by the SOC model error. */
+function intervalOnBranch(p: PreparedModel, ocvCell: number, t_c: number, sigmaV: number, shift: number): SocInterval {
+	const inv = invertPrepared(p, ocvCell, t_c, sigmaV, { below: 0, above: 0, shift });
+	const sigmaSoc = modelSigmaSoc(p.model, inv.soc);
+	return {
+		soc_low: Math.max(0, inv.soc - widen(inv.soc - inv.soc_low, sigmaSoc)),
+		soc_high: Math.min(1, inv.soc + widen(inv.soc_high - inv.soc, sigmaSoc))
+	};
 }
 
 function inPlateau(model: OcvModel, low: number, high: number): boolean {
@@ -111,30 +135,32 @@ function evaluatePrepared(p: PreparedModel, reading: ReadingInput, o: ResolvedOp
 	const model = p.model;
 	const t_c = reading.temperature_c;
 	const ocvCell = reading.ocv_v / o.cells;
-	// the z-dependent terms are read at a first estimate from the reading on the middle curve
+	// the z-dependent terms are read at the estimate from the reading on the middle curve
 	const z0 = solveWithTemperature(p, ocvCell, t_c).z;
-	const band = branchBand(model, z0, o.direction);
+	const h = hysteresisHalfV(model, z0);
+	const shifts = branchShifts(h, o.direction);
 	const sigmaT = (Math.abs(entropicMvPerK(p.entropic, z0)) * o.temperatureSigmaK) / 1000;
-	const total = (model_v: number) => Math.sqrt(o.meterSigmaCellV ** 2 + model_v ** 2 + sigmaT ** 2);
-	// σ_model varies with z: widen it to the worst value inside the interval until the interval stops growing
-	let sigmaModel = modelSigmaV(model, z0);
-	let interval = invertPrepared(p, ocvCell, t_c, total(sigmaModel), band);
-	for (let pass = 0; pass < SIGMA_PASSES; pass++) {
-		const worst = worstModelSigmaV(model, interval.soc_low, interval.soc_high);
-		if (worst <= sigmaModel) break;
-		sigmaModel = worst;
-		interval = invertPrepared(p, ocvCell, t_c, total(sigmaModel), band);
-	}
-	const sigma = total(sigmaModel);
-	// an unknown branch adds a uniform spread of ±h (σ = h/√3) to σ_SOC
-	const inv = invertPrepared(p, ocvCell, t_c, Math.hypot(sigma, band.below / Math.sqrt(3)), band);
+	const sigmaV = Math.sqrt(o.meterSigmaCellV ** 2 + modelSigmaV(model) ** 2 + sigmaT ** 2);
+	// with the branch unknown the interval covers both branches
+	const branches = shifts.map((shift) => intervalOnBranch(p, ocvCell, t_c, sigmaV, shift));
+	const interval: SocInterval = {
+		soc_low: Math.min(...branches.map((b) => b.soc_low)),
+		soc_high: Math.max(...branches.map((b) => b.soc_high))
+	};
+	// the estimate: on the known branch, else on the middle curve with a uniform spread of ±h (σ = h/√3)
+	const unknownBranch = shifts.length > 1;
+	const shift = unknownBranch ? 0 : shifts[0];
+	const inv = invertPrepared(p, ocvCell, t_c, Math.hypot(sigmaV, unknownBranch ? h / Math.sqrt(3) : 0), { below: 0, above: 0, shift });
+	const sigmaSoc = modelSigmaSoc(model, inv.soc);
+	// the model's share in V at the estimate, for the budget: σ_SOC × dE/dz
+	const sigmaModelV = sigmaSoc > 0 ? sigmaSoc * p.fn.slope(inv.soc) : modelSigmaV(model);
 	const plateau = inPlateau(model, interval.soc_low, interval.soc_high);
 	const width = o.width ?? model.determinate_width ?? DEFAULT_INDETERMINATE_WIDTH;
 	const determinate = !plateau && interval.soc_high - interval.soc_low <= width;
 	const expected = o.declaredSoc === null ? null : p.fn.value(o.declaredSoc) + entropicShiftV(p.entropic, o.declaredSoc, t_c);
 	return {
 		soc: inv.soc,
-		soc_sigma: inv.soc_sigma,
+		soc_sigma: Math.min(Math.hypot(inv.soc_sigma, sigmaSoc), NO_INFORMATION_SIGMA),
 		soc_low: interval.soc_low,
 		soc_high: interval.soc_high,
 		determinate,
@@ -143,7 +169,7 @@ function evaluatePrepared(p: PreparedModel, reading: ReadingInput, o: ResolvedOp
 		expected_ocv_v: expected,
 		residual_v: expected === null ? null : ocvCell - expected,
 		flags: flagsFor(model, ocvCell, t_c, inv.clamped, determinate),
-		uncertainty: budgetOf(o.meterSigmaCellV, sigmaModel, sigmaT, band.below, plateau)
+		uncertainty: budgetOf(o.meterSigmaCellV, sigmaModelV, sigmaT, unknownBranch ? h : 0, plateau)
 	};
 }
 

@@ -211,7 +211,7 @@ function buildModel(
 	stats: { rmse_v: number; max_error_v: number }
 ): OcvModel {
 	// the library's calibrated error curve belongs to its generic curve; a fitted model carries its own σ
-	const { sigma_model_curve_v: _genericCurve, ...base } = getLibraryModel(input.chemistry);
+	const { sigma_model_soc_curve: _genericCurve, ...base } = getLibraryModel(input.chemistry);
 	const { knots } = prepared;
 	return {
 		...base,

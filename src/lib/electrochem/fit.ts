@@ -161,7 +161,7 @@ function fittedModel(
 	stats: { rmse_v: number; max_error_v: number }
 ): OcvModel {
 	// the library's calibrated error curve belongs to its generic curve, not to a curve fitted to a supplier's cell
-	const { sigma_model_curve_v: _genericCurve, ...base } = getLibraryModel(chemistry);
+	const { sigma_model_soc_curve: _genericCurve, ...base } = getLibraryModel(chemistry);
 	const fn = combinedFunctions(params);
 	return {
 		...base,

@@ -74,10 +74,11 @@ export interface OcvModel {
 	/** Hysteresis/relaxation/cell-to-cell spread the model cannot see, 1σ, V per cell. */
 	sigma_model_v: number;
 	/**
-	 * The same spread as a function of z, piecewise linear, 1σ, V per cell; when present it replaces
-	 * sigma_model_v. Derived from published cells (src/lib/electrochem/calibration).
+	 * The spread of real cells' own SOC around the z this curve reads from the same OCV, 1σ, SOC
+	 * fraction, piecewise linear over the curve's z; when present it replaces sigma_model_v. Derived
+	 * from published cells (src/lib/electrochem/calibration).
 	 */
-	sigma_model_curve_v?: Array<[soc: number, v: number]>;
+	sigma_model_soc_curve?: Array<[soc: number, sigma_soc: number]>;
 	/** A reading is determinate only when its 95 % interval is narrower than this (SOC fraction). */
 	determinate_width?: number;
 	/**

@@ -3,8 +3,9 @@
 // src/lib/electrochem/calibration/published-cells.ts).
 import { describe, expect, it } from 'vitest';
 import { evaluateReading, getLibraryModel, ocvAt } from '../../../src/lib/electrochem';
-import { CALIBRATED_CHEMISTRIES, deriveSigmaCurve } from '../../../src/lib/electrochem/calibration/derive';
-import { PUBLISHED_CELLS, publishedOcv } from '../../../src/lib/electrochem/calibration/published-cells';
+import { CALIBRATED_CHEMISTRIES, deriveSocSigmaCurve } from '../../../src/lib/electrochem/calibration/derive';
+import { PUBLISHED_CELLS, type PublishedCell, publishedOcv } from '../../../src/lib/electrochem/calibration/published-cells';
+import type { OcvModel } from '../../../src/lib/electrochem/types';
 
 const PROBES = Array.from({ length: 81 }, (_, i) => 0.1 + i * 0.01);
 
@@ -15,39 +16,75 @@ function median(xs: number[]): number {
 }
 
 describe('derivation', () => {
-	it.each(CALIBRATED_CHEMISTRIES)('%s: the stored sigma curve is the one derived from the published cells', (code) => {
-		const model = getLibraryModel(code);
-		const cells = PUBLISHED_CELLS.filter((c) => c.chemistry === code);
-		expect(cells.length).toBeGreaterThan(0);
-		expect(model.sigma_model_curve_v).toEqual(deriveSigmaCurve(model, cells));
-	});
+	it.each(CALIBRATED_CHEMISTRIES)(
+		'%s: at least two published cells, and the stored SOC sigma curve is the one derived from them',
+		(code) => {
+			const model = getLibraryModel(code);
+			const cells = PUBLISHED_CELLS.filter((c) => c.chemistry === code);
+			expect(cells.length).toBeGreaterThanOrEqual(2);
+			expect(model.sigma_model_soc_curve).toEqual(deriveSocSigmaCurve(model, cells));
+		}
+	);
 
-	it('the Prada 2013 window puts 0 % at the 2.0 V cut-off and 100 % near the 3.6 V one', () => {
-		// Prada et al., J. Electrochem. Soc. 160 (2013) A616: cut-offs 2.0 and 3.6 V
-		const cell = PUBLISHED_CELLS.find((c) => c.id === 'prada2013-lfp')!;
-		expect(publishedOcv(cell, 0)).toBeCloseTo(2.0, 6);
-		expect(publishedOcv(cell, 1)).toBeGreaterThan(3.55);
-		expect(publishedOcv(cell, 1)).toBeLessThan(3.65);
-	});
+	it.each(PUBLISHED_CELLS.map((c) => [c.id, c] as const))(
+		'%s: 0 %% and 100 %% SOC sit on the cell’s published cut-offs, OCV rising between',
+		(_id, cell) => {
+			// cut-offs as each source states them (named in published-cells.ts)
+			expect(publishedOcv(cell, 0)).toBeCloseTo(cell.cutoffs[0], 6);
+			expect(publishedOcv(cell, 1)).toBeCloseTo(cell.cutoffs[1], 6);
+			const zs = Array.from({ length: 101 }, (_, i) => i / 100);
+			for (let i = 1; i < zs.length; i++) expect(publishedOcv(cell, zs[i])).toBeGreaterThan(publishedOcv(cell, zs[i - 1]));
+		}
+	);
 
-	it('the Chen 2020 window spans the cell’s 2.5–4.2 V range', () => {
-		// Chen et al., J. Electrochem. Soc. 167 (2020) 080534: cut-offs 2.5 and 4.2 V
-		const cell = PUBLISHED_CELLS.find((c) => c.id === 'chen2020-nmc811')!;
-		expect(publishedOcv(cell, 0)).toBeCloseTo(2.5, 1);
-		expect(publishedOcv(cell, 1)).toBeCloseTo(4.2, 1);
+	it.each(PUBLISHED_CELLS.map((c) => [c.id, c] as const))('%s: mid-SOC OCV in the range handbooks give for the chemistry', (_id, cell) => {
+		// 50 % SOC OCV of graphite-anode cells: about 3.6–3.9 V for layered oxides, 3.25–3.35 V for LFP
+		// (common practice; e.g. Linden’s Handbook of Batteries, 4th ed., ch. 26, from memory)
+		const [lo, hi] = cell.chemistry === 'LFP' ? [3.2, 3.35] : [3.6, 3.9];
+		const v = publishedOcv(cell, 0.5);
+		expect(v).toBeGreaterThan(lo);
+		expect(v).toBeLessThan(hi);
 	});
 });
 
+/** The library model with its SOC sigma derived from `cells` only (for leave-one-cell-out). */
+function calibratedOn(model: OcvModel, cells: readonly PublishedCell[]): OcvModel {
+	return { ...model, sigma_model_soc_curve: deriveSocSigmaCurve(model, cells) };
+}
+
+function coverage(model: OcvModel, cell: PublishedCell) {
+	const results = PROBES.map((z) => ({ z, r: evaluateReading(model, { ocv_v: publishedOcv(cell, z), temperature_c: 25 }) }));
+	const inside = results.filter(({ z, r }) => r.soc_low <= z && z <= r.soc_high).length;
+	const medianHalf = median(results.map(({ r }) => (r.soc_high - r.soc_low) / 2));
+	return { results, share: inside / results.length, inside, medianHalf };
+}
+
 describe('coverage on published curves (10–90 % SOC, 25 °C, branch unknown)', () => {
 	it.each(PUBLISHED_CELLS.map((c) => [c.id, c] as const))('%s: the 95 %% interval holds the true SOC in ≥ 90 %% of probes', (_id, cell) => {
-		const model = getLibraryModel(cell.chemistry);
-		const results = PROBES.map((z) => ({ z, r: evaluateReading(model, { ocv_v: publishedOcv(cell, z), temperature_c: 25 }) }));
-		const inside = results.filter(({ z, r }) => r.soc_low <= z && z <= r.soc_high).length;
-		const halfWidths = results.map(({ r }) => (r.soc_high - r.soc_low) / 2);
-		console.log(`${cell.id}: coverage ${inside}/${results.length}, median half-width ${(median(halfWidths) * 100).toFixed(1)} SOC points`);
-		expect(inside / results.length).toBeGreaterThanOrEqual(0.9);
+		const { results, share, inside, medianHalf } = coverage(getLibraryModel(cell.chemistry), cell);
+		console.log(`${cell.id}: coverage ${inside}/${results.length}, median half-width ${(medianHalf * 100).toFixed(1)} SOC points`);
+		expect(share).toBeGreaterThanOrEqual(0.9);
 		// a determinate reading must be right: its interval holds the truth
 		for (const { z, r } of results) if (r.determinate) expect(z >= r.soc_low && z <= r.soc_high).toBe(true);
+	});
+
+	it.each(PUBLISHED_CELLS.map((c) => [c.id, c] as const))('%s, left out of the derivation: coverage is reported', (_id, cell) => {
+		// with two cells per chemistry the σ then comes from ONE other cell: a weak test of the method, reported, not asserted
+		const others = PUBLISHED_CELLS.filter((c) => c.chemistry === cell.chemistry && c.id !== cell.id);
+		const { results, inside, medianHalf } = coverage(calibratedOn(getLibraryModel(cell.chemistry), others), cell);
+		console.log(
+			`${cell.id} (left out): coverage ${inside}/${results.length}, median half-width ${(medianHalf * 100).toFixed(1)} SOC points`
+		);
+		expect(results.length).toBe(PROBES.length);
+	});
+
+	it('a mid-SOC NMC reading gets a bounded interval, not 0–100 %', () => {
+		// 3.627 V on the generic NMC curve is about 38 % SOC
+		const r = evaluateReading(getLibraryModel('NMC'), { ocv_v: 3.627, temperature_c: 25 });
+		expect(r.soc_low).toBeGreaterThan(0.1);
+		expect(r.soc_high).toBeLessThan(0.7);
+		expect(r.soc_low).toBeLessThan(r.soc);
+		expect(r.soc_high).toBeGreaterThan(r.soc);
 	});
 });
 

@@ -31,6 +31,21 @@ export const LCO = liIon({
 	min_safe_v: 2.5,
 	max_v: 4.25,
 	sigma_model_v: 0.005,
+	// 1σ spread of real cells' own SOC around this curve's reading, SOC fraction; derived from published cells
+	// (calibration/; npx tsx scripts/derive-ocv-sigma.ts): replaces sigma_model_v
+	sigma_model_soc_curve: [
+		[0, 0.013],
+		[0.1, 0.035],
+		[0.2, 0.131],
+		[0.3, 0.163],
+		[0.4, 0.189],
+		[0.5, 0.182],
+		[0.6, 0.173],
+		[0.7, 0.153],
+		[0.8, 0.103],
+		[0.9, 0.056],
+		[1, 0.018]
+	],
 	entropic_mv_per_k: [
 		[0, -0.2],
 		[0.3, -0.1],
@@ -51,19 +66,20 @@ export const NMC = liIon({
 	min_safe_v: 2.5,
 	max_v: 4.25,
 	sigma_model_v: 0.005,
-	// derived from published cells (calibration/; scripts/derive-ocv-sigma.ts): replaces the 5 mV above
-	sigma_model_curve_v: [
-		[0, 0.47],
-		[0.1, 0.26],
-		[0.2, 0.108],
-		[0.3, 0.05],
-		[0.4, 0.008],
-		[0.5, 0.023],
-		[0.6, 0.059],
-		[0.7, 0.1],
-		[0.8, 0.118],
-		[0.9, 0.09],
-		[1, 0.025]
+	// 1σ spread of real cells' own SOC around this curve's reading, SOC fraction; derived from published cells
+	// (calibration/; npx tsx scripts/derive-ocv-sigma.ts): replaces sigma_model_v
+	sigma_model_soc_curve: [
+		[0, 0.054],
+		[0.1, 0.109],
+		[0.2, 0.081],
+		[0.3, 0.073],
+		[0.4, 0.073],
+		[0.5, 0.044],
+		[0.6, 0.053],
+		[0.7, 0.081],
+		[0.8, 0.098],
+		[0.9, 0.095],
+		[1, 0.037]
 	],
 	entropic_mv_per_k: [
 		[0, -0.4],
@@ -86,6 +102,21 @@ export const NCA = liIon({
 	min_safe_v: 2.5,
 	max_v: 4.25,
 	sigma_model_v: 0.005,
+	// 1σ spread of real cells' own SOC around this curve's reading, SOC fraction; derived from published cells
+	// (calibration/; npx tsx scripts/derive-ocv-sigma.ts): replaces sigma_model_v
+	sigma_model_soc_curve: [
+		[0, 0.039],
+		[0.1, 0.12],
+		[0.2, 0.102],
+		[0.3, 0.076],
+		[0.4, 0.106],
+		[0.5, 0.154],
+		[0.6, 0.194],
+		[0.7, 0.194],
+		[0.8, 0.134],
+		[0.9, 0.087],
+		[1, 0.029]
+	],
 	entropic_mv_per_k: [
 		[0, -0.3],
 		[0.3, -0.15],
@@ -125,20 +156,6 @@ export const LFP = liIon({
 	max_v: 3.65,
 	// hysteresis between charge and discharge branches is tens of mV on the plateau
 	sigma_model_v: 0.012,
-	// derived from published cells (calibration/; scripts/derive-ocv-sigma.ts): replaces the 12 mV above
-	sigma_model_curve_v: [
-		[0, 0.522],
-		[0.1, 0.253],
-		[0.2, 0.106],
-		[0.3, 0.08],
-		[0.4, 0.047],
-		[0.5, 0.035],
-		[0.6, 0.035],
-		[0.7, 0.03],
-		[0.8, 0.008],
-		[0.9, 0.026],
-		[1, 0.034]
-	],
 	// charge branch = curve + h, discharge branch = curve − h: a gap of about 20–30 mV on the two-phase
 	// plateau, less at the ends (e.g. Dreyer et al., Nature Materials 9 (2010) 448; from memory)
 	hysteresis_half_v: [
@@ -150,6 +167,21 @@ export const LFP = liIon({
 	],
 	// the flat two-phase region of the published LFP cell (Prada 2013, calibration/): about 20–90 % SOC
 	plateau: [0.2, 0.9],
+	// 1σ spread of real cells' own SOC around this curve's reading, SOC fraction; derived from published cells
+	// (calibration/; npx tsx scripts/derive-ocv-sigma.ts): replaces sigma_model_v
+	sigma_model_soc_curve: [
+		[0, 0.078],
+		[0.1, 0.18],
+		[0.2, 0.279],
+		[0.3, 0.32],
+		[0.4, 0.261],
+		[0.5, 0.229],
+		[0.6, 0.152],
+		[0.7, 0.07],
+		[0.8, 0.07],
+		[0.9, 0.076],
+		[1, 0.013]
+	],
 	entropic_mv_per_k: [
 		[0, -0.1],
 		[0.2, -0.05],

@@ -1,7 +1,7 @@
 // Per-row feedback computed in the browser with the same electrochemistry core the server uses.
 // The server's evaluation stays authoritative; this is the inspector's instant check.
 import { evaluateReading, type OcvModel } from '$lib/electrochem';
-import { percent, percentRange, signedMillivolts, socSigma, volts } from '$lib/format';
+import { formatSocInterval, percent, signedMillivolts, volts } from '$lib/format';
 import type { PartLimits } from '$lib/inspection';
 import { socStanding } from '$lib/inspection/dangerous-goods';
 import { VERDICT, type Look } from '$lib/status';
@@ -80,9 +80,7 @@ export function feedbackFor(ctx: BenchContext, ocvV: number, temperatureC: numbe
 			? 'below range'
 			: r.flags.includes('above_window')
 				? 'above range'
-				: r.determinate
-					? socSigma(r.soc, r.soc_sigma)
-					: `${VERDICT.indeterminate.word.toLowerCase()} ${percentRange(r.soc_low, r.soc_high)}`,
+				: formatSocInterval(r),
 		expectedText: r.expected_ocv_v === null ? '—' : volts(r.expected_ocv_v * ctx.cellsInSeries, ctx.cellsInSeries > 1 ? 2 : 3),
 		residualText: signedMillivolts(r.residual_v),
 		findings,
