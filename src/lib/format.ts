@@ -133,7 +133,13 @@ export function timeOnly(value: Instant): string {
 	return date ? `${date.toISOString().slice(11, 16)} UTC` : MISSING;
 }
 
-/** An evaluated reading's SOC as an interval, e.g. "31 % (22–40 %)": the estimate and its 95 % bounds. */
-export function formatSocInterval(r: { soc: Maybe; soc_low: Maybe; soc_high: Maybe }, decimals = 0): string {
+/**
+ * An evaluated reading's SOC as an interval, e.g. "31 % (22–40 %)": the estimate and its 95 % bounds.
+ * When the interval is too wide to place the cell (determinate false) the estimate is left out and the
+ * text says so: "indeterminate 5–80 %".
+ */
+export function formatSocInterval(r: { soc: Maybe; soc_low: Maybe; soc_high: Maybe; determinate?: boolean | null }, decimals = 0): string {
+	if (r.determinate === false && known(r.soc_low) && known(r.soc_high))
+		return `indeterminate ${percentRange(r.soc_low, r.soc_high, decimals)}`;
 	return socInterval(r.soc, r.soc_low, r.soc_high, decimals);
 }

@@ -8,6 +8,7 @@ import {
 	dateTime,
 	fileSize,
 	fixed,
+	formatSocInterval,
 	megabytes,
 	millivolts,
 	milliohms,
@@ -72,6 +73,13 @@ describe('numbers with units', () => {
 		expect(plain(socInterval(0.31, null, 0.4))).toBe('31 %');
 		expect(plain(socSigma(0.312, 0.041))).toBe('31 % ± 4 %');
 		expect(plain(socSigma(0.312, 0.041, 1))).toBe('31.2 % ± 4.1 %');
+	});
+
+	it('writes an evaluated reading as its interval, and an indeterminate one in words without a falsely precise estimate', () => {
+		expect(plain(formatSocInterval({ soc: 0.38, soc_low: 0.31, soc_high: 0.45, determinate: true }))).toBe('38 % (31–45 %)');
+		expect(plain(formatSocInterval({ soc: 0.38, soc_low: 0.31, soc_high: 0.45 }))).toBe('38 % (31–45 %)');
+		expect(plain(formatSocInterval({ soc: 0.5, soc_low: 0.05, soc_high: 0.8, determinate: false }))).toBe('indeterminate 5–80 %');
+		expect(formatSocInterval({ soc: null, soc_low: null, soc_high: null, determinate: false })).toBe(MISSING);
 	});
 
 	it('keeps the number and its unit together with a no-break space', () => {

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { renderInspectionReport } from '../../../src/lib/server/reports/pdf';
+import { formatSocInterval } from '../../../src/lib/format';
 import { makeReport } from './fixtures';
 import { pdfFonts, pdfInfo, pdfText, writeTemp } from './poppler';
 
@@ -24,7 +25,10 @@ describe('renderInspectionReport', () => {
 		expect(text).toContain(data.lot.lot_code);
 		expect(text).toContain('REJECT');
 		expect(text).toContain('SAFETY');
-		expect(text).toContain('SOC % ± σ');
+		expect(text).toContain('SOC (95 % interval)');
+		// each reading's SOC is its interval, e.g. "38 % (31–45 %)", never "x ± σ"
+		const spaced = (t: string) => t.replaceAll('\u00a0', ' ').replace(/\s+/g, ' ');
+		for (const unit of data.units.slice(0, 5)) expect(spaced(text)).toContain(spaced(formatSocInterval(unit)));
 		expect(text).toMatch(/no more than 30 % SOC/);
 		expect(text).toContain('Sampling plan (ISO 2859-1:1999)');
 	});

@@ -3,6 +3,7 @@ import { describe, expect, it } from 'vitest';
 import { filterNote, lotListXlsx, lotReadingsXlsx, type LotListRow } from '../../../src/lib/server/reports/xlsx';
 import type { LotStatus } from '$lib/schemas/lot';
 import { LOT_STATUS } from '$lib/status';
+import { formatSocInterval } from '$lib/format';
 import { makeReport } from './fixtures';
 import { readZipSheets } from './xlsx-zip';
 
@@ -15,12 +16,15 @@ describe('lotReadingsXlsx', () => {
 		const sheet = workbook.sheet('Readings')!;
 		expect(sheet.cell('B1').value()).toBe('serial');
 		expect(sheet.cell('C1').value()).toBe('OCV (V)');
+		const intervalColumn = Array.from({ length: 40 }, (_, i) => i + 1).find((c) => sheet.cell(1, c).value() === 'SOC, 95 % interval');
+		expect(intervalColumn).toBeDefined();
 		data.units.forEach((unit, i) => {
 			const row = i + 2;
 			expect(sheet.cell(row, 1).value()).toBe(i + 1);
 			expect(sheet.cell(row, 2).value()).toBe(unit.serial);
 			expect(sheet.cell(row, 3).value()).toBeCloseTo(unit.ocv_v, 12);
 			expect(sheet.cell(row, 8).value()).toBeCloseTo(unit.soc * 100, 9);
+			expect(sheet.cell(row, intervalColumn!).value()).toBe(formatSocInterval(unit));
 		});
 		expect(sheet.cell(data.units.length + 2, 2).value()).toBeUndefined();
 	});

@@ -1,18 +1,15 @@
 import type { PDFPage } from 'pdf-lib';
 import { paragraph } from './blocks';
-import { fixed, MISSING } from '$lib/format';
-import { VERDICT } from '$lib/status';
+import { fixed, formatSocInterval, MISSING } from '$lib/format';
 import type { Cursor } from './layout';
 import { palette } from './palette';
 import { cross } from './shapes';
 import { drawTable, type Column } from './table';
 import type { ReportUnit } from './types';
 
-/** SOC with its 1σ spread, or the plausible range when the OCV curve is too flat to decide. */
+/** SOC with its 95 % interval ("38 % (31–45 %)"), or in words when the interval cannot place the cell. */
 function socCell(unit: ReportUnit): string {
-	if (!unit.determinate)
-		return `${VERDICT.indeterminate.word.toLowerCase()} ${fixed(unit.soc_low * 100, 0)}–${fixed(unit.soc_high * 100, 0)}`;
-	return `${fixed(unit.soc * 100, 1)} ± ${fixed(unit.soc_sigma * 100, 1)}`;
+	return formatSocInterval(unit);
 }
 
 function flagsCell(unit: ReportUnit): string {
@@ -27,10 +24,10 @@ const COLUMNS: Column<ReportUnit>[] = [
 	{ title: 'OCV V', weight: 8, align: 'right', cell: (u) => fixed(u.ocv_v, 3) },
 	{ title: 'T °C', weight: 6, align: 'right', cell: (u) => fixed(u.temperature_c, 1) },
 	{ title: 'cell V @25 °C', weight: 10.5, align: 'right', cell: (u) => fixed(u.ocv_at_25c_v, 4) },
-	{ title: 'SOC % ± σ', weight: 13, align: 'right', cell: socCell },
+	{ title: 'SOC (95 % interval)', weight: 15.5, align: 'right', cell: socCell },
 	{ title: 'expected V', weight: 8.5, align: 'right', cell: (u) => fixed(u.expected_ocv_v, 4) },
 	{ title: 'residual mV', weight: 9, align: 'right', cell: (u) => fixed(u.residual_v === null ? null : u.residual_v * 1000, 1) },
-	{ title: 'flags', weight: 22.5, align: 'left', cell: flagsCell }
+	{ title: 'flags', weight: 20, align: 'left', cell: flagsCell }
 ];
 
 /** Packs with cell-group voltages: their lowest–highest group, taken out of the flags column's width. */

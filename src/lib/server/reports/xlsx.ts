@@ -1,7 +1,7 @@
 import XlsxPopulate from 'xlsx-populate';
 import type { Sheet } from 'xlsx-populate';
 import { DECISION_KIND, INSPECTION_SEVERITY, LOT_STATUS, REASON_SEVERITY, TRANSPORT, VERDICT, wordOf } from '$lib/status';
-import { dateTime } from '$lib/format';
+import { dateTime, formatSocInterval } from '$lib/format';
 import { xlsxColour } from './palette';
 import type { ReportData, ReportUnit } from './types';
 
@@ -45,7 +45,9 @@ const READING_COLUMNS: Array<{ title: string; width: number; format?: string; va
 	{ title: 'lowest cell group (V)', width: 19, format: '0.000', value: (u) => u.cell_group_min_v ?? null },
 	{ title: 'highest cell group (V)', width: 20, format: '0.000', value: (u) => u.cell_group_max_v ?? null },
 	{ title: 'nonconforming', width: 14, value: (u) => (u.nonconforming ? 'yes' : 'no') },
-	{ title: 'flags', width: 36, value: (u) => u.flags.join('; ') }
+	{ title: 'flags', width: 36, value: (u) => u.flags.join('; ') },
+	// the same text as the report and the lot page, e.g. "38 % (31–45 %)" or "indeterminate 5–80 %"
+	{ title: 'SOC, 95 % interval', width: 22, value: (u) => formatSocInterval(u) }
 ];
 
 /** Writes a header row and data rows from row `firstRow`; null stays an empty cell. */
