@@ -3,13 +3,14 @@
 // here when older than the sources; RESTVOLT_BUILD_DIR chooses the folder, default build/), then
 // the benchmark itself (tests/bench/run.ts, run with tsx). Stops everything and removes the scratch
 // folder at the end. Not part of `npm test`: no test asserts a time.
-import { chmodSync, existsSync, mkdtempSync, readdirSync, rmSync, statSync } from 'node:fs';
+import { chmodSync, existsSync, mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ensurePostgres } from './lib/pg.mjs';
 import { ownedDatabase } from './lib/roles.mjs';
 import { migrateDatabase } from './lib/migrate.mjs';
+import { ensureBuild } from './lib/build.mjs';
 import { freePort, runInherit } from './lib/proc.mjs';
 import { cpuPlan, pinPostgres } from './lib/cpus.mjs';
 
@@ -17,27 +18,10 @@ const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
 process.chdir(root);
 const buildDir = process.env.RESTVOLT_BUILD_DIR ?? 'build';
 
-function newestMtime(path) {
-	const st = statSync(path);
-	if (!st.isDirectory()) return st.mtimeMs;
-	return readdirSync(path).reduce((max, name) => Math.max(max, newestMtime(join(path, name))), st.mtimeMs);
-}
-
-/** scripts/lib/build.mjs's freshness rule, for any output folder (its ensureBuild knows only build/). */
+/** Build into `dir` when it is older than the sources, unless BENCH_SKIP_BUILD=1 asks to measure the build as it is. */
 async function ensureBuildIn(dir) {
-	if (process.env.BENCH_SKIP_BUILD === '1' && existsSync(join(root, dir, 'handler.js'))) return; // measure the build as it is
-	const handler = join(root, dir, 'handler.js');
-	const inputs = ['src', 'static', 'svelte.config.js', 'vite.config.ts', 'package-lock.json'];
-	const sourcesTime = Math.max(
-		...inputs
-			.map((p) => join(root, p))
-			.filter(existsSync)
-			.map(newestMtime)
-	);
-	if (existsSync(handler) && statSync(handler).mtimeMs > sourcesTime) return;
-	console.log(`[bench] building the app into ${dir}/ (vite build)…`);
-	const code = await runInherit('npx', ['vite', 'build', '--logLevel', 'error'], { cwd: root });
-	if (code !== 0) throw new Error('vite build failed');
+	if (process.env.BENCH_SKIP_BUILD === '1' && existsSync(join(root, dir, 'handler.js'))) return;
+	await ensureBuild(root, { dir, log: console.log });
 }
 
 // Ctrl-C reaches the benchmark too; wait for it to end so the cleanup below still runs.

@@ -96,5 +96,3 @@ export class TooLarge extends DomainError {
 		super('too_large', code, message, issues);
 	}
 }
-
-export const isDomainError = (error: unknown): error is DomainError => error instanceof DomainError;

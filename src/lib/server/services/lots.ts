@@ -102,6 +102,23 @@ export interface CreateLotOptions {
 	ip?: string | null;
 }
 
+/** The lot's purchase facts as columns: what registration writes and editing (before the bench) may change. */
+function purchaseColumns(input: LotInput) {
+	return {
+		poNumber: input.poNumber,
+		supplierId: input.supplierId,
+		partId: input.partId,
+		quantity: input.quantity,
+		declaredSoc: input.declaredSoc,
+		transport: input.transport,
+		lastDirection: input.lastDirection,
+		packing: input.packing,
+		unNumber: input.unNumber,
+		expectedArrival: input.expectedArrival,
+		resubmitted: input.resubmitted
+	};
+}
+
 export async function createLot(db: Database, actor: SessionUser, input: LotInput, opts: CreateLotOptions): Promise<LotRow> {
 	return db.transaction(async (tx) => {
 		await checkReferences(tx, input);
@@ -111,17 +128,7 @@ export async function createLot(db: Database, actor: SessionUser, input: LotInpu
 			.insert(lots)
 			.values({
 				lotCode: await nextLotCode(tx, now),
-				poNumber: input.poNumber,
-				supplierId: input.supplierId,
-				partId: input.partId,
-				quantity: input.quantity,
-				declaredSoc: input.declaredSoc,
-				transport: input.transport,
-				lastDirection: input.lastDirection,
-				packing: input.packing,
-				unNumber: input.unNumber,
-				expectedArrival: input.expectedArrival,
-				resubmitted: input.resubmitted,
+				...purchaseColumns(input),
 				status: opts.status,
 				severity,
 				createdBy: actor.id
@@ -264,17 +271,7 @@ export async function updateLot(db: Database, actor: SessionUser, lotId: string,
 		const [row] = await tx
 			.update(lots)
 			.set({
-				poNumber: input.poNumber,
-				supplierId: input.supplierId,
-				partId: input.partId,
-				quantity: input.quantity,
-				declaredSoc: input.declaredSoc,
-				transport: input.transport,
-				lastDirection: input.lastDirection,
-				packing: input.packing,
-				unNumber: input.unNumber,
-				expectedArrival: input.expectedArrival,
-				resubmitted: input.resubmitted,
+				...purchaseColumns(input),
 				updatedAt: new Date()
 			})
 			.where(and(eq(lots.id, lotId), inArray(lots.status, [...BEFORE_INSPECTION])))

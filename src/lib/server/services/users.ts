@@ -8,13 +8,19 @@ import { organisations, supplierContacts, users } from '../db/schema';
 import { recordAudit } from './audit';
 import { revokeAllAccess } from './sessions';
 import type { Role, SessionUser } from '../../roles';
+import { Invalid } from '../errors';
 
 export interface Actor {
 	id: string;
 	email: string;
 }
 
-export class UserRuleError extends Error {}
+/** A rule about people or organisations that the request breaks (one's own role, a taken address…). */
+export class UserRuleError extends Invalid {
+	constructor(message: string) {
+		super(message, undefined, 'user_rule');
+	}
+}
 
 type UserRow = typeof users.$inferSelect;
 

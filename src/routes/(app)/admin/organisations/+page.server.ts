@@ -4,7 +4,8 @@ import { zod4 } from 'sveltekit-superforms/adapters';
 import { z } from 'zod';
 import { text } from '$lib/schemas/fields';
 import { can } from '$lib/server/policy';
-import { createSupplierOrganisation, listOrganisations, UserRuleError, type Actor } from '$lib/server/services/users';
+import { createSupplierOrganisation, listOrganisations, type Actor } from '$lib/server/services/users';
+import { refusalOf } from '$lib/server/action-errors';
 import type { Actions, PageServerLoad } from './$types';
 
 const newSupplier = z.object({
@@ -31,8 +32,8 @@ export const actions: Actions = {
 			const org = await createSupplierOrganisation(actor, form.data);
 			return message(form, `Added ${org.name}. Invite its people on the People page.`);
 		} catch (e) {
-			if (e instanceof UserRuleError) return message(form, e.message, { status: 400 });
-			throw e;
+			const refusal = refusalOf(e);
+			return message(form, refusal.message, { status: refusal.status as 400 });
 		}
 	}
 };

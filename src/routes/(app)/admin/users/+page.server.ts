@@ -2,6 +2,7 @@ import { error, fail } from '@sveltejs/kit';
 import { message, superValidate } from 'sveltekit-superforms';
 import { zod4 } from 'sveltekit-superforms/adapters';
 import { can } from '$lib/server/policy';
+import { refusalOf } from '$lib/server/action-errors';
 import { sendInvitation } from '$lib/server/services/sign-in';
 import { peopleWithSecondFactor, removeSecondFactor } from '$lib/server/services/second-factor';
 import { clientAddress } from '$lib/server/auth';
@@ -42,8 +43,8 @@ async function rowAction<T>(event: RequestEvent, parse: (fd: FormData) => T, run
 	try {
 		await run(actor, input);
 	} catch (e) {
-		if (e instanceof UserRuleError) return fail(400, { rowError: e.message });
-		throw e;
+		const refusal = refusalOf(e);
+		return fail(refusal.status, { rowError: refusal.message });
 	}
 	return { rowDone: true };
 }
@@ -68,8 +69,8 @@ export const actions: Actions = {
 				`Invited ${person.email}. ${person.role === 'supplier' ? 'They sign in with an e-mailed link.' : 'They received a link to choose a password.'}`
 			);
 		} catch (e) {
-			if (e instanceof UserRuleError) return message(form, e.message, { status: 400 });
-			throw e;
+			const refusal = refusalOf(e);
+			return message(form, refusal.message, { status: refusal.status as 400 });
 		}
 	},
 	role: (event) =>
