@@ -69,4 +69,4 @@ export {
 	type PartFit,
 	type PartFitInput
 } from './fit-part';
-export { validateModel } from './validate';
+export { checkModel, validateModel } from './validate';

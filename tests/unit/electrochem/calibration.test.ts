@@ -4,7 +4,12 @@
 import { describe, expect, it } from 'vitest';
 import { evaluateReading, getLibraryModel, ocvAt } from '../../../src/lib/electrochem';
 import { CALIBRATED_CHEMISTRIES, deriveSocSigmaCurve } from '../../../src/lib/electrochem/calibration/derive';
-import { PUBLISHED_CELLS, type PublishedCell, publishedOcv } from '../../../src/lib/electrochem/calibration/published-cells';
+import {
+	PUBLISHED_CELLS,
+	type PublishedCell,
+	publishedCurve,
+	publishedOcv
+} from '../../../src/lib/electrochem/calibration/published-cells';
 import type { OcvModel } from '../../../src/lib/electrochem/types';
 
 const PROBES = Array.from({ length: 81 }, (_, i) => 0.1 + i * 0.01);
@@ -47,13 +52,9 @@ describe('derivation', () => {
 	});
 });
 
-/** The library model with its SOC sigma derived from `cells` only (for leave-one-cell-out). */
-function calibratedOn(model: OcvModel, cells: readonly PublishedCell[]): OcvModel {
-	return { ...model, sigma_model_soc_curve: deriveSocSigmaCurve(model, cells) };
-}
-
 function coverage(model: OcvModel, cell: PublishedCell) {
-	const results = PROBES.map((z) => ({ z, r: evaluateReading(model, { ocv_v: publishedOcv(cell, z), temperature_c: 25 }) }));
+	const ocv = publishedCurve(cell);
+	const results = PROBES.map((z) => ({ z, r: evaluateReading(model, { ocv_v: ocv(z), temperature_c: 25 }) }));
 	const inside = results.filter(({ z, r }) => r.soc_low <= z && z <= r.soc_high).length;
 	const medianHalf = median(results.map(({ r }) => (r.soc_high - r.soc_low) / 2));
 	return { results, share: inside / results.length, inside, medianHalf };
@@ -66,16 +67,6 @@ describe('coverage on published curves (10–90 % SOC, 25 °C, branch unknown)',
 		expect(share).toBeGreaterThanOrEqual(0.9);
 		// a determinate reading must be right: its interval holds the truth
 		for (const { z, r } of results) if (r.determinate) expect(z >= r.soc_low && z <= r.soc_high).toBe(true);
-	});
-
-	it.each(PUBLISHED_CELLS.map((c) => [c.id, c] as const))('%s, left out of the derivation: coverage is reported', (_id, cell) => {
-		// with two cells per chemistry the σ then comes from ONE other cell: a weak test of the method, reported, not asserted
-		const others = PUBLISHED_CELLS.filter((c) => c.chemistry === cell.chemistry && c.id !== cell.id);
-		const { results, inside, medianHalf } = coverage(calibratedOn(getLibraryModel(cell.chemistry), others), cell);
-		console.log(
-			`${cell.id} (left out): coverage ${inside}/${results.length}, median half-width ${(medianHalf * 100).toFixed(1)} SOC points`
-		);
-		expect(results.length).toBe(PROBES.length);
 	});
 
 	it('a mid-SOC NMC reading gets a bounded interval, not 0–100 %', () => {

@@ -11,7 +11,7 @@
 // Recomputed by tests/unit/electrochem/calibration.test.ts against the numbers stored in the models.
 import { formFunctions } from '../forms';
 import type { OcvModel } from '../types';
-import { type CalibratedChemistry, type PublishedCell, publishedOcv } from './published-cells';
+import { type CalibratedChemistry, type PublishedCell, publishedCurve } from './published-cells';
 
 /** Chemistries whose library model carries a derived sigma_model_soc_curve. */
 export const CALIBRATED_CHEMISTRIES: readonly CalibratedChemistry[] = ['NMC', 'LCO', 'NCA', 'LFP'];
@@ -22,34 +22,35 @@ const SAMPLES = 11;
 /** One SOC point: published curves are read from plots and fits no better than that (from memory, not derived). */
 export const SIGMA_SOC_FLOOR = 0.01;
 
-/** The cell's own SOC where its OCV equals volts (bisection; clamps to 0 or 1 outside its window). */
-export function cellSocAt(cell: PublishedCell, volts: number): number {
-	if (volts <= publishedOcv(cell, 0)) return 0;
-	if (volts >= publishedOcv(cell, 1)) return 1;
+/** The SOC where a rising curve over [0, 1] equals volts (bisection; clamps to 0 or 1 outside it). */
+export function socAt(curve: (z: number) => number, volts: number): number {
+	if (volts <= curve(0)) return 0;
+	if (volts >= curve(1)) return 1;
 	let lo = 0;
 	let hi = 1;
 	for (let i = 0; i < 60; i++) {
 		const mid = (lo + hi) / 2;
-		if (publishedOcv(cell, mid) < volts) lo = mid;
+		if (curve(mid) < volts) lo = mid;
 		else hi = mid;
 	}
 	return (lo + hi) / 2;
 }
 
 /** (cell SOC − library z) at the OCV the library curve gives for each sample around node. */
-function socDifferences(model: OcvModel, cells: readonly PublishedCell[], node: number): number[] {
+function socDifferences(model: OcvModel, cells: ReadonlyArray<(z: number) => number>, node: number): number[] {
 	const value = formFunctions(model).value;
 	const out: number[] = [];
 	for (let i = 0; i < SAMPLES; i++) {
 		const z = Math.min(1, Math.max(0, node - HALF_BAND + (2 * HALF_BAND * i) / (SAMPLES - 1)));
-		for (const cell of cells) out.push(cellSocAt(cell, value(z)) - z);
+		for (const cell of cells) out.push(socAt(cell, value(z)) - z);
 	}
 	return out;
 }
 
 export function deriveSocSigmaCurve(model: OcvModel, cells: readonly PublishedCell[]): Array<[number, number]> {
+	const curves = cells.map(publishedCurve);
 	return SIGMA_NODES.map((node) => {
-		const d = socDifferences(model, cells, node);
+		const d = socDifferences(model, curves, node);
 		const rms = Math.sqrt(d.reduce((s, x) => s + x * x, 0) / d.length);
 		return [node, Math.ceil(Math.max(SIGMA_SOC_FLOOR, rms) * 1000) / 1000];
 	});

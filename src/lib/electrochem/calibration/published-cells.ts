@@ -333,7 +333,13 @@ export function ocvInWindow(cell: PublishedCell, w: ElectrodeWindow, z: number):
 	return cell.uPos(w.y0 + z * (w.y100 - w.y0)) - cell.uNeg(w.x0 + z * (w.x100 - w.x0));
 }
 
+/** The cell's OCV over its own (published) SOC, the window worked out once. */
+export function publishedCurve(cell: PublishedCell): (z: number) => number {
+	const w = publishedWindow(cell);
+	return (z) => ocvInWindow(cell, w, z);
+}
+
 /** OCV at the cell's own (published) SOC z. */
 export function publishedOcv(cell: PublishedCell, z: number): number {
-	return ocvInWindow(cell, publishedWindow(cell), z);
+	return publishedCurve(cell)(z);
 }

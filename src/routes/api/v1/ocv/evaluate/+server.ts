@@ -2,7 +2,7 @@
 // version by model_id) → SOC with interval, expected OCV, residual and flags per reading.
 // Validation is split: zod for the small header, a plain loop for the (up to 10,000) readings.
 import { json } from '@sveltejs/kit';
-import { ElectrochemError, evaluateReadings, getLibraryModel, validateModel, type OcvModel, type ReadingInput } from '$lib/electrochem';
+import { checkModel, ElectrochemError, evaluateReadings, getLibraryModel, type OcvModel, type ReadingInput } from '$lib/electrochem';
 import { getModelVersion } from '$lib/server/services/models';
 import { TooLarge } from '$lib/server/errors';
 import { api, authorize, notFound, parseWith, readJsonValue, unprocessable } from '$lib/server/http';
@@ -32,10 +32,10 @@ async function modelOf(event: Parameters<RequestHandler>[0], header: Header): Pr
 	}
 	if (header.chemistry) return getLibraryModel(header.chemistry);
 	if (header.model) {
-		const model = validateModel(header.model);
-		if (!model)
-			throw unprocessable('The model is not a valid OCV model', [{ path: 'model', message: 'not a valid, increasing OCV model' }]);
-		return model;
+		const checked = checkModel(header.model);
+		if (!checked.ok)
+			throw unprocessable('The model is not a valid OCV model', [{ path: `model.${checked.error.field}`, message: checked.error.message }]);
+		return checked.value;
 	}
 	authorize(event, 'model:read');
 	const stored = await getModelVersion(header.model_id!);
