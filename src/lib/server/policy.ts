@@ -104,6 +104,10 @@ export interface Resource {
 	supplierId?: string | null;
 }
 
+/** What a supplier's request is limited to: their own organisation. Staff: nothing, the role decides. */
+export const ownOrganisation = (user: SessionUser | null | undefined): Resource | undefined =>
+	user?.role === 'supplier' ? { supplierId: user.organisationId } : undefined;
+
 export function can(user: SessionUser | null, action: Action, resource?: Resource): boolean {
 	if (!user) return false;
 	if (SELF_ACTIONS.includes(action)) return true;

@@ -4,7 +4,7 @@
 import type { RequestEvent } from '@sveltejs/kit';
 import { getDb } from './db';
 import { authorize } from './http';
-import type { Action, SessionUser } from './policy';
+import { ownOrganisation, type Action, type SessionUser } from './policy';
 import { lotForAction } from './services/portal';
 import type { LotView } from './services/lots';
 
@@ -14,7 +14,6 @@ export async function requireLot(
 	lotId: string,
 	action: Action
 ): Promise<{ user: SessionUser; lot: LotView }> {
-	const me = event.locals.user;
-	const user = authorize(event, action, me?.role === 'supplier' ? { supplierId: me.organisationId } : undefined);
+	const user = authorize(event, action, ownOrganisation(event.locals.user));
 	return { user, lot: await lotForAction(getDb(), user, lotId, action) };
 }

@@ -1,5 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { api, authorize, readJson, readQuery } from '$lib/server/http';
+import { ownOrganisation } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
 import { createLot, getLotForUser, listLots, lotJson } from '$lib/server/services/lots';
 import { lotApiSchema, lotInputFromApi, lotListQuerySchema } from '$lib/schemas/lot';
@@ -10,7 +11,7 @@ import type { RequestHandler } from './$types';
 export const GET: RequestHandler = api(async (event) => {
 	const user = event.locals.user;
 	// Suppliers read only their own organisation's lots; the service filters them too.
-	authorize(event, 'lot:read', user?.role === 'supplier' ? { supplierId: user.organisationId } : undefined);
+	authorize(event, 'lot:read', ownOrganisation(user));
 	const query = readQuery(event.url, lotListQuerySchema);
 	const page = await listLots(getDb(), user!, {
 		status: query.status,

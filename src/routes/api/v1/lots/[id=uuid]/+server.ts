@@ -1,5 +1,6 @@
 import { json } from '@sveltejs/kit';
 import { api, authorize, notFound } from '$lib/server/http';
+import { ownOrganisation } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
 import { getLotForUser, lotJson } from '$lib/server/services/lots';
 import { listDocuments, documentJson, missingDocuments } from '$lib/server/services/documents';
@@ -8,11 +9,7 @@ import type { RequestHandler } from './$types';
 
 /** GET /api/v1/lots/{id} — the lot with its documents; another supplier's lot is 404. */
 export const GET: RequestHandler = api(async (event) => {
-	const user = authorize(
-		event,
-		'lot:read',
-		event.locals.user?.role === 'supplier' ? { supplierId: event.locals.user.organisationId } : undefined
-	);
+	const user = authorize(event, 'lot:read', ownOrganisation(event.locals.user));
 	const db = getDb();
 	const lot = await getLotForUser(db, user, event.params.id);
 	if (!lot) throw notFound('lot');

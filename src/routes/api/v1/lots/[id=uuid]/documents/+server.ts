@@ -1,6 +1,7 @@
 import { json, type RequestEvent } from '@sveltejs/kit';
 import { statusOf } from '$lib/server/error-status';
 import { api, authorize, badRequest, conflict, notFound, parseWith, unprocessable } from '$lib/server/http';
+import { ownOrganisation } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
 import { megabytes } from '$lib/format';
 import { getLotForUser } from '$lib/server/services/lots';
@@ -14,7 +15,7 @@ const MULTIPART_OVERHEAD = 64 * 1024;
 
 async function visibleLot(event: RequestEvent<{ id: string }>) {
 	const user = event.locals.user;
-	authorize(event, 'document:read', user?.role === 'supplier' ? { supplierId: user.organisationId } : undefined);
+	authorize(event, 'document:read', ownOrganisation(user));
 	const lot = await getLotForUser(getDb(), user!, event.params.id);
 	if (!lot) throw notFound('lot');
 	// Second check on the lot's own supplier (as the other lot routes do), not only the lookup's filter.

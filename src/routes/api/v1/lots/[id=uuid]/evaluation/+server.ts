@@ -1,6 +1,7 @@
 import { json } from '@sveltejs/kit';
 import { getDb } from '$lib/server/db';
 import { api, authorize, notFound } from '$lib/server/http';
+import { ownOrganisation } from '$lib/server/policy';
 import { computeAndCache, etagMatches, evaluationEtag, lotRevision } from '$lib/server/services/evaluation-cache';
 import type { RequestHandler } from './$types';
 
@@ -11,11 +12,7 @@ import type { RequestHandler } from './$types';
  * unit numbers to 1e-6); `?detail=summary` also leaves out the per-unit results and the inputs.
  */
 export const GET: RequestHandler = api(async (event) => {
-	const user = authorize(
-		event,
-		'lot:read',
-		event.locals.user?.role === 'supplier' ? { supplierId: event.locals.user.organisationId } : undefined
-	);
+	const user = authorize(event, 'lot:read', ownOrganisation(event.locals.user));
 	const db = getDb();
 	const found = await lotRevision(db, event.params.id);
 	// Another supplier's lot is simply not there (404, not 403).

@@ -2,17 +2,17 @@ import { json } from '@sveltejs/kit';
 import { z } from 'zod';
 import { getDb } from '$lib/server/db';
 import { api, authorize, notFound, readJson } from '$lib/server/http';
+import { ownOrganisation } from '$lib/server/policy';
 import { getLotForUser } from '$lib/server/services/lots';
 import { addReadings, listReadings } from '$lib/server/services/readings';
 import type { RequestHandler } from './$types';
 
-const ownOrg = (user: App.Locals['user']) => (user?.role === 'supplier' ? { supplierId: user.organisationId } : undefined);
 // Row shapes are checked by the service (all rows first, then one transaction).
 const envelope = z.object({ readings: z.array(z.unknown()) });
 
 /** GET /api/v1/lots/{id}/readings — every stored reading, oldest first. */
 export const GET: RequestHandler = api(async (event) => {
-	const user = authorize(event, 'lot:read', ownOrg(event.locals.user));
+	const user = authorize(event, 'lot:read', ownOrganisation(event.locals.user));
 	const db = getDb();
 	const lot = await getLotForUser(db, user, event.params.id);
 	if (!lot) throw notFound('lot');

@@ -1,4 +1,5 @@
 import { api, authorize, notFound } from '$lib/server/http';
+import { ownOrganisation } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
 import { getLotForUser } from '$lib/server/services/lots';
 import { downloadHeaders, getDocumentFile } from '$lib/server/services/documents';
@@ -7,7 +8,7 @@ import type { RequestHandler } from './$types';
 /** GET /api/v1/lots/{id}/documents/{docId} — the file, always as an attachment with its sniffed type. */
 export const GET: RequestHandler = api(async (event) => {
 	const user = event.locals.user;
-	authorize(event, 'document:read', user?.role === 'supplier' ? { supplierId: user.organisationId } : undefined);
+	authorize(event, 'document:read', ownOrganisation(user));
 	const db = getDb();
 	const lot = await getLotForUser(db, user!, event.params.id);
 	if (!lot) throw notFound('lot');
