@@ -7,6 +7,9 @@ export default defineConfig({
 	testMatch: '**/*.e2e.ts',
 	outputDir: 'tests/artifacts/playwright',
 	timeout: 120_000,
+	// A password check (argon2) on a busy 2-core machine can take several seconds; assertions wait on
+	// what the page shows, up to this long, rather than on any fixed sleep.
+	expect: { timeout: 10_000 },
 	workers: 1,
 	reporter: [['list']],
 	use: {
