@@ -195,17 +195,24 @@ function audit(tx: Tx, actor: SessionUser, partId: string, action: string, detai
 	return recordAudit(tx, { actorId: actor.id, actorEmail: actor.email, action, entityType: 'part', entityId: partId, details });
 }
 
-/** The limits form's starting values (V, mV, %) from a stored part. */
-export function limitsFormValues(p: PartRow): PartLimitsForm {
+/** The voltage limits in the units the form and the API share (V, mV, mV/day, k). */
+function voltageLimits(p: PartRow) {
 	return {
-		model_id: p.modelId ?? '',
 		ocv_min_cell_v: p.ocvMinCellV,
 		ocv_max_cell_v: p.ocvMaxCellV,
 		residual_tolerance_mv: p.residualToleranceMv,
 		spread_limit_mv: p.spreadLimitMv,
 		imbalance_limit_mv: p.imbalanceLimitMv,
 		outlier_k: p.outlierK,
-		self_discharge_limit_mv_per_day: p.selfDischargeLimitMvPerDay,
+		self_discharge_limit_mv_per_day: p.selfDischargeLimitMvPerDay
+	};
+}
+
+/** The limits form's starting values (V, mV, %) from a stored part. */
+export function limitsFormValues(p: PartRow): PartLimitsForm {
+	return {
+		model_id: p.modelId ?? '',
+		...voltageLimits(p),
 		declared_soc_tolerance_pct: Math.round(p.declaredSocTolerance * 1e6) / 1e4,
 		meter_accuracy_mv: Math.round(p.meterAccuracyV * 1e6) / 1e3,
 		aql: p.aql,
@@ -242,13 +249,7 @@ export function partJson(p: PartView) {
 		nominal_capacity_ah: p.nominalCapacityAh,
 		model: p.modelId ? { id: p.modelId, version: p.modelVersion, name: p.modelName } : null,
 		limits: {
-			ocv_min_cell_v: p.ocvMinCellV,
-			ocv_max_cell_v: p.ocvMaxCellV,
-			residual_tolerance_mv: p.residualToleranceMv,
-			spread_limit_mv: p.spreadLimitMv,
-			imbalance_limit_mv: p.imbalanceLimitMv,
-			outlier_k: p.outlierK,
-			self_discharge_limit_mv_per_day: p.selfDischargeLimitMvPerDay,
+			...voltageLimits(p),
 			declared_soc_tolerance: p.declaredSocTolerance,
 			meter_accuracy_v: p.meterAccuracyV
 		},
