@@ -76,6 +76,18 @@ function assertSampleComplete(evaluation: LotEvaluation): asserts evaluation is 
 	throw new Invalid(why ?? `The sample is not complete: ${evaluation.plan.sample_size} units are needed.`, undefined, 'sample_incomplete');
 }
 
+/**
+ * A lot submitted before its sample was complete (allowed only when the rules already reject it:
+ * ISO 2859-1 lets reaching Re end the sample; a safety reject needs no more units): the decision
+ * records that it came early, with how many units were measured and why.
+ */
+function earlySubmission(evaluation: LotEvaluation): string | null {
+	const measured = evaluation.units.length;
+	if (measured >= evaluation.plan.sample_size) return null;
+	const why = evaluation.reasons.filter((r) => r.severity === 'reject').map((r) => r.message);
+	return `Submitted early, with ${measured} of ${evaluation.plan.sample_size} sample units measured: ${why.join(' ')}`;
+}
+
 /** Write the engine's decision (status, decision row, notice, audit) for a finished evaluation. */
 async function applyAutomatic(
 	tx: Tx,
@@ -140,7 +152,7 @@ export async function submitLot(user: SessionUser, lotId: string): Promise<Decis
 		const evaluation = await evaluateLotNow(tx, lotId);
 		assertSampleComplete(evaluation);
 		const evaluationId = await storeEvaluation(tx, user, evaluation);
-		const applied = await applyAutomatic(tx, user, lot, evaluation, lot.status, evaluationId, null);
+		const applied = await applyAutomatic(tx, user, lot, evaluation, lot.status, evaluationId, earlySubmission(evaluation));
 		return { lotId, previousStatus: lot.status, evaluationId, ...applied, evaluation: withoutInputs(evaluation) };
 	});
 }

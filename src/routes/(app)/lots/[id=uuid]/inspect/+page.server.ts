@@ -4,7 +4,8 @@ import { strictNumberFromText, wholeNumberParam } from '$lib/schemas/fields';
 import { refusalOf } from '$lib/server/action-errors';
 import { getDb } from '$lib/server/db';
 import { can } from '$lib/server/policy';
-import { evaluateLotNow } from '$lib/server/services/evaluation';
+import type { ServedEvaluation } from '$lib/server/services/evaluation-body';
+import { evaluationBody } from '$lib/server/services/evaluation-cache';
 import { getLotForUser } from '$lib/server/services/lots';
 import { correctReading, listReadings } from '$lib/server/services/readings';
 import type { Actions, PageServerLoad } from './$types';
@@ -19,7 +20,11 @@ export const load: PageServerLoad = async ({ locals, params, depends }) => {
 	const db = getDb();
 	const lot = await getLotForUser(db, user, params.id);
 	if (!lot) error(404, 'No such lot');
-	const [evaluation, readings] = await Promise.all([evaluateLotNow(db, lot.id), listReadings(db, lot.id)]);
+	// The served evaluation from the cache at the lot's revision (computed and cached only when it is
+	// stale): part, plan and limits come from it, so a visit computes at most one evaluation.
+	const [body, readings] = await Promise.all([evaluationBody(db, lot.id), listReadings(db, lot.id)]);
+	if (body === null) error(404, 'No such lot');
+	const evaluation = JSON.parse(body) as ServedEvaluation;
 	const { inputs } = evaluation;
 	return {
 		lot: {
@@ -39,9 +44,10 @@ export const load: PageServerLoad = async ({ locals, params, depends }) => {
 		dgSocLimit: evaluation.dg?.soc_limit ?? null,
 		plan: evaluation.plan,
 		severity: evaluation.severity,
-		unitsMeasured: evaluation.units.length,
-		readingCount: readings.length,
-		readings: readings.slice(-SHOWN),
+		evaluation,
+		// Every reading: the browser evaluates the lot with them as the server does; the grid shows the latest SHOWN.
+		readings,
+		shown: SHOWN,
 		canRecord: can(user, 'reading:write', { supplierId: lot.supplierId }),
 		canSubmit: can(user, 'lot:submit', { supplierId: lot.supplierId })
 	};

@@ -1,16 +1,12 @@
-// Per-row feedback computed in the browser with the same electrochemistry core the server uses.
-// The server's evaluation stays authoritative; this is the inspector's instant check.
-import { evaluateReading, type OcvModel } from '$lib/electrochem';
+// What a grid row shows for its unit: the flags of the lot's disposition (the server's evaluation
+// once the row is saved; before that, the same cores run in the browser: live-evaluation.ts).
 import { formatSocInterval, percent, signedMillivolts, volts } from '$lib/format';
-import type { PartLimits } from '$lib/inspection';
+import type { PartLimits, UnitDisposition, UnitFlag } from '$lib/inspection';
 import { socStanding } from '$lib/inspection/dangerous-goods';
 import { VERDICT, type Look } from '$lib/status';
 
 export interface BenchContext {
-	model: OcvModel;
 	cellsInSeries: number;
-	declaredSoc: number | null;
-	meterAccuracyV: number;
 	limits: PartLimits;
 	/** SOC limit for an air-shipped lithium-ion lot (the server's air rule), else null. */
 	airSocLimit?: number | null;
@@ -31,16 +27,23 @@ export interface RowFeedback {
 	indeterminate: boolean;
 }
 
+/** A row's unit in the lot's disposition and where that came from (the server's evaluation, or the browser's). */
+export type RowUnit = { unit: UnitDisposition; source: 'server' | 'live' } | null;
+
 const refused = (code: string, word: string): Finding => ({ code, word, shape: 'cross', tone: 'reject' });
 const attention = (code: string, word: string): Finding => ({ code, word, shape: 'alert', tone: 'hold' });
 
-const FLAG_FINDINGS: Record<string, Finding> = {
+/** Every unit flag of the inspection core as a finding; the chemistry's own window flags are not carried (the part's window is). */
+const FLAG_FINDINGS: Partial<Record<UnitFlag, Finding>> = {
 	deep_discharge: refused('deep_discharge', 'deep discharge'),
 	over_voltage: refused('over_voltage', 'over voltage'),
+	outside_part_window: attention('outside_window', 'outside window'),
+	residual_over_tolerance: attention('far_from_declared_soc', 'far from declared SOC'),
+	outlier: attention('outlier', 'outlier'),
+	self_discharge_over_limit: attention('self_discharge_over_limit', 'self-discharge over limit'),
+	imbalance_over_limit: attention('imbalance_over_limit', 'cell groups imbalanced'),
 	soc_indeterminate: { ...VERDICT.indeterminate, code: 'soc_indeterminate', word: 'SOC indeterminate' },
-	temperature_out_of_range: attention('temperature_out_of_range', 'temp. out of range'),
-	below_window: attention('below_window', 'below model range'),
-	above_window: attention('above_window', 'above model range')
+	temperature_out_of_range: attention('temperature_out_of_range', 'temp. out of range')
 };
 
 /** Plausible pack/cell voltage range shown beside the OCV field: the part window × cells in series. */
@@ -48,43 +51,27 @@ export function plausibleRange(ctx: BenchContext): [number, number] {
 	return [ctx.limits.ocv_min_v * ctx.cellsInSeries, ctx.limits.ocv_max_v * ctx.cellsInSeries];
 }
 
-export function feedbackFor(ctx: BenchContext, ocvV: number, temperatureC: number): RowFeedback | null {
-	if (!Number.isFinite(ocvV) || !Number.isFinite(temperatureC) || ocvV < 0 || temperatureC <= -60 || temperatureC >= 120) return null;
-	let r;
-	try {
-		r = evaluateReading(
-			ctx.model,
-			{ ocv_v: ocvV, temperature_c: temperatureC },
-			{
-				cells_in_series: ctx.cellsInSeries,
-				declared_soc: ctx.declaredSoc,
-				meter_accuracy_v: ctx.meterAccuracyV
-			}
-		);
-	} catch {
-		return null;
-	}
-	const findings = r.flags.filter((f) => f !== 'below_window' && f !== 'above_window').map((f) => FLAG_FINDINGS[f]);
-	if (r.ocv_at_25c_v < ctx.limits.ocv_min_v || r.ocv_at_25c_v > ctx.limits.ocv_max_v)
-		findings.push(attention('outside_window', 'outside window'));
-	if (r.residual_v !== null && Math.abs(r.residual_v) > ctx.limits.residual_tolerance_v && r.determinate) {
-		findings.push(attention('far_from_declared_soc', 'far from declared SOC'));
-	}
+/** Findings from a unit's flags as the inspection core gives them (nonconforming first), plus the air check. */
+function findingsOf(ctx: BenchContext, unit: UnitDisposition): Finding[] {
+	const findings: Finding[] = unit.nonconforming ? [refused('nonconforming', 'nonconforming')] : [];
+	for (const flag of unit.unit_flags) if (FLAG_FINDINGS[flag]) findings.push(FLAG_FINDINGS[flag]);
 	// Same test as the server's air rule (socStanding in the inspection core).
-	const air = ctx.airSocLimit == null ? 'within' : socStanding(r, ctx.airSocLimit);
+	const air = ctx.airSocLimit == null ? 'within' : socStanding(unit, ctx.airSocLimit);
 	if (air === 'over') findings.push(attention('above_air_limit', `above ${percent(ctx.airSocLimit!)} air limit`));
 	if (air === 'unverified') findings.push(attention('air_limit_unverified', `≤ ${percent(ctx.airSocLimit!)} not shown`));
 	if (findings.length === 0) findings.push({ ...VERDICT.accept, code: 'in_window', word: 'in window' });
+	return findings;
+}
+
+/** What a grid row shows for a unit of the lot's disposition (the server's, or the same core run in the browser). */
+export function unitFeedback(ctx: BenchContext, unit: UnitDisposition): RowFeedback {
+	const flags: readonly string[] = unit.flags;
 	return {
-		socText: r.flags.includes('below_window')
-			? 'below range'
-			: r.flags.includes('above_window')
-				? 'above range'
-				: formatSocInterval(r),
-		expectedText: r.expected_ocv_v === null ? '—' : volts(r.expected_ocv_v * ctx.cellsInSeries, ctx.cellsInSeries > 1 ? 2 : 3),
-		residualText: signedMillivolts(r.residual_v),
-		findings,
-		deepDischarge: r.flags.includes('deep_discharge'),
-		indeterminate: !r.determinate
+		socText: flags.includes('below_window') ? 'below range' : flags.includes('above_window') ? 'above range' : formatSocInterval(unit),
+		expectedText: unit.expected_ocv_v === null ? '—' : volts(unit.expected_ocv_v * ctx.cellsInSeries, ctx.cellsInSeries > 1 ? 2 : 3),
+		residualText: signedMillivolts(unit.residual_v),
+		findings: findingsOf(ctx, unit),
+		deepDischarge: unit.unit_flags.includes('deep_discharge'),
+		indeterminate: !unit.determinate
 	};
 }

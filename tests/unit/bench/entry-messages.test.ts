@@ -1,0 +1,28 @@
+/** The bench's entry messages (inspect/entry-messages.ts): sentences about the value that follow the text. */
+import { describe, expect, it } from 'vitest';
+import { entryProblems } from '../../../src/routes/(app)/lots/[id=uuid]/inspect/entry-messages';
+
+const fine = { serial: 'DEMO-001', ocv: '3,652', temperature: '23.5', resistance: '' };
+
+describe('entry messages', () => {
+	it('has nothing to say about a complete row (decimal comma accepted, resistance optional)', () => {
+		expect(entryProblems(fine)).toEqual({});
+	});
+
+	it('names the value in a sentence, not the field name', () => {
+		const p = entryProblems({ serial: ' ', ocv: '3.6V', temperature: 'warm', resistance: '-2' });
+		expect(p.serial).toBe('Serial is missing: scan or type the unit’s serial.');
+		expect(p.ocv).toBe('OCV must be a number in volts, like 3.652; “3.6V” is not.');
+		expect(p.temperature).toBe('Temperature must be a number in °C, like 23.5; “warm” is not.');
+		expect(p.resistance).toBe('AC resistance must be above 0 mΩ, or left empty.');
+		for (const text of Object.values(p)) expect(text).not.toMatch(/ocv_v|temperature_c|ac_resistance_mohm|is required/);
+	});
+
+	it('changes with the value and is gone once it is right', () => {
+		expect(entryProblems({ ...fine, temperature: '' }).temperature).toMatch(/^Temperature is missing/);
+		expect(entryProblems({ ...fine, temperature: '130' }).temperature).toBe('Temperature must lie between −60 °C and 120 °C.');
+		expect(entryProblems({ ...fine, temperature: '30' }).temperature).toBeUndefined();
+		expect(entryProblems({ ...fine, ocv: '-0.2' }).ocv).toMatch(/probe polarity/);
+		expect(entryProblems({ ...fine, resistance: '200000' }).resistance).toMatch(/100,000 mΩ \(100 Ω\)/);
+	});
+});
