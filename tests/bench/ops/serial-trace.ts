@@ -22,7 +22,7 @@ const BARE_TRACE = `select r.id, r.serial, o.name, p.part_number, d.kind, u.emai
 	join parts p on p.id = l.part_id
 	left join decisions d on d.id = (select d2.id from decisions d2 where d2.lot_id = l.id order by d2.decided_at desc limit 1)
 	left join evaluations e on e.id = d.evaluation_id
-	left join users u on u.id = d.decided_by
+	left join "user" u on u.id = d.decided_by
 	where r.serial = $1
 	order by r.serial, r.measured_at, r.id
 	limit ${LIMIT + 1}`;
