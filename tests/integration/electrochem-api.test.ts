@@ -4,6 +4,7 @@
  * the API, a 10,000-reading evaluate call, fitting, and saving + approving model versions.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { getLibraryModel } from '../../src/lib/electrochem';
 import { startApp, type RunningApp } from '../helpers/app';
 import { DEMO_PASSWORD, tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient } from '../helpers/db';
@@ -308,6 +309,7 @@ describe('POST /api/v1/ocv/evaluate', () => {
 	});
 
 	const ok = { ocv_v: 3.7, temperature_c: 25 };
+	const LFP_MODEL = JSON.parse(JSON.stringify(getLibraryModel('LFP')));
 	const bad: Array<[string, unknown, string]> = [
 		['an unknown chemistry', { chemistry: 'XYZ', readings: [ok] }, 'chemistry'],
 		['absent readings', { chemistry: 'NMC' }, 'readings'],
@@ -318,7 +320,24 @@ describe('POST /api/v1/ocv/evaluate', () => {
 		['a reading that is not an object', { chemistry: 'NMC', readings: [3.7] }, 'readings.0'],
 		['zero cells in series', { chemistry: 'NMC', cells_in_series: 0, readings: [ok] }, 'cells_in_series'],
 		['a declared SOC above 1', { chemistry: 'NMC', declared_soc: 30, readings: [ok] }, 'declared_soc'],
-		['a negative meter accuracy', { chemistry: 'NMC', meter_accuracy_v: -0.002, readings: [ok] }, 'meter_accuracy_v']
+		['a negative meter accuracy', { chemistry: 'NMC', meter_accuracy_v: -0.002, readings: [ok] }, 'meter_accuracy_v'],
+		// a model sent back with a bad uncertainty field is refused naming that field
+		['a model whose plateau leaves 0–1', { model: { ...LFP_MODEL, plateau: [0.2, 1.5] }, readings: [ok] }, 'model.plateau'],
+		[
+			'a model with its hysteresis in mV',
+			{ model: { ...LFP_MODEL, hysteresis_half_v: [[0, 15]] }, readings: [ok] },
+			'model.hysteresis_half_v'
+		],
+		[
+			'a model with its SOC sigma in percent',
+			{ model: { ...LFP_MODEL, sigma_model_soc_curve: [[0, 8]] }, readings: [ok] },
+			'model.sigma_model_soc_curve'
+		],
+		[
+			'a model with a determinate width of 30',
+			{ model: { ...LFP_MODEL, determinate_width: 30 }, readings: [ok] },
+			'model.determinate_width'
+		]
 	];
 	for (const [what, body, path] of bad) {
 		it(`answers 422 for ${what}`, async () => {

@@ -214,8 +214,8 @@ describe('GET /api/v1/lots/{id}/evaluation from model-generated readings', () =>
 		expect(held.reasons.map((r: { code: string }) => r.code)).toContain('soc_indeterminate');
 		expect(held.reasons.map((r: { code: string }) => r.code)).not.toContain('declared_soc_mismatch');
 		// The same part read on the steep low-SOC slope (declared and read at 8 %). On the generic LFP curve this
-		// is not determinate either: near empty the published LFP cell (Prada 2013, electrochem/calibration)
-		// sits 100–500 mV from the curve, so the interval is wide and the check says so instead of passing.
+		// is not determinate either: near empty the published LFP cells (Prada 2013, Safari 2011; electrochem/calibration)
+		// sit 8–18 SOC points (1σ) from the generic curve, so the interval is wide and the check says so instead of passing.
 		const steep = await sampleLot({ partNumber: 'FL-PR-100', quantity: 200, declaredSoc: 0.08, documents: [...LI_DOCS] });
 		await call(inspector, `/api/v1/lots/${steep.lot.id}/readings`, {
 			body: { readings: modelReadings('LFP', steep.n, 0.08, { halfWidth: 0.005 }) }

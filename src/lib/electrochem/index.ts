@@ -70,3 +70,4 @@ export {
 	type PartFitInput
 } from './fit-part';
 export { checkModel, validateModel } from './validate';
+export { modelErrorSummary, type ModelErrorSummary } from './model-error';

@@ -47,6 +47,15 @@ describe('renderInspectionReport', () => {
 		expect(pdfText(file, pages)).toContain(lastSerial);
 	});
 
+	it('names the model error in SOC for a chemistry calibrated against published cells, in mV otherwise', async () => {
+		const base = makeReport({}, 10);
+		const calibrated = { ...base, model: { ...base.model, sigma_model_v: null, sigma_model_soc_max: 0.109 } };
+		const soc = pdfText(writeTemp('report-soc.pdf', await renderInspectionReport(calibrated))).replaceAll('\u00a0', ' ');
+		expect(soc).toContain('up to 11 % SOC (published cells)');
+		const fitted = { ...base, model: { ...base.model, sigma_model_v: 0.0021 } };
+		expect(pdfText(writeTemp('report-mv.pdf', await renderInspectionReport(fitted))).replaceAll('\u00a0', ' ')).toContain('2.1 mV');
+	}, 20_000);
+
 	it('numbers every page as "page x of y"', async () => {
 		const file = writeTemp('report.pdf', await renderInspectionReport(makeReport()));
 		const pages = Number(pdfInfo(file).Pages);

@@ -96,6 +96,12 @@ export function drawStatsSection(cursor: Cursor, data: ReportData): void {
 	}
 }
 
+/** σ in V, or for a chemistry calibrated in SOC against published cells its largest σ in SOC. */
+function modelErrorText(model: ReportData['model']): string {
+	if (model.sigma_model_soc_max != null) return `up to ${percent(model.sigma_model_soc_max)} SOC (published cells)`;
+	return millivolts(model.sigma_model_v);
+}
+
 export function drawModelSection(cursor: Cursor, data: ReportData): void {
 	sectionTitle(cursor, 'Model and decision');
 	const { model, decision } = data;
@@ -103,7 +109,7 @@ export function drawModelSection(cursor: Cursor, data: ReportData): void {
 		['Model version', model.version],
 		['Model chemistry', model.chemistry],
 		['Model source', model.source],
-		['Model error σ', millivolts(model.sigma_model_v)]
+		['Model error σ', modelErrorText(model)]
 	];
 	const right: Pair[] = decision
 		? [

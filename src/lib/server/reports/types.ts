@@ -70,7 +70,8 @@ export interface ReportData {
 	limits: { ocv_min_v: number; ocv_max_v: number; expected_ocv_v: number | null };
 	units: ReportUnit[];
 	/** sigma_model_v: the model's 1σ voltage error (cross-validated for a part's fitted model), V. */
-	model: { version: string; chemistry: string; source: string; sigma_model_v?: number | null };
+	/** sigma_model_soc_max: for a chemistry calibrated in SOC, its largest 1σ model error (SOC fraction) instead of a σ in V. */
+	model: { version: string; chemistry: string; source: string; sigma_model_v?: number | null; sigma_model_soc_max?: number | null };
 	decision: { by: string; at: string; kind: 'automatic' | 'override'; reason: string | null; signature?: ReportSignature | null } | null;
 }
 /** The e-signature manifest of a quality override as printed (21 CFR Part 11, §11.50); hash and challenge are null on older records. */

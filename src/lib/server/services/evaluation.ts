@@ -4,7 +4,15 @@
  * A pure read (works inside the caller's transaction); the decisions service stores its result.
  */
 import { asc, eq, sql } from 'drizzle-orm';
-import { evaluateReadings, getLibraryModel, isChemistryCode, validateModel, type LastDirection, type OcvModel } from '$lib/electrochem';
+import {
+	evaluateReadings,
+	getLibraryModel,
+	isChemistryCode,
+	modelErrorSummary,
+	validateModel,
+	type LastDirection,
+	type OcvModel
+} from '$lib/electrochem';
 import {
 	evaluateLot,
 	samplingPlan,
@@ -89,6 +97,8 @@ export interface LotEvaluation {
 		name?: string;
 		form?: string;
 		sigma_model_v?: number;
+		/** For a chemistry calibrated in SOC: its largest model σ, SOC fraction (then no sigma_model_v). */
+		sigma_model_soc_max?: number;
 	};
 	inputs: EvaluationInputs;
 	evaluated_at: string;
@@ -116,12 +126,12 @@ async function loadLot(db: Database | Tx, lotId: string) {
 function resolveModel(chemistry: string, modelId: string | null, parameters: unknown): LotEvaluation['model'] & { ocv: OcvModel } {
 	const stored = parameters === null || parameters === undefined ? null : validateModel(parameters);
 	if (stored) {
-		const about = { name: stored.name, form: stored.form, sigma_model_v: stored.sigma_model_v };
+		const about = { name: stored.name, form: stored.form, ...modelErrorSummary(stored) };
 		return { id: modelId, version: stored.version, chemistry: stored.chemistry, source: 'part', ...about, ocv: stored };
 	}
 	if (!isChemistryCode(chemistry)) throw new EvaluationError('model_invalid', `No OCV model for chemistry ${chemistry}`);
 	const library = getLibraryModel(chemistry);
-	const about = { name: library.name, form: library.form, sigma_model_v: library.sigma_model_v };
+	const about = { name: library.name, form: library.form, ...modelErrorSummary(library) };
 	return { id: null, version: library.version, chemistry: library.chemistry, source: 'library', ...about, ocv: library };
 }
 

@@ -4,6 +4,7 @@
  */
 import { and, desc, eq, lte } from 'drizzle-orm';
 import { dateTime, fixed } from '$lib/format';
+import { modelErrorSummary, type OcvModel } from '$lib/electrochem';
 import { VARIABLES_METHOD } from '$lib/inspection/variables';
 import type { Database, Tx } from '../db';
 import { decisions, evaluations, lots, organisations, parts, readings, users } from '../db/schema';
@@ -225,7 +226,7 @@ export async function buildReportData(db: Db, lotId: string, opts: { decisionId?
 			version: result.model.version,
 			chemistry: result.model.chemistry,
 			source: engine.modelSource,
-			sigma_model_v: engine.inputs.model?.sigma_model_v ?? null
+			...reportModelError(engine.inputs.model)
 		},
 		decision
 	};
@@ -292,4 +293,10 @@ export async function lotListRows(db: Db, filter: { status?: string; supplierId?
 		transport: lot.transport,
 		created_at: lot.createdAt
 	}));
+}
+
+/** The model's own error as the report prints it (older stored evaluations may carry no model). */
+function reportModelError(model: OcvModel | undefined): { sigma_model_v: number | null; sigma_model_soc_max: number | null } {
+	const summary = model ? modelErrorSummary(model) : {};
+	return { sigma_model_v: summary.sigma_model_v ?? null, sigma_model_soc_max: summary.sigma_model_soc_max ?? null };
 }

@@ -34,6 +34,8 @@ export interface EvaluationView {
 		name?: string;
 		form?: string;
 		sigma_model_v?: number;
+		/** For a chemistry calibrated in SOC: its largest model σ, SOC fraction. */
+		sigma_model_soc_max?: number;
 	};
 	inputs?: {
 		lot: { declared_soc: number | null; transport: string; lithium_ion: boolean; quantity: number };
