@@ -1,4 +1,4 @@
-import { error } from '@sveltejs/kit';
+import { error, fail } from '@sveltejs/kit';
 import { can } from '$lib/server/policy';
 import { getDb } from '$lib/server/db';
 import { BadCursorError, listLots } from '$lib/server/services/lots';
@@ -6,7 +6,9 @@ import { listSuppliers } from '$lib/server/services/suppliers';
 import { lotListQuerySchema } from '$lib/schemas/lot';
 import { text } from '$lib/schemas/fields';
 import { issuesText } from '$lib/server/http';
-import type { PageServerLoad } from './$types';
+import { readPreference, savePreference } from '$lib/server/services/preferences';
+import { DEFAULT_LOT_LIST_VIEW, LOT_LIST_VIEW_KEY, lotListViewSchema } from '$lib/schemas/list-view';
+import type { Actions, PageServerLoad } from './$types';
 
 // The list's state lives in the URL, so a filtered page can be bookmarked and shared.
 const pageQuery = lotListQuerySchema.extend({ trail: text().max(2000).optional() });
@@ -57,6 +59,28 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 			trail: query.trail ?? ''
 		},
 		suppliers: suppliers.map((s) => ({ id: s.id, name: s.name })),
-		canCreate: can(user, 'lot:create')
+		canCreate: can(user, 'lot:create'),
+		view: (await readPreference(db, user.id, LOT_LIST_VIEW_KEY, lotListViewSchema)) ?? DEFAULT_LOT_LIST_VIEW
 	};
+};
+
+function parseJson(text: string): unknown {
+	try {
+		return JSON.parse(text);
+	} catch {
+		return undefined;
+	}
+}
+
+export const actions: Actions = {
+	/** Keep this person's columns and sort for the next visit (sent by the table as it changes). */
+	view: async ({ locals, request }) => {
+		const user = locals.user!;
+		if (!can(user, 'lot:read')) error(403, 'Your role may not read lots');
+		const raw = (await request.formData()).get('view');
+		const parsed = lotListViewSchema.safeParse(typeof raw === 'string' ? parseJson(raw) : undefined);
+		if (!parsed.success) return fail(400, { field: 'view', message: `The list view is not valid — ${issuesText(parsed.error)}` });
+		await savePreference(getDb(), user.id, LOT_LIST_VIEW_KEY, parsed.data);
+		return { saved: true };
+	}
 };

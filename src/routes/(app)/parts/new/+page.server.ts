@@ -7,7 +7,7 @@ import { getDb } from '$lib/server/db';
 import { createPart } from '$lib/server/services/parts';
 import { refuseForm } from '$lib/server/action-errors';
 import { listSuppliers } from '$lib/server/services/suppliers';
-import { partDescriptiveSchema } from '$lib/schemas/part';
+import { partDescriptiveSchema, type PartDescriptive } from '$lib/schemas/part';
 import type { Actions, PageServerLoad } from './$types';
 
 const FORM_ID = 'new-part';
@@ -20,6 +20,8 @@ export const load: PageServerLoad = async ({ locals, url }) => {
 		zod4(partDescriptiveSchema),
 		{ id: FORM_ID, errors: false }
 	);
+	// The capacity starts empty, not at 0: the buyer types the datasheet's value, and an empty box is refused by name.
+	form.data.nominal_capacity_ah = null as unknown as PartDescriptive['nominal_capacity_ah'];
 	return { form, suppliers: suppliers.map((s) => ({ id: s.id, name: s.name })) };
 };
 
