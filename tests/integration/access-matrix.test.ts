@@ -224,6 +224,16 @@ function apiCases(): ApiCase[] {
 			path: () => `/api/v1/suppliers/${ids.supplier.a}/scorecard`,
 			expect: row(ok, ok, ok, 403, 403, 403, 401)
 		},
+		{
+			name: 'GET suppliers/[id=uuid]/scorecard.xlsx',
+			path: () => `/api/v1/suppliers/${ids.supplier.a}/scorecard.xlsx?period=12m`,
+			expect: row(ok, ok, ok, 403, 403, 403, 401)
+		},
+		{
+			name: 'GET suppliers/[id=uuid]/scorecard.pdf',
+			path: () => `/api/v1/suppliers/${ids.supplier.a}/scorecard.pdf?period=90d`,
+			expect: row(ok, ok, ok, 403, 403, 403, 401)
+		},
 		{ name: 'GET openapi.json', path: () => '/api/v1/openapi.json', expect: row(ok, ok, ok, ok, ok, ok, ok) },
 		// Supplier B may trace serials too, and finds only its own (checked below).
 		{

@@ -484,7 +484,19 @@ function table(): Entry[] {
 			'suppliers/[id=uuid]/scorecard',
 			'quality',
 			idFrom(ids.supplier.a, ids.supplier.b).map((id) => `/suppliers/${seg(id)}/scorecard`),
-			['part_id']
+			['part_id', 'period', 'from', 'to']
+		),
+		get(
+			'suppliers/[id=uuid]/scorecard.xlsx',
+			'quality',
+			idFrom(ids.supplier.a, ids.supplier.b).map((id) => `/suppliers/${seg(id)}/scorecard.xlsx`),
+			['part_id', 'period', 'from', 'to']
+		),
+		get(
+			'suppliers/[id=uuid]/scorecard.pdf',
+			'quality',
+			idFrom(ids.supplier.a, ids.supplier.b).map((id) => `/suppliers/${seg(id)}/scorecard.pdf`),
+			['part_id', 'period', 'from', 'to']
 		),
 		get('openapi.json', 'public', fc.constant('/openapi.json')),
 		get('readings', 'buyer', fc.constant('/readings'), ['serial', 'serial_prefix', 'limit']),

@@ -22,6 +22,7 @@ import {
 	saveModelBody
 } from '../../src/lib/schemas/electrochem';
 import { lotListExportQuery, noticesQuery, overrideRequestSchema } from '../../src/lib/schemas/decision';
+import { scorecardQuery } from '../../src/lib/schemas/scorecard';
 import { partListQuerySchema } from '../../src/lib/schemas/part';
 import type { SeedIds } from './hardening-fixtures';
 
@@ -169,6 +170,13 @@ export function strictFieldEntries(ids: SeedIds): StrictEntry[] {
 			{ status: 'on_hold', supplier_id: ids.supplier.a, part_id: ids.partA, search: 'PO', serial: 'SN-1', cursor: 'abc' }
 		],
 		['lots.xlsx', 'buyer', '/lots.xlsx', lotListExportQuery, { status: 'on_hold', supplier_id: ids.supplier.a }],
+		[
+			'suppliers/[id=uuid]/scorecard',
+			'quality',
+			`/suppliers/${ids.supplier.a}/scorecard`,
+			scorecardQuery,
+			{ period: 'custom', from: '2026-01-01', to: '2026-03-31' }
+		],
 		['parts', 'inspector', '/parts', partListQuerySchema, { supplier_id: ids.supplier.a, chemistry: 'NMC', search: 'VC' }],
 		['models', 'buyer', '/models', modelListQuery, { chemistry: 'NMC', status: 'approved' }],
 		['notices', 'supplierA', '/notices', noticesQuery, { lot_id: A.accepted }],

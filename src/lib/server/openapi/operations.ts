@@ -11,6 +11,7 @@ import { cellPotentialBody, curveQuery, evaluateHeader, fitBody, modelListQuery,
 import { partListQuerySchema } from '$lib/schemas/part';
 import { MAX_READINGS_PER_CALL, planQuerySchema, readingCorrectionSchema, readingSchema } from '$lib/schemas/readings';
 import { traceQuerySchema } from '$lib/schemas/trace';
+import { scorecardQuery } from '$lib/schemas/scorecard';
 import { webhookCreateSchema, webhookPatchSchema } from '$lib/schemas/webhook';
 import { deliveryShape, described, file, lotPageShape, lotShape, traceShape, webhookSecretShape, webhookShape } from './shapes';
 import type { ApiOperation } from './types';
@@ -249,9 +250,25 @@ const reference: ApiOperation[] = [
 		method: 'get',
 		path: '/suppliers/{id}/scorecard',
 		tag: 'Parts and suppliers',
-		summary: 'Lots, acceptance, holds, rejects, ppm, severity and the monthly trend',
-		query: z.object({ part_id: z.uuid().optional() }),
-		responses: { 200: { description: 'The scorecard', schema: described('Scorecard figures') } }
+		summary: 'Lots, acceptance, holds, rejects, ppm, severity and the monthly trend, over a period (all, 90d, 12m or custom from–to)',
+		query: scorecardQuery,
+		responses: { 200: { description: 'The scorecard', schema: described('Scorecard figures and the period counted') } }
+	},
+	{
+		method: 'get',
+		path: '/suppliers/{id}/scorecard.xlsx',
+		tag: 'Reports',
+		summary: 'The scorecard as an XLSX workbook (Summary, Months, Parts), over a period',
+		query: scorecardQuery,
+		responses: { 200: { description: 'Workbook', contentType: XLSX, schema: file('XLSX') } }
+	},
+	{
+		method: 'get',
+		path: '/suppliers/{id}/scorecard.pdf',
+		tag: 'Reports',
+		summary: 'The scorecard as an A4 PDF, over a period',
+		query: scorecardQuery,
+		responses: { 200: { description: 'PDF', contentType: PDF, schema: file('PDF') } }
 	},
 	{
 		method: 'get',
