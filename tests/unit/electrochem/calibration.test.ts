@@ -135,6 +135,28 @@ describe('uncertainty budget', () => {
 		expect(fine.uncertainty.limited_by).toBe('model');
 	});
 
+	it('the SOC model error widens the interval by 2σ_SOC in quadrature with the voltage terms', () => {
+		// with a perfect meter and a known temperature the voltage terms vanish: the interval is z ± 2σ_SOC(z)
+		const sigma = NMC.sigma_model_soc_curve!.find(([z]) => z === 0.5)![1];
+		const exact = evaluateReading(
+			NMC,
+			{ ocv_v: ocvAt(NMC, 0.5), temperature_c: 25 },
+			{ meter_accuracy_v: 0, temperature_uncertainty_k: 0 }
+		);
+		expect(exact.soc_low).toBeCloseTo(0.5 - 2 * sigma, 6);
+		expect(exact.soc_high).toBeCloseTo(0.5 + 2 * sigma, 6);
+		// a coarse meter (50 mV, 1σ) adds its own half-width in quadrature: sqrt(voltage half² + (2σ_SOC)²)
+		const opts = { meter_accuracy_v: 0.05, temperature_uncertainty_k: 0 };
+		const reading = { ocv_v: ocvAt(NMC, 0.5), temperature_c: 25 };
+		const coarse = evaluateReading(NMC, reading, opts);
+		const voltageOnly = evaluateReading({ ...NMC, sigma_model_soc_curve: undefined, sigma_model_v: 0 }, reading, opts);
+		expect(coarse.soc_high - coarse.soc).toBeCloseTo(Math.hypot(voltageOnly.soc_high - voltageOnly.soc, 2 * sigma), 9);
+		expect(coarse.soc - coarse.soc_low).toBeCloseTo(Math.hypot(voltageOnly.soc - voltageOnly.soc_low, 2 * sigma), 9);
+		// an uncalibrated chemistry keeps its model error in volts
+		const LMO = getLibraryModel('LMO');
+		expect(evaluateReading(LMO, { ocv_v: ocvAt(LMO, 0.5), temperature_c: 25 }).uncertainty.model_v).toBe(LMO.sigma_model_v);
+	});
+
 	it('the interval is clipped to [0, 1]', () => {
 		for (const z of [0, 0.02, 0.98, 1]) {
 			const r = evaluateReading(NMC, { ocv_v: ocvAt(NMC, z), temperature_c: 25 });
