@@ -2,13 +2,15 @@
  * Supplier (and per-part) scorecards from decided lots. A lot's "original" disposition is the
  * engine's first decision (ISO 2859-1 counts original inspection); its final status may differ
  * after a quality review. Nonconforming ppm = nonconforming units / units inspected × 10⁶, from
- * each lot's latest evaluation.
+ * each lot's latest evaluation. A period counts a lot by the day it was decided (else received,
+ * else registered).
  */
-import { and, eq, sql } from 'drizzle-orm';
+import { and, asc, eq, sql, type SQL } from 'drizzle-orm';
 import type { Database } from '../db';
 import { organisations, parts } from '../db/schema';
 import { NotFound } from '../errors';
 import { nextLotSeverity } from './sampling-state';
+import type { Period } from '$lib/schemas/scorecard';
 
 interface LotFact extends Record<string, unknown> {
 	id: string;
@@ -50,21 +52,33 @@ export interface Scorecard {
 	totals: ScorecardTotals;
 	months: ScorecardMonth[];
 	severity: string | null;
+	/** The period counted; null for all time. */
+	period: Period | null;
 }
 
 const RECEIVED = ['in_inspection', 'pending_decision', 'accepted', 'on_hold', 'rejected'];
 
-async function lotFacts(db: Database, supplierId: string, partId?: string): Promise<LotFact[]> {
+/** The day a lot counts on: decided, else received, else registered. */
+const lotDay = sql`coalesce(l.decided_at, l.received_at, l.created_at)`;
+
+const inPeriod = (period: Period | null | undefined): SQL =>
+	period ? sql`and ${lotDay} >= ${period.from.toISOString()} and ${lotDay} < ${period.to.toISOString()}` : sql``;
+
+async function lotFacts(db: Database, where: SQL, period?: Period | null): Promise<LotFact[]> {
 	const result = await db.execute<LotFact>(sql`
 		select l.id, l.part_id, l.status::text as status,
-		       to_char(date_trunc('month', coalesce(l.decided_at, l.received_at, l.created_at)), 'YYYY-MM') as month,
-		       (select d.to_status::text from decisions d where d.lot_id = l.id and d.kind = 'automatic'
+		       to_char(date_trunc('month', ${lotDay} at time zone 'UTC'), 'YYYY-MM') as month,
+		       -- the engine's result on original inspection (a reject waits on hold for quality, but counts as rejected)
+		       (select coalesce(case e0.disposition when 'accept' then 'accepted' when 'hold' then 'on_hold' when 'reject' then 'rejected' end,
+		                        d.to_status::text)
+		         from decisions d left join evaluations e0 on e0.id = d.evaluation_id
+		         where d.lot_id = l.id and d.kind = 'automatic'
 		         order by d.decided_at asc limit 1) as original,
 		       (e.result->>'nonconforming')::int as nonconforming,
 		       jsonb_array_length(coalesce(e.result->'units', '[]'::jsonb)) as units
 		from lots l
 		left join lateral (select result from evaluations where lot_id = l.id order by id desc limit 1) e on true
-		where l.supplier_id = ${supplierId} ${partId ? sql`and l.part_id = ${partId}` : sql``}
+		where ${where} ${inPeriod(period)}
 		  and l.status::text in (${sql.join(
 				RECEIVED.map((s) => sql`${s}`),
 				sql`, `
@@ -105,7 +119,12 @@ function monthsOf(facts: LotFact[]): ScorecardMonth[] {
 	});
 }
 
-export async function supplierScorecard(db: Database, supplierId: string, partId?: string): Promise<Scorecard> {
+export async function supplierScorecard(
+	db: Database,
+	supplierId: string,
+	partId?: string,
+	period: Period | null = null
+): Promise<Scorecard> {
 	const [supplier] = await db
 		.select({ id: organisations.id, name: organisations.name })
 		.from(organisations)
@@ -118,7 +137,11 @@ export async function supplierScorecard(db: Database, supplierId: string, partId
 		.orderBy(parts.partNumber);
 	const part = partId ? partRows.find((p) => p.id === partId) : undefined;
 	if (partId && !part) throw new NotFound('part');
-	const facts = await lotFacts(db, supplierId, partId);
+	const facts = await lotFacts(
+		db,
+		partId ? sql`l.supplier_id = ${supplierId} and l.part_id = ${partId}` : sql`l.supplier_id = ${supplierId}`,
+		period
+	);
 	const perPart = await Promise.all(
 		(part ? [part] : partRows).map(async (p) => ({
 			...p,
@@ -133,6 +156,54 @@ export async function supplierScorecard(db: Database, supplierId: string, partId
 		parts: perPart,
 		totals: totalsOf(facts),
 		months: monthsOf(facts),
-		severity: part ? (perPart[0]?.severity ?? null) : null
+		severity: part ? (perPart[0]?.severity ?? null) : null,
+		period
 	};
+}
+
+export interface ComparisonRow {
+	supplier: { id: string; name: string };
+	parts: { id: string; partNumber: string }[];
+	totals: ScorecardTotals;
+}
+
+/**
+ * Suppliers side by side for one chemistry or one part number: each supplier's parts that match,
+ * with the same totals as its scorecard, over the same period. Suppliers without a matching part
+ * are left out; a matching supplier without lots in the period shows zeros and no rates.
+ */
+export async function compareSuppliers(
+	db: Database,
+	match: { chemistry?: string; partNumber?: string },
+	period: Period | null = null
+): Promise<ComparisonRow[]> {
+	const conditions = [eq(organisations.kind, 'supplier')];
+	if (match.chemistry) conditions.push(eq(parts.chemistry, match.chemistry));
+	if (match.partNumber) conditions.push(eq(parts.partNumber, match.partNumber));
+	const matching = await db
+		.select({ id: parts.id, partNumber: parts.partNumber, supplierId: organisations.id, supplierName: organisations.name })
+		.from(parts)
+		.innerJoin(organisations, eq(organisations.id, parts.supplierId))
+		.where(and(...conditions))
+		.orderBy(asc(organisations.name), asc(parts.partNumber));
+	if (matching.length === 0) return [];
+	const partIds = matching.map((p) => p.id);
+	const facts = await lotFacts(
+		db,
+		sql`l.part_id in (${sql.join(
+			partIds.map((id) => sql`${id}`),
+			sql`, `
+		)})`,
+		period
+	);
+	const bySupplier = new Map<string, ComparisonRow>();
+	for (const p of matching) {
+		const row = bySupplier.get(p.supplierId) ?? { supplier: { id: p.supplierId, name: p.supplierName }, parts: [], totals: totalsOf([]) };
+		row.parts.push({ id: p.id, partNumber: p.partNumber });
+		bySupplier.set(p.supplierId, row);
+	}
+	return [...bySupplier.values()].map((row) => {
+		const ids = new Set(row.parts.map((p) => p.id));
+		return { ...row, totals: totalsOf(facts.filter((f) => ids.has(f.part_id))) };
+	});
 }
