@@ -4,8 +4,8 @@
 //   meter:       the meter reads the PACK voltage, so σ_meter,cell = meter_accuracy_v / cells_in_series;
 //   temperature: |dU/dT(z)| × the temperature uncertainty (±2 K for a surface probe by default);
 //   model:       a single σ_model in V (fitted part models, uncalibrated chemistries), combined with the two above.
-// The voltage terms give an interval by inverting OCV ± 2σ through the curve, widened by the hysteresis
-// band when the branch is unknown. A calibrated chemistry carries its model error in SOC instead
+// The voltage terms give an interval by inverting OCV ± 2σ through the curve, on the branch the lot's
+// last direction names (hysteresis); with the branch unknown, the hull of both branches' intervals. A calibrated chemistry carries its model error in SOC instead
 // (sigma_model_soc_curve: how far real cells' own SOC sits from the SOC the generic curve reads at the
 // same OCV, calibration/derive.ts), read at the estimate and added in quadrature to each half of that
 // interval: half-width = sqrt(voltage half-width² + (2σ_SOC,model)²), clipped to [0, 1].
@@ -17,7 +17,7 @@ import type { EvaluateOptions, FlagCode, LastDirection, OcvModel, ReadingInput, 
 
 export const DEFAULT_METER_ACCURACY_V = 0.002;
 export const DEFAULT_INDETERMINATE_WIDTH = 0.3;
-/** A surface probe on a cell can the differ from the cell's inside by about 2 K (common practice). */
+/** A surface probe on a cell can differ from the cell's inside by about 2 K (common practice). */
 export const DEFAULT_TEMPERATURE_UNCERTAINTY_K = 2;
 
 interface ResolvedOptions {
