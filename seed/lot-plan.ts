@@ -2,6 +2,7 @@
  * The thirty demo lots: which part, how many, what was declared, how they travelled, what the
  * inspectors will find and where each one ends up. All invented.
  */
+import type { MaterialDisposition } from '../src/lib/schemas/disposition';
 export type Finding =
 	| 'as_declared' // readings match the declared SOC → accept
 	| 'deep_discharge' // one unit rests below its minimum voltage → safety reject
@@ -24,7 +25,8 @@ export interface LotSeed {
 	stage: Stage;
 	finding?: Finding;
 	/** after an automatic hold, a quality manager's e-signed decision */
-	override?: { decision: 'accept' | 'reject'; reason: string };
+	/** Quality's material disposition of the held lot (a lot the engine rejects gets one by default in lots.ts). */
+	override?: { disposition: MaterialDisposition; reason: string };
 	daysAgo: number;
 }
 
@@ -84,7 +86,7 @@ export const LOTS: LotSeed[] = [
 		finding: 'air_soc_high',
 		daysAgo: 128,
 		override: {
-			decision: 'reject',
+			disposition: 'return_to_supplier',
 			reason: 'Arrived by air at about 55 % SOC; above the 30 % limit for cells packed alone. Returned to supplier.'
 		}
 	},
@@ -128,7 +130,7 @@ export const LOTS: LotSeed[] = [
 		finding: 'plateau',
 		daysAgo: 92,
 		override: {
-			decision: 'accept',
+			disposition: 'release',
 			reason: 'SOC indeterminate on the LFP plateau as expected; OCV spread 3 mV and all units inside the window. Released.'
 		}
 	},

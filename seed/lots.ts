@@ -13,6 +13,7 @@ import { addReadings } from '../src/lib/server/services/readings';
 import { evaluateLotNow } from '../src/lib/server/services/evaluation';
 import { decideOverride, submitLot } from '../src/lib/server/services/decisions';
 import { issueChallenge } from '../src/lib/server/services/signature-challenges';
+import { DISPOSITION, asksSupplier, type MaterialDisposition } from '../src/lib/schemas/disposition';
 import { dgFamilyOf, unNumberFor } from '../src/lib/inspection/dangerous-goods';
 import { demoDocument, type DemoDocumentKind } from './documents';
 import { LOTS, type LotSeed } from './lot-plan';
@@ -149,13 +150,27 @@ async function seedOne(db: Database, people: SeededPeople, part: SeededPart, spe
 	if (['in_inspection', 'pending_decision', 'decided'].includes(spec.stage)) await inspect(db, people, lot.id, spec, part, index, when);
 	if (spec.stage === 'decided') {
 		const outcome = await submitLot(staffUser(people, 'inspector'), lot.id);
-		if (spec.override && outcome.status === 'on_hold') {
+		const override = spec.override ?? confirmedReject(outcome.evaluation);
+		if (override && outcome.status === 'on_hold') {
 			const quality = staffUser(people, 'quality');
-			const { challengeId } = await issueChallenge(db, quality, lot.id, spec.override.decision);
-			await decideOverride(quality, lot.id, { ...spec.override, password: DEMO_PASSWORD, challengeId });
+			const { challengeId } = await issueChallenge(db, quality, lot.id, DISPOSITION[override.disposition].decision);
+			const dueDate = asksSupplier(override.disposition) ? new Date(Date.now() + 14 * DAY).toISOString().slice(0, 10) : null;
+			await decideOverride(quality, lot.id, { ...override, dueDate, password: DEMO_PASSWORD, challengeId });
 		}
 	}
 	await backdate(db, lot.id, when);
+}
+
+/**
+ * The engine only proposes a reject; in the demo, quality has confirmed each one (scrap after a
+ * safety finding, else return to the supplier) unless the plan says otherwise.
+ */
+function confirmedReject(
+	evaluation: { status: string; safety: boolean; reasons: { severity: string; message: string }[] } | null
+): { disposition: MaterialDisposition; reason: string } | null {
+	if (evaluation?.status !== 'reject') return null;
+	const finding = evaluation.reasons.find((r) => r.severity === 'reject')?.message ?? 'the engine’s findings';
+	return { disposition: evaluation.safety ? 'scrap' : 'return_to_supplier', reason: `Confirmed the rejection: ${finding}` };
 }
 
 export async function seedLots(db: Database, people: SeededPeople, parts: Map<string, SeededPart>): Promise<number> {

@@ -203,6 +203,8 @@ function apiCases(): ApiCase[] {
 			// Quality signs with a challenge of its own; the others are refused before the body is read.
 			body: async (r) => ({
 				decision: 'reject',
+				disposition: 'return_to_supplier',
+				due_date: new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10),
 				reason: 'matrix: confirmed the hold',
 				password: DEMO_PASSWORD,
 				challenge_id: r === 'quality' ? await signingChallenge(L.decide, 'reject') : randomUUID()

@@ -301,8 +301,13 @@ function table(): Entry[] {
 			input: 'json',
 			path: lotPath('/decision', idFrom(A.on_hold, ids.lotB.on_hold)),
 			// The password is wrong in every body (junk never is the demo password), so nothing can be decided.
-			body: jsonBodies({ decision: 'accept', reason: 'Released after review', password: 'not-the-password' }, (o) =>
-				fc.oneof(fc.constant(o), spoilWith('decision', fc.oneof(junk, fc.constantFrom('release', 'ACCEPT', '')))(o))
+			body: jsonBodies({ disposition: 'release', reason: 'Released after review', password: 'not-the-password' }, (o) =>
+				fc.oneof(
+					fc.constant(o),
+					spoilWith('decision', fc.oneof(junk, fc.constantFrom('release', 'ACCEPT', '')))(o),
+					spoilWith('disposition', fc.oneof(junk, fc.constantFrom('accept', 'RELEASE', '', 'rework')))(o),
+					spoilWith('due_date', fc.oneof(junk, fc.constantFrom('tomorrow', '2026-13-45', '05.12.2026')))(o)
+				)
 			)
 		},
 		{

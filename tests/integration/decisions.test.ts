@@ -1,7 +1,7 @@
 /**
  * Dispositions end to end through the real server (`node build`) on a fresh copy of the seeded
- * database: submit → evaluation, hold → release / reject by quality with an e-signature, safety
- * reject; each notice is read back from the SMTP peer and parsed with mailparser, and its PDF
+ * database: submit → evaluation; an engine hold or reject goes to quality's review without any
+ * supplier mail; quality's e-signed material disposition is what the supplier hears; each notice is read back from the SMTP peer and parsed with mailparser, and its PDF
  * report is read with poppler (pdfinfo / pdftotext). Also: supplier isolation and XLSX exports.
  */
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -9,6 +9,8 @@ import XlsxPopulate from 'xlsx-populate';
 import { startApp, type RunningApp } from '../helpers/app';
 import { DEMO_PASSWORD, postForm, signInApi, tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient } from '../helpers/db';
+import { DISPOSITION, type MaterialDisposition } from '../../src/lib/schemas/disposition';
+import { readMail } from '../helpers/mail';
 import { measuredLot, mailsForNotice, parsedMail, pdfText, VOLTARIA_CONTACTS, waitUntil } from './decisions-fixtures';
 import { call, type Caller } from './readings-fixtures';
 
@@ -50,7 +52,8 @@ function challengeFor(lotId: string, decision: string, cookie = qualityCookie) {
  * fresh signing challenge for that lot and decision unless the body brings its own.
  */
 async function decide(lotId: string, body: Record<string, string>, cookie = qualityCookie) {
-	const challenge = body.challenge_id ? null : await challengeFor(lotId, body.decision, cookie);
+	const decision = body.decision ?? DISPOSITION[body.disposition as MaterialDisposition]?.decision ?? 'reject';
+	const challenge = body.challenge_id ? null : await challengeFor(lotId, decision, cookie);
 	const challengeId = body.challenge_id ?? (challenge?.status === 201 ? challenge.json.challenge_id : undefined);
 	return fetch(`${app.url}/api/v1/lots/${lotId}/decision`, {
 		method: 'POST',
@@ -61,8 +64,48 @@ async function decide(lotId: string, body: Record<string, string>, cookie = qual
 
 const lotRow = (id: string) =>
 	withClient(db.url, async (c) => (await c.query('select status, decided_at, severity from lots where id = $1', [id])).rows[0]);
+/** The lot's supplier notices (staff alerts about the lot, kind 'alert', are left out). */
 const noticesOf = (id: string) =>
-	withClient(db.url, async (c) => (await c.query('select * from notices where lot_id = $1 order by created_at', [id])).rows);
+	withClient(
+		db.url,
+		async (c) => (await c.query(`select * from notices where lot_id = $1 and kind <> 'alert' order by created_at`, [id])).rows
+	);
+const staffAlertsOf = (id: string) =>
+	withClient(
+		db.url,
+		async (c) => (await c.query(`select * from notices where lot_id = $1 and kind = 'alert' order by created_at`, [id])).rows
+	);
+/**
+ * Every message the SMTP peer received for the lot that went to one of the supplier's addresses.
+ * The peer is shared with other test files (their databases have the same lot codes), so only
+ * messages of this database's outbox count: each carries its notice id in the Message-ID.
+ */
+async function supplierMailsFor(lotCode: string) {
+	const ours = await withClient(db.url, async (c) =>
+		(await c.query('select id from notices')).rows.map((r) => `<notice-${r.id}@restvolt.local>`)
+	);
+	return (await readMail()).filter(
+		(m) => ours.includes(m.messageId) && m.subject.includes(lotCode) && m.envelope.to.some((to) => VOLTARIA_CONTACTS.includes(to))
+	);
+}
+const inTwoWeeks = () => new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10);
+
+/**
+ * After an engine hold or reject: quality's alert is mailed (the outbox has worked through the
+ * transaction's jobs) and the supplier has no notice row and no mail.
+ */
+async function expectReviewWithoutSupplierMail(lotId: string, lotCode: string) {
+	const [alert] = await staffAlertsOf(lotId);
+	expect(alert, 'quality is alerted').toBeDefined();
+	expect(alert.recipients).toContain('quality@kestrel-mobility.example');
+	const [mail] = await waitUntil(async () => {
+		const found = await mailsForNotice(alert.id);
+		return found.length ? found : null;
+	});
+	expect(mail.subject).toMatch(new RegExp(`Lot ${lotCode} on hold for your review`));
+	expect(await noticesOf(lotId)).toHaveLength(0);
+	expect(await supplierMailsFor(lotCode)).toHaveLength(0);
+}
 
 /** Wait for the notice's mail, parse it, and check what every notice must carry. */
 async function readNotice(noticeId: string, lotCode: string, disposition: RegExp) {
@@ -132,53 +175,105 @@ describe('submit → automatic disposition with a notice', () => {
 		expect(notice.message_id).toBe(`<notice-${notice.id}@restvolt.local>`);
 	});
 
-	it('rejects for safety (deep discharge), says so in mail and PDF, and cannot be overridden', async () => {
+	it('an automatic reject (deep discharge) e-mails nobody at the supplier until quality confirms it; then exactly once', async () => {
 		const lot = await measuredLot(buyer, inspector, 'safety');
 		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
 		expect(res.status).toBe(201);
-		expect(res.json.status).toBe('rejected');
+		expect(res.json.evaluation.status).toBe('reject');
 		expect(res.json.evaluation.safety).toBe(true);
-		const { parsed, pdfText: text } = await readNotice(res.json.noticeId, lot.lot_code, /REJECTED/);
+		// Quarantined at once (the tag prints now), but only proposed: no notice.
+		expect(res.json.status).toBe('on_hold');
+		expect(res.json.noticeId).toBeNull();
+		const tag = await fetch(`${app.url}/api/v1/lots/${lot.id}/quarantine-tag.pdf`, { headers: { authorization: `Bearer ${buyer.token}` } });
+		expect(tag.status).toBe(200);
+		await expectReviewWithoutSupplierMail(lot.id, lot.lot_code);
+
+		// A safety finding allows neither release nor use as is, nor sort/rework: only return or scrap.
+		for (const disposition of ['release', 'use_as_is']) {
+			const refused = await decide(lot.id, { disposition, reason: 'Trying to use it', password: DEMO_PASSWORD, due_date: inTwoWeeks() });
+			expect(refused.status, disposition).toBeGreaterThanOrEqual(400);
+		}
+		const released = await decide(lot.id, { disposition: 'release', reason: 'Trying to release', password: DEMO_PASSWORD });
+		expect(released.status).toBe(409);
+		expect(released.json.error.message).toMatch(/must not be recharged/);
+		expect(await supplierMailsFor(lot.lot_code)).toHaveLength(0);
+
+		const reason = 'Deep-discharged cell in the sample; the lot goes back for the supplier to dispose of';
+		const due = inTwoWeeks();
+		const ok = await decide(lot.id, { disposition: 'return_to_supplier', due_date: due, reason, password: DEMO_PASSWORD });
+		expect(ok.status).toBe(200);
+		expect(ok.json.status).toBe('rejected');
+		const { mail, parsed, pdfText: text } = await readNotice(ok.json.noticeId, lot.lot_code, /REJECTED \(return to supplier\)/);
 		expect(parsed.text).toContain('for safety reasons');
 		expect(parsed.text).toMatch(/must not be recharged/);
 		expect(parsed.text).toMatch(/dangerous-goods regulations/);
+		// Which unit, its value and why; the rule and its source; what is asked, by when.
+		expect(parsed.text).toMatch(/SN-\d+: 2\.000 V, rested below its minimum safe voltage \(deep discharge\)/);
+		expect(parsed.text).toMatch(/Rule applied: .*ISO 2859-1:1999, Table I and Table II-A/);
+		expect(parsed.text).toContain(`Reply due by: ${due}`);
+		expect(parsed.text).toContain(
+			`Arrange the return shipment with our buyer (collection date and the dangerous-goods shipping papers) by ${due}.`
+		);
+		expect(parsed.text).not.toMatch(/No action/);
 		expect(text).toMatch(/REJECT/);
-		// No signing challenge is issued for a lot that is not on hold, so nothing can be signed.
-		const challenge = await challengeFor(lot.id, 'accept');
-		expect(challenge.status).toBe(409);
-		const override = await decide(lot.id, { decision: 'accept', reason: 'Trying to release', password: DEMO_PASSWORD });
-		expect(override.status).toBe(422);
-		expect(override.json.error.issues.map((i: { path: string }) => i.path)).toContain('challenge_id');
-		expect((await lotRow(lot.id)).status).toBe('rejected');
+		// Exactly one message reached the supplier for this lot: the confirmed disposition.
+		const reached = await supplierMailsFor(lot.lot_code);
+		expect(reached.map((m) => m.messageId)).toEqual([mail.messageId]);
+		expect(await noticesOf(lot.id)).toHaveLength(1);
+		const stored = await withClient(
+			db.url,
+			async (c) =>
+				(
+					await c.query(`select disposition, supplier_due_date::text as due from decisions where kind = 'override' and lot_id = $1`, [
+						lot.id
+					])
+				).rows
+		);
+		expect(stored).toEqual([{ disposition: 'return_to_supplier', due }]);
 	});
 });
 
 describe('quality review of held lots (e-signed overrides)', () => {
-	it('hold → release: notice for the hold, signature recorded, notice for the release', async () => {
+	it('hold → release: no notice for the hold, signature recorded, one notice for the release', async () => {
 		const lot = await measuredLot(buyer, inspector, 'hold');
 		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
 		expect(res.json.status).toBe('on_hold');
+		expect(res.json.noticeId).toBeNull();
 		expect(res.json.evaluation.reasons.map((r: { code: string }) => r.code)).toContain('documents_missing');
-		const hold = await readNotice(res.json.noticeId, lot.lot_code, /ON HOLD/);
-		expect(hold.parsed.text).toContain('UN 38.3 test summary');
-		expect(hold.parsed.text).toMatch(/Handling cautions/);
-		expect(hold.pdfText).toMatch(/HOLD/);
+		await expectReviewWithoutSupplierMail(lot.id, lot.lot_code);
 
 		// Tokens cannot sign; a wrong password signs nothing; a missing reason is refused.
 		const byToken = await call(quality, `/api/v1/lots/${lot.id}/decision`, {
-			body: { decision: 'accept', reason: 'Released', password: DEMO_PASSWORD }
+			body: { disposition: 'release', reason: 'Released', password: DEMO_PASSWORD }
 		});
 		expect(byToken.status).toBe(403);
 		expect(byToken.json.error.code).toBe('session_required');
-		const wrong = await decide(lot.id, { decision: 'accept', reason: 'Summary received by mail', password: 'not-my-password' });
+		const wrong = await decide(lot.id, { disposition: 'release', reason: 'Summary received by mail', password: 'not-my-password' });
 		expect(wrong.status).toBe(403);
 		expect(wrong.json.error.code).toBe('signature_invalid');
-		const noReason = await decide(lot.id, { decision: 'accept', reason: '', password: DEMO_PASSWORD });
+		const noReason = await decide(lot.id, { disposition: 'release', reason: '', password: DEMO_PASSWORD });
 		expect(noReason.status).toBe(422);
+		// Nothing is chosen for the signer: no disposition, no decision.
+		const noChoice = await decide(lot.id, { decision: 'accept', reason: 'Summary received by mail', password: DEMO_PASSWORD });
+		expect(noChoice.status).toBe(422);
+		expect(noChoice.json.error.issues.map((i: { path: string }) => i.path)).toContain('disposition');
+		// A disposition that rejects does not fit an 'accept' signature; a release asks for no due date.
+		const misfit = await decide(lot.id, {
+			decision: 'accept',
+			disposition: 'scrap',
+			due_date: inTwoWeeks(),
+			reason: 'Scrap it',
+			password: DEMO_PASSWORD
+		});
+		expect(misfit.status).toBe(422);
+		expect(misfit.json.error.issues.map((i: { path: string }) => i.path)).toContain('disposition');
+		const noDue = await decide(lot.id, { disposition: 'use_as_is', reason: 'Deviation for this lot', password: DEMO_PASSWORD });
+		expect(noDue.status).toBe(422);
+		expect(noDue.json.error.issues.map((i: { path: string }) => i.path)).toContain('due_date');
 		expect((await lotRow(lot.id)).status).toBe('on_hold');
 
 		const reason = 'UN 38.3 summary received by mail and checked against the cell type';
-		const ok = await decide(lot.id, { decision: 'accept', reason, password: DEMO_PASSWORD });
+		const ok = await decide(lot.id, { disposition: 'release', reason, password: DEMO_PASSWORD });
 		expect(ok.status).toBe(200);
 		expect(ok.json.status).toBe('accepted');
 		expect((await lotRow(lot.id)).status).toBe('accepted');
@@ -198,7 +293,8 @@ describe('quality review of held lots (e-signed overrides)', () => {
 		const history = await call(buyer, `/api/v1/lots/${lot.id}/decisions`);
 		expect(history.status).toBe(200);
 		expect(history.json.decisions.map((d: { kind: string }) => d.kind)).toEqual(['override', 'automatic']);
-		expect(history.json.notices).toHaveLength(2);
+		expect(history.json.notices.filter((n: { kind: string }) => n.kind !== 'alert')).toHaveLength(1);
+		expect(await supplierMailsFor(lot.lot_code)).toHaveLength(1);
 	});
 
 	it('hold → reject: the reject notice carries the reason and the cautions', async () => {
@@ -206,12 +302,15 @@ describe('quality review of held lots (e-signed overrides)', () => {
 		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
 		expect(res.json.status).toBe('on_hold');
 		const reason = 'Supplier cannot provide a UN 38.3 summary for this cell type';
-		const ok = await decide(lot.id, { decision: 'reject', reason, password: DEMO_PASSWORD });
+		const due = inTwoWeeks();
+		const ok = await decide(lot.id, { disposition: 'sort_rework', due_date: due, reason, password: DEMO_PASSWORD });
 		expect(ok.status).toBe(200);
 		expect(ok.json.status).toBe('rejected');
-		const { parsed, pdfText: text } = await readNotice(ok.json.noticeId, lot.lot_code, /REJECTED/);
+		const { parsed, pdfText: text } = await readNotice(ok.json.noticeId, lot.lot_code, /REJECTED \(sort or rework/);
 		expect(parsed.text).toContain(reason);
 		expect(parsed.text).toMatch(/corrective-action report/);
+		expect(parsed.text).toContain(`the cost is yours by ${due}.`);
+		expect(parsed.text).toContain('UN 38.3 test summary');
 		expect(text).toMatch(/REJECT/);
 		// The quarantine tag exists for the rejected lot and names it.
 		const tag = await fetch(`${app.url}/api/v1/lots/${lot.id}/quarantine-tag.pdf`, { headers: { authorization: `Bearer ${buyer.token}` } });
@@ -242,8 +341,9 @@ describe('quality review of held lots (e-signed overrides)', () => {
 		);
 		expect(rows.map((r) => r.disposition)).toEqual(['hold', 'accept']);
 		expect((await lotRow(lot.id)).status).toBe('accepted');
+		// Quality re-ran the engine, which now accepts: the supplier hears only the release.
 		const kinds = (await noticesOf(lot.id)).map((n) => n.kind);
-		expect(kinds).toEqual(['hold', 'accept']);
+		expect(kinds).toEqual(['accept']);
 		// Only a held lot can be re-evaluated.
 		const again = await postForm(app.url, `/review/${lot.id}?/reevaluate`, {}, qualityCookie);
 		expect(again.status).toBe(409);
@@ -260,21 +360,25 @@ describe('quality review of held lots (e-signed overrides)', () => {
 				[lot.id]
 			)
 		);
-		const res = await decide(lot.id, { decision: 'accept', reason: 'Release anyway', password: DEMO_PASSWORD });
+		const res = await decide(lot.id, { disposition: 'release', reason: 'Release anyway', password: DEMO_PASSWORD });
 		expect(res.status).toBe(409);
-		expect(res.json.error.message).toMatch(/rejected for safety/i);
+		expect(res.json.error.message).toMatch(/safety finding/i);
 		expect((await lotRow(lot.id)).status).toBe('on_hold');
 	});
 });
 
 describe('reports, exports, notices and supplier isolation', () => {
 	let lot: { id: string; lot_code: string; sampleSize: number };
+	let decided: { id: string; lot_code: string };
 	let noticeId: string;
 
 	beforeAll(async () => {
 		lot = await measuredLot(buyer, inspector, 'hold');
-		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
-		noticeId = res.json.noticeId;
+		await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+		// An accepted lot, released at once with its notice, for the supplier to list and acknowledge
+		// (one more lot not accepted would move this supplier × part on to discontinued inspection).
+		decided = await measuredLot(buyer, inspector, 'accept');
+		noticeId = (await call(inspector, `/api/v1/lots/${decided.id}/submit`, { method: 'POST' })).json.noticeId;
 	});
 
 	it('serves the PDF report that poppler reads (lot code and disposition)', async () => {
@@ -326,7 +430,7 @@ describe('reports, exports, notices and supplier isolation', () => {
 	});
 
 	it('lets the supplier list and acknowledge its notice, and hides it from other suppliers (404)', async () => {
-		const mine = await call(voltaria, `/api/v1/notices?lot_id=${lot.id}`);
+		const mine = await call(voltaria, `/api/v1/notices?lot_id=${decided.id}`);
 		expect(mine.status).toBe(200);
 		expect(mine.json.notices.map((n: { id: string }) => n.id)).toContain(noticeId);
 		const others = await call(ferrolith, `/api/v1/notices`);
@@ -339,7 +443,8 @@ describe('reports, exports, notices and supplier isolation', () => {
 		const ack = await call(voltaria, `/api/v1/notices/${noticeId}/acknowledge`, { method: 'POST' });
 		expect(ack.status).toBe(200);
 		expect(ack.json.acknowledgedAt).toBeTruthy();
-		const [row] = (await noticesOf(lot.id)).filter((n) => n.id === noticeId);
+		expect((await call(voltaria, `/api/v1/notices`)).json.notices.every((n: { kind: string }) => n.kind !== 'alert')).toBe(true);
+		const [row] = (await noticesOf(decided.id)).filter((n) => n.id === noticeId);
 		expect(row.acknowledged_at).not.toBeNull();
 	});
 

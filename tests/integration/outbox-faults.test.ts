@@ -46,6 +46,13 @@ const noticeRows = (ids: string[]) =>
 		async (c) => (await c.query('select id, status, attempts, last_error, message_id from notices where id = any($1::uuid[])', [ids])).rows
 	);
 
+/**
+ * The outbox rows a submit wrote: the supplier's notice for a lot released at once, quality's
+ * alert for a lot put on hold for review (the supplier hears of it only after quality decides).
+ */
+const outboxOf = (lotId: string) =>
+	withClient(db.url, async (c) => (await c.query('select id from notices where lot_id = $1', [lotId])).rows.map((r) => r.id as string));
+
 /** Wait until every notice is marked sent, then give the worker time to (wrongly) send again. */
 async function expectEachDeliveredOnce(ids: string[], peerUrl: string) {
 	await waitUntil(async () => (await noticeRows(ids)).every((r) => r.status === 'sent'), 30_000, 'notices marked sent');
@@ -74,7 +81,9 @@ describe('outbox faults', () => {
 			const lot = await measuredLot(buyer, inspector, scenario);
 			const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
 			expect(res.status).toBe(201);
-			ids.push(res.json.noticeId);
+			const written = await outboxOf(lot.id);
+			expect(written).toHaveLength(1);
+			ids.push(...written);
 		}
 		// Several attempts fail while the relay is down; nothing is lost or given up.
 		await waitUntil(async () => (await noticeRows(ids)).every((r) => r.attempts >= 2), 20_000, 'failed attempts');
@@ -92,7 +101,8 @@ describe('outbox faults', () => {
 		const ids: string[] = [];
 		for (const scenario of ['hold', 'accept'] as const) {
 			const lot = await measuredLot(buyer, inspector, scenario);
-			ids.push((await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).json.noticeId);
+			expect((await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).status).toBe(201);
+			ids.push(...(await outboxOf(lot.id)));
 		}
 		await waitUntil(async () => (await noticeRows(ids)).every((r) => r.attempts >= 1), 20_000, 'a failed attempt');
 		await app!.kill(); // SIGKILL: no shutdown hook runs
@@ -114,7 +124,8 @@ describe('outbox faults', () => {
 			for (const [i, scenario] of (['accept', 'hold', 'accept', 'safety'] as const).entries()) {
 				const { buyer, inspector } = await callers((i % 2 === 0 ? app! : second).url);
 				const lot = await measuredLot(buyer, inspector, scenario);
-				ids.push((await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).json.noticeId);
+				expect((await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' })).status).toBe(201);
+				ids.push(...(await outboxOf(lot.id)));
 			}
 			await expectEachDeliveredOnce(ids, peer!.httpUrl);
 		} finally {
@@ -143,6 +154,9 @@ describe('outbox faults', () => {
 		const override = (cookie: string, decision: 'accept' | 'reject', challengeId: string) =>
 			post(cookie, '/decision', {
 				decision,
+				...(decision === 'accept'
+					? { disposition: 'release' }
+					: { disposition: 'return_to_supplier', due_date: new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10) }),
 				reason: `Decided ${decision} in the concurrency test`,
 				password: DEMO_PASSWORD,
 				challenge_id: challengeId

@@ -54,7 +54,13 @@ async function post(path: string, body: unknown, cookie = qualityCookie): Promis
 
 const challenge = (lotId: string, decision: string, cookie = qualityCookie) =>
 	post(`/lots/${lotId}/decision/challenge`, { decision }, cookie);
-const sign = (lotId: string, body: Record<string, unknown>, cookie = qualityCookie) => post(`/lots/${lotId}/decision`, body, cookie);
+/** The disposition that fits each signed decision here: release, or return to the supplier (with a due date). */
+const DISPOSITION_FOR: Record<string, Record<string, unknown>> = {
+	accept: { disposition: 'release' },
+	reject: { disposition: 'return_to_supplier', due_date: new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10) }
+};
+const sign = (lotId: string, body: Record<string, unknown>, cookie = qualityCookie) =>
+	post(`/lots/${lotId}/decision`, { ...DISPOSITION_FOR[String(body.decision)], ...body }, cookie);
 
 /** A lot of Voltaria's held by the engine (the UN 38.3 summary is missing). */
 async function heldLot() {
@@ -230,6 +236,8 @@ describe('the stored manifest', () => {
 			lot_code: lotRow.lot_code,
 			revision: issued.json.revision,
 			decision: 'accept',
+			disposition: 'release',
+			due_date: null,
 			reason,
 			evaluation_id: evaluationId
 		});
@@ -237,7 +245,7 @@ describe('the stored manifest', () => {
 		expect(lotRow.revision).toBe(Number(issued.json.revision) + 1);
 		// Canonical JSON by hand: keys in code-unit order, no white space (RFC 8785 style).
 		const J = JSON.stringify;
-		const canonical = `{"decision":${J('accept')},"evaluation_id":${J(evaluationId)},"lot_code":${J(lotRow.lot_code)},"lot_id":${J(lot.id)},"reason":${J(reason)},"revision":${J(issued.json.revision)}}`;
+		const canonical = `{"decision":${J('accept')},"disposition":${J('release')},"due_date":null,"evaluation_id":${J(evaluationId)},"lot_code":${J(lotRow.lot_code)},"lot_id":${J(lot.id)},"reason":${J(reason)},"revision":${J(issued.json.revision)}}`;
 		expect(m.content_sha256).toBe(createHash('sha256').update(canonical, 'utf8').digest('hex'));
 		expect(audit.details.signature.content_sha256).toBe(m.content_sha256);
 

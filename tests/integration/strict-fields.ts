@@ -229,7 +229,7 @@ export function strictFieldEntries(ids: SeedIds): StrictEntry[] {
 			'qualitySession',
 			fieldsOf(overrideRequestSchema, ['password']),
 			json(`/lots/${A.on_hold}/decision`)({
-				decision: 'accept',
+				disposition: 'release',
 				reason: 'Released after review',
 				password: 'not-the-password',
 				challenge_id: '00000000-0000-4000-8000-000000000000'

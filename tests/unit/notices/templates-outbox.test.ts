@@ -18,6 +18,10 @@ const base: NoticeInput = {
 	safety: false,
 	reasons: ['Missing: UN 38.3 test summary.'],
 	decisionReason: null,
+	disposition: null,
+	dueDate: null,
+	nonconforming: [],
+	rule: null,
 	portalUrl: 'http://127.0.0.1:3000/portal/lots/x'
 };
 
@@ -48,6 +52,52 @@ describe('notice templates', () => {
 		expect(noticeCautions({ ...base, status: 'accepted' })).toEqual([]);
 		expect(noticeCautions({ ...base, lithium: false })).toEqual([]);
 		expect(renderNotice({ ...base, status: 'accepted', kind: 'accept' }).text).not.toContain('Handling cautions');
+	});
+});
+
+describe('notices after a material disposition', () => {
+	const rejected: NoticeInput = {
+		...base,
+		kind: 'override',
+		status: 'rejected',
+		decisionReason: 'Two cells deep-discharged; the lot goes back.',
+		disposition: 'return_to_supplier',
+		dueDate: '2026-12-18',
+		nonconforming: [
+			{ serial: 'VC1865-013-000123', ocvV: 2.412, reason: 'rested below its minimum safe voltage (deep discharge)' },
+			{ serial: 'VC1865-013-000124', ocvV: null, reason: 'outside the part’s voltage window' }
+		],
+		rule: 'Sampling by attributes, normal inspection, level II, AQL 1: code letter F, sample of 20, accept with 0 or fewer nonconforming units, reject with 1 or more (ISO 2859-1:1999, Table I and Table II-A).'
+	};
+
+	it('lists each nonconforming unit with serial, value and reason, and the rule with its source', () => {
+		const n = renderNotice(rejected);
+		for (const body of [n.text, n.html]) {
+			expect(body).toContain('VC1865-013-000123: 2.412 V, rested below its minimum safe voltage (deep discharge)');
+			expect(body).toContain('VC1865-013-000124: no reading, outside the part’s voltage window');
+			expect(body).toContain('ISO 2859-1:1999, Table I and Table II-A');
+		}
+	});
+
+	it('names the disposition and asks for action with the due date, never "No action"', () => {
+		const n = renderNotice(rejected);
+		expect(n.subject).toBe('Quality decision: lot L-2026-00042 REJECTED (return to supplier) (PO PO-77, VC-21700-50G)');
+		const asks = n.text.slice(n.text.indexOf('What we ask of you:'), n.text.indexOf('Handling cautions:'));
+		expect(asks).toContain('Arrange the return shipment with our buyer');
+		expect(asks).toContain('by 2026-12-18.');
+		expect(asks).not.toMatch(/No action/);
+		expect(n.text).toContain('Reply due by: 2026-12-18');
+		for (const disposition of ['use_as_is', 'sort_rework', 'scrap'] as const) {
+			const text = renderNotice({ ...rejected, disposition }).text;
+			expect(text).not.toMatch(/No action/);
+			expect(text).toContain('Send a corrective-action report');
+		}
+	});
+
+	it('a release asks nothing and says so', () => {
+		const n = renderNotice({ ...rejected, status: 'accepted', disposition: 'release', dueDate: null, nonconforming: [] });
+		expect(n.text).toContain('No action is needed');
+		expect(n.text).not.toContain('Reply due by');
 	});
 });
 

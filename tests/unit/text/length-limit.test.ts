@@ -20,11 +20,11 @@ describe('length limits of free text', () => {
 	});
 
 	it('an override reason over 2,000 characters gets a sentence, not the validator’s raw text', () => {
-		const parsed = overrideSchema.safeParse({ decision: 'reject', reason: 'x'.repeat(OVERRIDE_REASON_MAX + 1), password: 'p' });
+		const parsed = overrideSchema.safeParse({ disposition: 'scrap', reason: 'x'.repeat(OVERRIDE_REASON_MAX + 1), password: 'p' });
 		expect(parsed.success).toBe(false);
 		const message = parsed.error?.issues.find((i) => i.path[0] === 'reason')?.message ?? '';
 		expect(message).toMatch(/limited to 2,000 characters/);
 		expect(message).not.toMatch(/Too big|expected string/);
-		expect(overrideSchema.safeParse({ decision: 'reject', reason: 'x'.repeat(OVERRIDE_REASON_MAX), password: 'p' }).success).toBe(true);
+		expect(overrideSchema.safeParse({ disposition: 'scrap', reason: 'x'.repeat(OVERRIDE_REASON_MAX), password: 'p' }).success).toBe(true);
 	});
 });

@@ -6,9 +6,17 @@ import escapeHtml from 'escape-html';
 import { quantity } from '$lib/format';
 import { LOT_STATUS } from '$lib/status';
 import { THEME_HEX } from '../reports/palette';
+import { DISPOSITION, type MaterialDisposition } from '$lib/schemas/disposition';
 
 export type NoticeKind = 'accept' | 'hold' | 'reject' | 'override';
 export type FinalStatus = 'accepted' | 'on_hold' | 'rejected';
+
+/** A unit the decision counts as nonconforming: its serial, the voltage read and why. */
+export interface NonconformingUnit {
+	serial: string;
+	ocvV: number | null;
+	reason: string;
+}
 
 export interface NoticeInput {
 	kind: NoticeKind;
@@ -26,6 +34,13 @@ export interface NoticeInput {
 	reasons: string[];
 	/** The quality manager's reason, for overrides. */
 	decisionReason: string | null;
+	/** The quality manager's material disposition (null for an automatic release). */
+	disposition: MaterialDisposition | null;
+	/** The date (YYYY-MM-DD) by which the supplier is asked to act; null when nothing is asked. */
+	dueDate: string | null;
+	nonconforming: NonconformingUnit[];
+	/** The sampling rule and its source, in words. */
+	rule: string | null;
 	portalUrl: string;
 }
 
@@ -39,6 +54,9 @@ export interface NoticeBody {
 const shout = (status: FinalStatus) => LOT_STATUS[status].word.toUpperCase();
 
 function dispositionSentence(n: NoticeInput): string {
+	if (n.disposition === 'use_as_is') return 'After review by our quality team the lot is used as is under a deviation.';
+	if (n.disposition && n.disposition !== 'release')
+		return `After review by our quality team the lot was rejected${n.safety ? ' for safety reasons' : ''}: ${DISPOSITION[n.disposition].label.toLowerCase()}.`;
 	const after = n.kind === 'override' ? ' after review by our quality team' : '';
 	if (n.status === 'accepted') return `The lot was accepted${after} and released for use.`;
 	if (n.status === 'on_hold') return 'The lot is on hold in our quarantine area until our quality team has reviewed it.';
@@ -46,6 +64,12 @@ function dispositionSentence(n: NoticeInput): string {
 }
 
 function actionsFor(n: NoticeInput): string[] {
+	if (n.disposition) {
+		const asks = DISPOSITION[n.disposition].asks;
+		if (asks.length === 0) return ['No action is needed. Keep the attached inspection report with your shipment records.'];
+		const due = n.dueDate ? ` by ${n.dueDate}` : '';
+		return ['Acknowledge this notice in the supplier portal.', ...asks.map((a) => `${a.replace(/\.$/, '')}${due}.`)];
+	}
 	if (n.status === 'accepted') return ['No action is needed. Keep the attached inspection report with your shipment records.'];
 	const common = [
 		'Acknowledge this notice in the supplier portal.',
@@ -77,8 +101,12 @@ export function noticeCautions(n: Pick<NoticeInput, 'status' | 'lithium' | 'safe
 
 function noticeSubject(n: NoticeInput): string {
 	const prefix = n.kind === 'override' ? 'Quality decision' : 'Inspection result';
-	return `${prefix}: lot ${n.lotCode} ${shout(n.status)} (PO ${n.poNumber}, ${n.partNumber})`;
+	const how = n.disposition && n.disposition !== 'release' ? ` (${DISPOSITION[n.disposition].label.toLowerCase()})` : '';
+	return `${prefix}: lot ${n.lotCode} ${shout(n.status)}${how} (PO ${n.poNumber}, ${n.partNumber})`;
 }
+
+const volts = (v: number | null) => (v === null ? 'no reading' : `${v.toFixed(3)} V`);
+const unitLine = (u: NonconformingUnit) => `${u.serial}: ${volts(u.ocvV)}, ${u.reason}`;
 
 function textBody(n: NoticeInput): string {
 	const lines = [
@@ -90,12 +118,16 @@ function textBody(n: NoticeInput): string {
 		`Purchase order: ${n.poNumber}`,
 		`Part: ${n.partNumber} (${n.partDescription})`,
 		`Quantity: ${quantity(n.quantity)}`,
-		`Disposition: ${shout(n.status)}`,
+		`Disposition: ${shout(n.status)}${n.disposition ? ` (${DISPOSITION[n.disposition].label})` : ''}`,
+		...(n.dueDate ? [`Reply due by: ${n.dueDate}`] : []),
 		'',
 		dispositionSentence(n)
 	];
 	if (n.decisionReason) lines.push('', `Reason given by our quality team: ${n.decisionReason}`);
 	if (n.reasons.length) lines.push('', 'Findings:', ...n.reasons.map((r) => `- ${r}`));
+	if (n.nonconforming.length)
+		lines.push('', 'Nonconforming units (serial: voltage read, reason):', ...n.nonconforming.map((u) => `- ${unitLine(u)}`));
+	if (n.rule) lines.push('', `Rule applied: ${n.rule}`);
 	lines.push('', 'What we ask of you:', ...actionsFor(n).map((a) => `- ${a}`));
 	const cautions = noticeCautions(n);
 	if (cautions.length) lines.push('', 'Handling cautions:', ...cautions.map((c) => `- ${c}`));
@@ -122,11 +154,14 @@ function htmlBody(n: NoticeInput): string {
 		row('Purchase order', n.poNumber),
 		row('Part', `${n.partNumber} (${n.partDescription})`),
 		row('Quantity', quantity(n.quantity)),
-		row('Disposition', shout(n.status)),
+		row('Disposition', `${shout(n.status)}${n.disposition ? ` (${DISPOSITION[n.disposition].label})` : ''}`),
+		n.dueDate ? row('Reply due by', n.dueDate) : '',
 		'</table>',
 		`<p><strong>${e(dispositionSentence(n))}</strong></p>`,
 		n.decisionReason ? `<p>Reason given by our quality team: ${e(n.decisionReason)}</p>` : '',
 		n.reasons.length ? `<h3>Findings</h3>${list(n.reasons)}` : '',
+		n.nonconforming.length ? `<h3>Nonconforming units (serial: voltage read, reason)</h3>${list(n.nonconforming.map(unitLine))}` : '',
+		n.rule ? `<p>Rule applied: ${e(n.rule)}</p>` : '',
 		`<h3>What we ask of you</h3>${list(actionsFor(n))}`,
 		cautions.length ? `<h3>Handling cautions</h3>${list(cautions)}` : '',
 		`<p>The inspection report is attached as a PDF. <a href="${e(n.portalUrl)}">Open the supplier portal</a>.</p>`,

@@ -167,11 +167,15 @@ const lots: ApiOperation[] = [
 		method: 'post',
 		path: '/lots/{id}/decision',
 		tag: 'Decisions',
-		summary: 'Release or reject a held lot (e-signed; interactive sessions only)',
-		description: 'API tokens get 403 session_required: an e-signature needs a person and their password.',
+		summary: 'Record the material disposition of a lot in review (e-signed; interactive sessions only); only then is the supplier notified',
+		description:
+			'disposition: release, use_as_is (deviation), sort_rework (at the supplier’s cost), return_to_supplier or scrap; release and use_as_is accept the lot, the others reject it, and the challenge must be for that decision. due_date (YYYY-MM-DD) is required for every disposition but release. A lot with a safety finding allows only return_to_supplier or scrap (409 safety_disposition). API tokens get 403 session_required: an e-signature needs a person and their password.',
 		body: { schema: overrideRequestSchema },
 		responses: { 200: { description: 'The decision outcome', schema: described('lotId, previousStatus, status, decisionId, noticeId') } },
-		errors: { 409: 'The challenge was used or expired, or the lot changed since (lot_changed)' }
+		errors: {
+			409: 'The challenge was used or expired, or the lot changed since (lot_changed), or the disposition is not allowed after a safety finding',
+			422: 'A disposition that does not fit the decision, or a due date missing, in the past or given for a release'
+		}
 	},
 	{
 		method: 'get',

@@ -3,6 +3,7 @@
  * decisions with who/when/why, notices with delivery and acknowledgement, and supplier replies.
  */
 import { personLabel } from '$lib/people';
+import type { MaterialDisposition } from '$lib/schemas/disposition';
 import { asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Database, Tx } from '../db';
 import { decisions, documents, evaluations, noticeResponses, notices, users } from '../db/schema';
@@ -27,6 +28,9 @@ export interface HistoryDecision {
 	reason: string | null;
 	by: string | null;
 	signed: boolean;
+	/** Quality's material disposition and the supplier's due date (overrides only). */
+	disposition: MaterialDisposition | null;
+	supplierDueDate: string | null;
 }
 
 export interface HistoryReply {
@@ -113,7 +117,9 @@ export async function listDecisions(db: Db, lotId: string): Promise<HistoryDecis
 		toStatus: r.toStatus,
 		reason: r.reason,
 		by: r.decidedBy ? (names.get(r.decidedBy) ?? null) : null,
-		signed: r.signature !== null
+		signed: r.signature !== null,
+		disposition: r.disposition ?? null,
+		supplierDueDate: r.supplierDueDate ?? null
 	}));
 }
 
@@ -169,6 +175,7 @@ export async function decisionTrail(db: Database, user: { role: string }, lot: {
 		links: { report: `${base}/report.pdf`, quarantineTag: held ? `${base}/quarantine-tag.pdf` : null, readings: `${base}/readings.xlsx` },
 		evaluations: evals,
 		decisions: decs,
-		notices: notes
+		// Staff alerts about the lot are internal: a supplier sees only the notices sent to it.
+		notices: user.role === 'supplier' ? notes.filter((n) => n.kind !== 'alert') : notes
 	};
 }

@@ -1,12 +1,16 @@
 /**
- * Dispositions: the engine's decision on submit (and on re-evaluation of a held lot), and the
- * quality manager's e-signed override of a held lot. Each writes the evaluation, the lot status,
- * the decision row, the supplier notice (outbox) and the audit entry in ONE transaction.
+ * Dispositions. The engine's result is a proposal: on submit an 'accept' releases the lot at once
+ * (when the part allows it) and notifies the supplier; 'hold' and 'reject' put the lot on hold
+ * (quarantined at once) in quality's review queue, alert quality staff and tell the supplier
+ * nothing. The quality manager's e-signed material disposition decides the lot, and only then is
+ * the supplier notified. Each step writes its rows, outbox jobs and audit entry in ONE transaction.
  */
 import { verify } from '@node-rs/argon2';
 import { and, desc, eq, sql } from 'drizzle-orm';
 import { getDb, type Tx } from '../db';
-import { decisions, evaluations, lots, users } from '../db/schema';
+import { decisions, evaluations, lots, parts, users } from '../db/schema';
+import { DISPOSITION, SAFETY_DISPOSITIONS, asksSupplier, type MaterialDisposition } from '$lib/schemas/disposition';
+import { alertLotInReview } from './staff-alerts';
 import { Conflict, DomainError, Forbidden, Invalid, NotFound, Throttled } from '../errors';
 import { dateTime } from '$lib/format';
 import { lotStateInText } from '$lib/status';
@@ -23,7 +27,6 @@ import type { FinalStatus } from '../mail/templates';
 import type { SessionUser } from '../../roles';
 
 type LotStatus = (typeof lots.$inferSelect)['status'];
-const STATUS_OF = { accept: 'accepted', hold: 'on_hold', reject: 'rejected' } as const satisfies Record<string, FinalStatus>;
 const SUBMITTABLE: LotStatus[] = ['in_inspection', 'pending_decision'];
 
 export interface DecisionOutcome {
@@ -67,7 +70,9 @@ async function storeEvaluation(tx: Tx, user: SessionUser, evaluation: LotEvaluat
 	return row.id;
 }
 
-const reasonTexts = (e: LotEvaluation) => e.reasons.filter((r) => r.severity !== 'info').map((r) => r.message);
+const reasonTexts = (e: Pick<LotEvaluation, 'reasons'>) => e.reasons.filter((r) => r.severity !== 'info').map((r) => r.message);
+/** The findings of a stored evaluation row (its result JSON), for the notice. */
+const reasonsOfStored = (result: unknown) => reasonTexts({ reasons: (result as Pick<LotEvaluation, 'reasons'> | null)?.reasons ?? [] });
 const withoutInputs = ({ inputs: _inputs, ...rest }: LotEvaluation) => rest;
 
 function assertSampleComplete(evaluation: LotEvaluation): asserts evaluation is LotEvaluation & { status: 'accept' | 'hold' | 'reject' } {
@@ -88,7 +93,23 @@ function earlySubmission(evaluation: LotEvaluation): string | null {
 	return `Submitted early, with ${measured} of ${evaluation.plan.sample_size} sample units measured: ${why.join(' ')}`;
 }
 
-/** Write the engine's decision (status, decision row, notice, audit) for a finished evaluation. */
+/** Whether an engine 'accept' releases lots of this part at once (the part's setting). */
+async function releasesOnAccept(tx: Tx, partId: string): Promise<boolean> {
+	const [part] = await tx.select({ auto: parts.autoReleaseAccept }).from(parts).where(eq(parts.id, partId));
+	return part?.auto ?? true;
+}
+
+/** The decision row's reason when the engine's result waits for quality. */
+function proposalText(evaluation: LotEvaluation, autoRelease: boolean): string {
+	if (evaluation.status === 'accept' && !autoRelease) return 'Engine proposes accept; this part is released only by quality.';
+	const why = evaluation.safety ? ' (safety finding: quarantined)' : '';
+	return `Engine proposes ${evaluation.status}${why}; waiting for quality's disposition.`;
+}
+
+/**
+ * Write the engine's result (status, decision row, audit, webhook) for a finished evaluation:
+ * a release notifies the supplier; anything else goes on hold for review and alerts quality staff.
+ */
 async function applyAutomatic(
 	tx: Tx,
 	user: SessionUser,
@@ -96,9 +117,13 @@ async function applyAutomatic(
 	evaluation: LotEvaluation & { status: 'accept' | 'hold' | 'reject' },
 	from: LotStatus,
 	evaluationId: number,
-	reason: string | null
+	given: string | null
 ) {
-	const status = STATUS_OF[evaluation.status];
+	const autoRelease = await releasesOnAccept(tx, lot.partId);
+	const releases = evaluation.status === 'accept' && autoRelease;
+	const status: FinalStatus = releases ? 'accepted' : 'on_hold';
+	const proposal = proposalText(evaluation, autoRelease);
+	const reason = releases ? given : given ? `${given}. ${proposal}` : proposal;
 	const severity = evaluation.severity;
 	await tx
 		.update(lots)
@@ -109,15 +134,20 @@ async function applyAutomatic(
 		.values({ lotId: evaluation.lot_id, evaluationId, kind: 'automatic', fromStatus: from, toStatus: status, reason, decidedBy: user.id })
 		.returning({ id: decisions.id });
 	await refreshSamplingState(tx, lot.supplierId, lot.partId);
-	const noticeId = await queueNotice(tx, {
-		lotId: evaluation.lot_id,
-		decisionId: decision.id,
-		kind: evaluation.status,
-		status,
-		safety: evaluation.safety,
-		reasons: reasonTexts(evaluation),
-		decisionReason: null
-	});
+	const noticeId = releases
+		? await queueNotice(tx, {
+				lotId: evaluation.lot_id,
+				decisionId: decision.id,
+				kind: 'accept',
+				status,
+				safety: evaluation.safety,
+				reasons: reasonTexts(evaluation),
+				decisionReason: null,
+				disposition: null,
+				dueDate: null
+			})
+		: null;
+	if (!releases) await alertLotInReview(tx, evaluation.lot_id, evaluation.status, evaluation.safety, reasonTexts(evaluation));
 	await recordAudit(tx, {
 		actorId: user.id,
 		actorEmail: user.email,
@@ -125,7 +155,7 @@ async function applyAutomatic(
 		entityType: 'lot',
 		entityId: evaluation.lot_id,
 		lotId: evaluation.lot_id,
-		details: { kind: 'automatic', from, to: status, evaluationId, safety: evaluation.safety, reason }
+		details: { kind: 'automatic', from, to: status, proposal: evaluation.status, evaluationId, safety: evaluation.safety, reason }
 	});
 	await queueWebhookEvent(tx, 'lot.decided', {
 		lot_id: evaluation.lot_id,
@@ -133,6 +163,7 @@ async function applyAutomatic(
 		kind: 'automatic',
 		from,
 		to: status,
+		proposal: evaluation.status,
 		safety: evaluation.safety,
 		reason
 	});
@@ -169,7 +200,7 @@ export async function reevaluateLot(user: SessionUser, lotId: string): Promise<D
 		const evaluation = await evaluateLotNow(tx, lotId);
 		assertSampleComplete(evaluation);
 		const evaluationId = await storeEvaluation(tx, user, evaluation);
-		if (STATUS_OF[evaluation.status] === 'on_hold') {
+		if (evaluation.status !== 'accept' || !(await releasesOnAccept(tx, lot.partId))) {
 			await recordAudit(tx, {
 				actorId: user.id,
 				actorEmail: user.email,
@@ -177,7 +208,7 @@ export async function reevaluateLot(user: SessionUser, lotId: string): Promise<D
 				entityType: 'lot',
 				entityId: lotId,
 				lotId,
-				details: { evaluationId, result: 'hold' }
+				details: { evaluationId, result: evaluation.status }
 			});
 			return {
 				lotId,
@@ -195,7 +226,12 @@ export async function reevaluateLot(user: SessionUser, lotId: string): Promise<D
 }
 
 export interface OverrideInput {
-	decision: 'accept' | 'reject';
+	/** The signed decision; when given it must match the disposition's (release and deviation accept, the rest reject). */
+	decision?: 'accept' | 'reject';
+	/** Null only when nothing was chosen: refused with 422 naming the field. */
+	disposition: MaterialDisposition | null;
+	/** YYYY-MM-DD: required when the disposition asks something of the supplier, refused for a release. */
+	dueDate?: string | null;
 	reason: string;
 	password: string;
 	/** The server-issued signing challenge for this lot, revision and decision (signature-challenges.ts). */
@@ -203,7 +239,36 @@ export interface OverrideInput {
 }
 
 export const SAFETY_RELEASE_REFUSED =
-	'This lot was rejected for safety (a unit rested below its minimum voltage). It cannot be released: deep-discharged lithium-ion units must not be recharged or used.';
+	'This lot has a safety finding (a unit rested below its minimum voltage). It cannot be released or used: deep-discharged lithium-ion units must not be recharged or used.';
+
+const today = () => new Date().toISOString().slice(0, 10);
+
+/** The signed decision behind a disposition, and the supplier's due date it needs (422 naming the field). */
+function checkDisposition(input: OverrideInput): {
+	disposition: MaterialDisposition;
+	decision: 'accept' | 'reject';
+	dueDate: string | null;
+} {
+	const disposition = input.disposition;
+	if (!disposition || !DISPOSITION[disposition]) throw new Invalid('Choose a disposition', [{ path: 'disposition', message: 'Required' }]);
+	const info = DISPOSITION[disposition];
+	if (input.decision && input.decision !== info.decision) {
+		const message = `The disposition "${info.label}" ${info.decision === 'accept' ? 'accepts' : 'rejects'} the lot; it does not fit decision "${input.decision}"`;
+		throw new Invalid(message, [{ path: 'disposition', message }]);
+	}
+	const due = input.dueDate?.trim() || null;
+	if (!asksSupplier(disposition)) {
+		if (due)
+			throw new Invalid('A release asks nothing of the supplier: leave the due date empty', [{ path: 'due_date', message: 'Not asked' }]);
+		return { disposition, decision: info.decision, dueDate: null };
+	}
+	if (!due || !/^\d{4}-\d{2}-\d{2}$/.test(due) || Number.isNaN(Date.parse(due))) {
+		const message = 'Give the date by which the supplier must act (YYYY-MM-DD)';
+		throw new Invalid(message, [{ path: 'due_date', message }]);
+	}
+	if (due < today()) throw new Invalid('The due date is in the past', [{ path: 'due_date', message: 'The due date is in the past' }]);
+	return { disposition, decision: info.decision, dueDate: due };
+}
 
 /**
  * The password check of the e-signature: an attempt is reserved per signer before the hash is
@@ -257,17 +322,21 @@ export async function decideOverride(
 	const reason = input.reason.trim();
 	if (reason.length < 5)
 		throw new Invalid('Give a reason for the decision (at least 5 characters)', [{ path: 'reason', message: 'Required' }]);
+	const { disposition, decision: verdict, dueDate } = checkDisposition(input);
 	const [visible] = await getDb().select({ supplierId: lots.supplierId }).from(lots).where(eq(lots.id, lotId));
 	if (!visible || !can(user, 'lot:read', { supplierId: visible.supplierId })) throw new NotFound('lot');
 	if (!can(user, 'lot:decide', { supplierId: visible.supplierId })) throw new Forbidden('Only quality managers decide held lots');
-	await checkChallenge(getDb(), user, lotId, input.decision, input.challengeId);
+	await checkChallenge(getDb(), user, lotId, verdict, input.challengeId);
 	await verifySignature(user, input.password, ip);
 	return getDb().transaction(async (tx) => {
 		await lockSamplingOfLot(tx, lotId);
-		const challenge = await consumeChallenge(tx, user, lotId, input.decision, input.challengeId);
+		const challenge = await consumeChallenge(tx, user, lotId, verdict, input.challengeId);
 		const latest = await latestEvaluation(tx, lotId);
-		if (input.decision === 'accept' && latest?.safety) throw new Conflict(`Rejected for safety: ${SAFETY_RELEASE_REFUSED}`);
-		const status: FinalStatus = input.decision === 'accept' ? 'accepted' : 'rejected';
+		if (latest?.safety && !SAFETY_DISPOSITIONS.includes(disposition))
+			throw new Conflict(`Only return to supplier or scrap: ${SAFETY_RELEASE_REFUSED}`, 'safety_disposition', [
+				{ path: 'disposition', message: 'Only return to supplier or scrap' }
+			]);
+		const status: FinalStatus = verdict === 'accept' ? 'accepted' : 'rejected';
 		const [won] = await tx
 			.update(lots)
 			.set({ status, decidedAt: new Date(), updatedAt: new Date() })
@@ -283,7 +352,9 @@ export async function decideOverride(
 			lot_id: lotId,
 			lot_code: won.lotCode,
 			revision: challenge.revision,
-			decision: input.decision,
+			decision: verdict,
+			disposition,
+			due_date: dueDate,
 			reason,
 			evaluation_id: latest?.id ?? null
 		};
@@ -297,6 +368,8 @@ export async function decideOverride(
 				fromStatus: 'on_hold',
 				toStatus: status,
 				reason,
+				disposition,
+				supplierDueDate: dueDate,
 				signature,
 				decidedBy: user.id,
 				decidedAt: signedAt
@@ -309,8 +382,10 @@ export async function decideOverride(
 			kind: 'override',
 			status,
 			safety: latest?.safety ?? false,
-			reasons: [],
-			decisionReason: reason
+			reasons: reasonsOfStored(latest?.result),
+			decisionReason: reason,
+			disposition,
+			dueDate
 		});
 		await recordAudit(tx, {
 			actorId: user.id,
@@ -320,7 +395,7 @@ export async function decideOverride(
 			entityId: lotId,
 			lotId,
 			ip,
-			details: { from: 'on_hold', to: status, signature }
+			details: { from: 'on_hold', to: status, disposition, due_date: dueDate, signature }
 		});
 		await queueWebhookEvent(tx, 'lot.decided', {
 			lot_id: lotId,
@@ -329,6 +404,8 @@ export async function decideOverride(
 			kind: 'override',
 			from: 'on_hold',
 			to: status,
+			disposition,
+			due_date: dueDate,
 			reason
 		});
 		return {
@@ -343,7 +420,10 @@ export async function decideOverride(
 	});
 }
 
-/** Held lots for the quality queue, oldest decision first, with the latest evaluation's reasons. */
+/**
+ * Lots in material review (on hold: quarantined, the supplier not yet told), oldest first, with the
+ * engine's proposal, whether it is a safety finding, and the latest evaluation's reasons.
+ */
 export async function reviewQueue() {
 	const rows = await getDb().execute<{
 		id: string;
@@ -354,10 +434,13 @@ export async function reviewQueue() {
 		quantity: number;
 		decided_at: Date | string | null;
 		result: { reasons?: { code: string; severity: string; message: string }[] } | null;
+		proposal: 'pending' | 'accept' | 'hold' | 'reject' | null;
+		safety: boolean | null;
 	}>(sql`
 		select l.id, l.lot_code, l.po_number, o.name as supplier, p.part_number, l.quantity, l.decided_at,
-		       (select e.result from evaluations e where e.lot_id = l.id order by e.id desc limit 1) as result
+		       e.result, e.disposition as proposal, e.safety
 		from lots l join organisations o on o.id = l.supplier_id join parts p on p.id = l.part_id
+		left join lateral (select result, disposition, safety from evaluations where lot_id = l.id order by id desc limit 1) e on true
 		where l.status = 'on_hold'
 		order by l.decided_at asc nulls last, l.created_at asc`);
 	return rows.rows.map((r) => ({
@@ -368,6 +451,8 @@ export async function reviewQueue() {
 		partNumber: r.part_number,
 		quantity: r.quantity,
 		heldSince: r.decided_at ? new Date(r.decided_at).toISOString() : null,
+		proposal: r.proposal,
+		safety: r.safety ?? false,
 		reasons: (r.result?.reasons ?? []).filter((x) => x.severity !== 'info')
 	}));
 }

@@ -12,6 +12,8 @@ import { NotFound } from '../errors';
 import { recordAudit } from './audit';
 import { queueWebhookEvent } from './webhooks';
 import { appOrigin } from '../origin';
+import { noticeFacts } from './notice-facts';
+import type { MaterialDisposition } from '$lib/schemas/disposition';
 import type { SessionUser } from '../../roles';
 
 type Db = Database | Tx;
@@ -27,6 +29,8 @@ export interface QueueNoticeInput {
 	safety: boolean;
 	reasons: string[];
 	decisionReason: string | null;
+	disposition: MaterialDisposition | null;
+	dueDate: string | null;
 }
 
 /** Who gets notices: the supplier's notice contacts, else its active portal users. */
@@ -67,6 +71,7 @@ export async function queueNotice(tx: Tx, input: QueueNoticeInput): Promise<stri
 	}
 	const body = renderNotice({
 		...input,
+		...(await noticeFacts(tx, input.lotId)),
 		companyName: await ownCompanyName(tx),
 		supplierName: row.supplierName,
 		lotCode: row.lot.lotCode,

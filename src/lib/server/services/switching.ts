@@ -72,11 +72,17 @@ interface HistoryRow extends Record<string, unknown> {
 
 const iso = (d: Date | string) => (d instanceof Date ? d : new Date(d)).toISOString();
 
+/** The lot state an engine result stands for (an accept that waits for quality still counts as accepted). */
+const ORIGINAL_OF_EVALUATION = sql.raw(
+	`case e.disposition when 'accept' then 'accepted' when 'hold' then 'on_hold' when 'reject' then 'rejected' end`
+);
+
 async function decidedLots(db: Database | Tx, supplierId: string, partId: string, opts: SeverityOptions): Promise<HistoryRow[]> {
 	const before = opts.before ?? null;
 	const result = await db.execute<HistoryRow>(sql`
 		select l.id as lot_id, l.lot_code, l.quantity, l.resubmitted,
-		       coalesce(d.to_status::text, l.status::text) as original_status,
+		       -- the engine's result on original inspection (its proposal; quality may decide otherwise later)
+		       coalesce(${ORIGINAL_OF_EVALUATION}, d.to_status::text, l.status::text) as original_status,
 		       coalesce(d.decided_at, l.decided_at) as decided_at,
 		       (e.result->>'nonconforming')::int as nonconforming,
 		       e.severity::text as severity_used

@@ -7,6 +7,7 @@ import { can } from '$lib/server/policy';
 import { overrideSchema } from '$lib/schemas/decision';
 import { listDecisions } from '$lib/server/services/decision-history';
 import { decideOverride, reevaluateLot, SAFETY_RELEASE_REFUSED } from '$lib/server/services/decisions';
+import { DISPOSITION } from '$lib/schemas/disposition';
 import { getLotForUser } from '$lib/server/services/lots';
 import { buildReportData } from '$lib/server/services/report-data';
 import { issueChallenge } from '$lib/server/services/signature-challenges';
@@ -58,15 +59,19 @@ export const actions: Actions = {
 		if (!form.valid) return fail(400, { form });
 		if (event.locals.authMethod !== 'session') return message(form, 'Sign in interactively to sign a decision.', { status: 403 });
 		try {
-			const challengeId = String(data.get(form.data.decision === 'accept' ? 'challenge_accept' : 'challenge_reject') ?? '');
-			const outcome = await decideOverride(user, event.params.id, { ...form.data, password, challengeId }, event.getClientAddress());
-			return message(
-				form,
-				`Recorded: the lot is now ${outcome.status === 'accepted' ? 'released (accepted)' : 'rejected'}. The supplier notice is queued.`
-			);
+			const { disposition, due_date: dueDate, reason } = form.data;
+			if (!disposition) return setError(form, 'disposition', 'Choose a disposition');
+			const decision = DISPOSITION[disposition].decision;
+			const challengeId = String(data.get(decision === 'accept' ? 'challenge_accept' : 'challenge_reject') ?? '');
+			const input = { disposition, dueDate, reason, password, challengeId };
+			const outcome = await decideOverride(user, event.params.id, input, event.getClientAddress());
+			const told = outcome.noticeId ? 'The supplier notice is queued.' : 'The supplier has nobody to notify (see the audit trail).';
+			return message(form, `Recorded: ${DISPOSITION[disposition].label.toLowerCase()}; the lot is now ${outcome.status}. ${told}`);
 		} catch (e) {
 			const refusal = refusalOf(e);
 			if (refusal.code === 'signature_invalid') return setError(form, 'password', refusal.message, { status: 403 });
+			const field = refusal.field;
+			if (field === 'due_date' || field === 'disposition') return setError(form, field, refusal.message, { status: refusal.status as 400 });
 			return message(form, refusal.message, { status: refusal.status as 400 });
 		}
 	},
