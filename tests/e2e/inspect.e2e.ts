@@ -106,7 +106,7 @@ test('keyboard entry, live feedback, retry after a network error, meter import a
 	await expect(page.getByLabel('OCV unit')).toHaveValue('mV');
 	await expect(page.getByTestId('import-errors')).toContainText('Row 5, OCV: “oops” is not a number');
 	await shot(page, 'import-preview');
-	await page.getByText('Leave out rows with errors').click();
+	await page.getByLabel('Leave out rows with errors').check();
 	await page.getByRole('button', { name: 'Import 2 reading(s)' }).click();
 	await expect(page.getByTestId('import-message')).toContainText(
 		'Imported 2 reading(s) from bench-meter.csv; 1 row(s) with errors left out'
