@@ -2,7 +2,8 @@
  * Evaluations computed per bench save: what the inspection page makes the server do when an
  * inspector saves a reading. Per save, as the page does it (routes/(app)/lots/[id]/inspect): POST
  * the row to /api/v1/lots/{id}/readings; when the lot was still awaiting arrival, reload the page
- * data (invalidate); then GET the evaluation summary. The app logs one line per evaluation it
+ * data (invalidate); then GET the evaluation (in full: the grid shows each unit's flags from it). The
+ * page's load reads the cached evaluation, so opening it computes at most one. The app logs one line per evaluation it
  * computes (LOG_EVALUATIONS=on, services/evaluation.ts); the lines naming the lot are counted.
  * Each round is a fresh lot awaiting arrival, opened once (not counted), then SAVES saves; the value
  * is the median over rounds of computations ÷ saves. Floor: the one computation a save needs.
@@ -32,7 +33,7 @@ function pageClient(baseUrl: string, cookie: string) {
 	return {
 		openPage: (lotId: string) => request(`/lots/${lotId}/inspect`),
 		reloadPageData: (lotId: string) => request(`/lots/${lotId}/inspect/__data.json`),
-		evaluationSummary: (lotId: string) => request(`/api/v1/lots/${lotId}/evaluation?detail=summary`),
+		evaluation: (lotId: string) => request(`/api/v1/lots/${lotId}/evaluation`),
 		saveReading: (lotId: string, reading: { serial: string; ocv_v: number; temperature_c: number }) =>
 			request(`/api/v1/lots/${lotId}/readings`, {
 				method: 'POST',
@@ -52,13 +53,12 @@ export async function benchEvaluationsPerSave(ctx: BenchContext): Promise<BenchL
 	for (let round = 0; round < ROUNDS; round++) {
 		const lotId = await withClient(ctx.databaseUrl, (c) => createBenchLot(c, ctx.part, 5000, 'SAVE', 'awaiting_arrival'));
 		await page.openPage(lotId);
-		await page.evaluationSummary(lotId);
 		const before = await computations(lotId);
 		let status = 'awaiting_arrival';
 		for (const reading of syntheticReadings(SAVES, 10 + round)) {
 			await page.saveReading(lotId, reading);
 			if (status === 'awaiting_arrival') await page.reloadPageData(lotId);
-			await page.evaluationSummary(lotId);
+			await page.evaluation(lotId);
 			status = 'in_inspection';
 		}
 		perSave.push(((await computations(lotId)) - before) / SAVES);
