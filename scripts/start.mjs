@@ -25,13 +25,27 @@ async function shutdown(code = 0) {
 process.on('SIGINT', () => shutdown(0));
 process.on('SIGTERM', () => shutdown(0));
 
+/**
+ * The first line of an error and of its causes, joined: a failed query's own message names only the
+ * statement, its cause says why (e.g. "connect ECONNREFUSED 127.0.0.1:5432").
+ */
+function oneLineReason(error) {
+	const parts = [];
+	for (let e = error; e !== undefined && e !== null && parts.length < 3; e = e instanceof Error ? e.cause : undefined) {
+		const text = e instanceof Error ? e.message || e.code || e.name : String(e);
+		const line = String(text).split('\n')[0].trim();
+		if (line) parts.push(line);
+	}
+	return parts.join(': ');
+}
+
 /** One step: a line saying what happens, the work, and on failure a one-line reason and a clean stop. */
 async function step(what, work) {
 	console.log(`[restvolt] ${what}…`);
 	try {
 		return await work();
 	} catch (error) {
-		console.error(`[restvolt] ${what} failed: ${error instanceof Error ? error.message : String(error)}`);
+		console.error(`[restvolt] ${what} failed: ${oneLineReason(error)}`);
 		await shutdown(1);
 	}
 }

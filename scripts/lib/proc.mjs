@@ -42,8 +42,13 @@ export function runLogged(cmd, args, { logFile, ...opts }) {
 	});
 }
 
+/** The log's last lines, stack frames left out: a failed build ends in rollup's frames, its reason comes before them. */
 function printTail(logFile, lines = 30) {
-	const tail = readFileSync(logFile, 'utf8').trimEnd().split('\n').slice(-lines);
+	const tail = readFileSync(logFile, 'utf8')
+		.trimEnd()
+		.split('\n')
+		.filter((line) => !/^\s+at /.test(line))
+		.slice(-lines);
 	console.error(`--- last ${tail.length} lines of ${logFile} ---\n${tail.join('\n')}\n---`);
 }
 
