@@ -9,6 +9,7 @@ import { evaluationBody } from '$lib/server/services/evaluation-cache';
 import { getLotForUser } from '$lib/server/services/lots';
 import { correctReading, listReadings } from '$lib/server/services/readings';
 import type { Actions, PageServerLoad } from './$types';
+import { correctionMessages } from './entry-messages';
 
 /** Readings shown on the page; older ones stay in the lot's readings list and export. */
 const SHOWN = 300;
@@ -79,7 +80,11 @@ export const actions: Actions = {
 			reason: form.get('reason') ?? ''
 		});
 		if (!parsed.success) {
-			const errors = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0] ?? 'form'), i.message]));
+			const issues = Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0] ?? 'form'), i.message]));
+			const errors = correctionMessages(issues, {
+				ocv_v: String(form.get('ocv_v') ?? ''),
+				temperature_c: String(form.get('temperature_c') ?? '')
+			});
 			return fail(400, { readingId, errors, message: errors.form ?? 'Check the marked fields.' });
 		}
 		try {

@@ -20,7 +20,7 @@ function serialProblem(text: string): string | null {
 	return null;
 }
 
-function ocvProblem(text: string): string | null {
+export function ocvProblem(text: string): string | null {
 	if (text.trim() === '') return 'OCV is missing: type the voltage the meter shows, in volts.';
 	const v = numberFromField(text);
 	if (!Number.isFinite(v)) return `OCV must be a number in volts, like 3.652; “${text.trim()}” is not.`;
@@ -29,7 +29,7 @@ function ocvProblem(text: string): string | null {
 	return null;
 }
 
-function temperatureProblem(text: string): string | null {
+export function temperatureProblem(text: string): string | null {
 	if (text.trim() === '') return 'Temperature is missing: type the cell or bench temperature in °C.';
 	const t = numberFromField(text);
 	if (!Number.isFinite(t)) return `Temperature must be a number in °C, like 23.5; “${text.trim()}” is not.`;
@@ -55,4 +55,22 @@ export function entryProblems(entry: EntryText): Partial<Record<EntryField, stri
 		['resistance', resistanceProblem(entry.resistance)]
 	];
 	return Object.fromEntries(found.filter((f): f is [EntryField, string] => f[1] !== null));
+}
+
+/** A correction's field: blank keeps the stored value; anything typed must be a value the entry row would take. */
+export function correctionProblem(field: 'ocv_v' | 'temperature_c', text: string): string | null {
+	if (text.trim() === '') return null;
+	return field === 'ocv_v' ? ocvProblem(text) : temperatureProblem(text);
+}
+
+/** The correction form's refusals as sentences (the schema's codes stay for the API). */
+export function correctionMessages(issues: Record<string, string>, form: { ocv_v: string; temperature_c: string }): Record<string, string> {
+	const out: Record<string, string> = {};
+	for (const [field, message] of Object.entries(issues)) {
+		if (field === 'ocv_v' || field === 'temperature_c') out[field] = correctionProblem(field, form[field]) ?? message;
+		else if (field === 'reason') out.reason = 'The reason is missing or too short: say why the value was wrong (at least 3 characters).';
+		else if (field === 'form') out.form = 'Nothing changed: type the right OCV or temperature, or press Cancel.';
+		else out[field] = message;
+	}
+	return out;
 }
