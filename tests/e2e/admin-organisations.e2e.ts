@@ -23,7 +23,7 @@ test.afterAll(async () => {
 	await db?.drop();
 });
 
-test('an organisation is edited and each change shows in its history', async ({ page }) => {
+test('an organisation is edited and each change shows in its history', async ({ page, browser }) => {
 	const [a, b] = await withClient(
 		db.url,
 		async (c) => (await c.query(`select id, name from organisations where kind = 'supplier' order by name limit 2`)).rows
@@ -67,4 +67,13 @@ test('an organisation is edited and each change shows in its history', async ({ 
 				.rows[0].n
 	);
 	expect(audited).toBe(1);
+
+	// Buyers see the new address on the supplier's page.
+	const buyer = await browser.newContext();
+	const buyerPage = await buyer.newPage();
+	await signInPage(buyerPage, app.url, 'buyer@kestrel-mobility.example');
+	await buyerPage.goto(`${app.url}/suppliers/${a.id}`);
+	await expect(buyerPage.locator('address')).toHaveText('Unit 4, Harbour Lane\nPortmere 4410');
+	await shot(buyerPage, 'supplier-page-address');
+	await buyer.close();
 });

@@ -7,7 +7,7 @@
 import { describe, expect, it } from 'vitest';
 import { getDb } from '$lib/server/db';
 import { getOrganisation, organisationHistory, updateOrganisation } from '$lib/server/services/organisations';
-import { saveContact } from '$lib/server/services/suppliers';
+import { getSupplier, saveContact } from '$lib/server/services/suppliers';
 import { Conflict } from '$lib/server/errors';
 import type { SessionUser } from '$lib/roles';
 import { useServiceDatabase } from '../helpers/service-db';
@@ -46,6 +46,9 @@ describe('editing an organisation', () => {
 			{ field: 'name', from: a.name, to: `${a.name} GmbH` },
 			{ field: 'address', from: null, to: 'Unit 4, Harbour Lane\nPortmere 4410' }
 		]);
+
+		// The supplier page (getSupplier) shows the new address.
+		expect((await getSupplier(getDb(), a.id))?.address).toBe('Unit 4, Harbour Lane\nPortmere 4410');
 
 		// Saving the same values again records nothing.
 		expect(

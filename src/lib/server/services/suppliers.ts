@@ -17,6 +17,7 @@ export interface Supplier {
 	id: string;
 	name: string;
 	country: string | null;
+	address: string | null;
 	createdAt: Date;
 	contacts: SupplierContact[];
 	partCount: number;
@@ -64,6 +65,7 @@ export async function listSuppliers(db: Database): Promise<Supplier[]> {
 			id: organisations.id,
 			name: organisations.name,
 			country: organisations.country,
+			address: organisations.address,
 			createdAt: organisations.createdAt
 		})
 		.from(organisations)

@@ -19,7 +19,7 @@ export const load: PageServerLoad = async ({ locals, params }) => {
 	const parts = await listParts(db, { supplier_id: supplier.id });
 	const severities = await Promise.all(parts.map((p) => currentSeverity(db, supplier.id, p.id)));
 	return {
-		supplier: { id: supplier.id, name: supplier.name, country: supplier.country, contacts: supplier.contacts },
+		supplier: { id: supplier.id, name: supplier.name, country: supplier.country, address: supplier.address, contacts: supplier.contacts },
 		parts: parts.map((p, i) => ({
 			id: p.id,
 			partNumber: p.partNumber,
