@@ -61,7 +61,7 @@ export async function scorecardPdf(card: Scorecard, generatedAt: Date): Promise<
 	sectionTitle(cursor, `Parts (${card.parts.length})`, 60);
 	drawTable(
 		cursor,
-		columnsOf(PART_HEADERS, [1.2, 2.4, 0.9, 0.9, 0.6, 0.7, 1.1, 1], ['', '', '', '%', '', '', 'ppm', ''], 2),
+		columnsOf(PART_HEADERS, [1.2, 1.7, 1, 1.2, 0.6, 0.7, 1.6, 1.1], ['', '', '', '%', '', '', 'ppm', ''], 2),
 		partRows(card),
 		{
 			continuedTitle: 'Parts (continued)'

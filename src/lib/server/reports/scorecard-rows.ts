@@ -9,15 +9,15 @@ import type { Scorecard, ScorecardTotals } from '../services/scorecards';
 
 export type Figure = readonly [label: string, value: number | string | null, unit: string];
 
-/** Rates as percent (0–100) and nonconforming units per million inspected; null where nothing was decided. */
+/** Accepted, held and rejected on original inspection (the scope says so). Rates as percent (0–100) and nonconforming units per million inspected; null where nothing was decided. */
 export function totalFigures(t: ScorecardTotals): Figure[] {
 	return [
 		['Lots received', t.lotsReceived, 'lots'],
 		['Lots decided', t.lotsDecided, 'lots'],
-		['Accepted on original inspection', t.accepted, 'lots'],
-		['Held on original inspection', t.held, 'lots'],
+		['Accepted', t.accepted, 'lots'],
+		['Held', t.held, 'lots'],
 		['Released after hold', t.releasedAfterHold, 'lots'],
-		['Rejected on original inspection', t.rejected, 'lots'],
+		['Rejected', t.rejected, 'lots'],
 		['Rejected in the end', t.finalRejected, 'lots'],
 		['Acceptance rate', t.acceptanceRate === null ? null : t.acceptanceRate * 100, '%'],
 		['Units inspected', t.unitsInspected, 'units'],
