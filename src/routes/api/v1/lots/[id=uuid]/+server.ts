@@ -1,19 +1,16 @@
 import { json } from '@sveltejs/kit';
-import { api, authorize, notFound } from '$lib/server/http';
-import { ownOrganisation } from '$lib/server/policy';
+import { api } from '$lib/server/http';
+import { visibleLot } from '$lib/server/route-helpers';
 import { getDb } from '$lib/server/db';
-import { getLotForUser, lotJson } from '$lib/server/services/lots';
+import { lotJson } from '$lib/server/services/lots';
 import { listDocuments, documentJson, missingDocuments } from '$lib/server/services/documents';
 import { getPart } from '$lib/server/services/parts';
 import type { RequestHandler } from './$types';
 
 /** GET /api/v1/lots/{id} — the lot with its documents; another supplier's lot is 404. */
 export const GET: RequestHandler = api(async (event) => {
-	const user = authorize(event, 'lot:read', ownOrganisation(event.locals.user));
+	const { lot } = await visibleLot(event, event.params.id, 'lot:read');
 	const db = getDb();
-	const lot = await getLotForUser(db, user, event.params.id);
-	if (!lot) throw notFound('lot');
-	authorize(event, 'lot:read', { supplierId: lot.supplierId });
 	const docs = await listDocuments(db, lot.id);
 	const part = await getPart(db, lot.partId);
 	return json({

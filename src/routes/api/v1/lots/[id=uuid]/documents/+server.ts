@@ -1,7 +1,7 @@
 import { json, type RequestEvent } from '@sveltejs/kit';
 import { statusOf } from '$lib/server/error-status';
 import { api, authorize, badRequest, conflict, notFound, parseWith, unprocessable } from '$lib/server/http';
-import { ownOrganisation } from '$lib/server/policy';
+import { visibleLot } from '$lib/server/route-helpers';
 import { getDb } from '$lib/server/db';
 import { megabytes } from '$lib/format';
 import { getLotForUser } from '$lib/server/services/lots';
@@ -13,19 +13,12 @@ import type { RequestHandler } from './$types';
 // Multipart framing around the file is small; anything much larger than the limit is refused unread.
 const MULTIPART_OVERHEAD = 64 * 1024;
 
-async function visibleLot(event: RequestEvent<{ id: string }>) {
-	const user = event.locals.user;
-	authorize(event, 'document:read', ownOrganisation(user));
-	const lot = await getLotForUser(getDb(), user!, event.params.id);
-	if (!lot) throw notFound('lot');
-	// Second check on the lot's own supplier (as the other lot routes do), not only the lookup's filter.
-	authorize(event, 'document:read', { supplierId: lot.supplierId });
-	return { user: user!, lot };
-}
+/** The lot whose documents are read: 404 for another supplier's. */
+const documentsLot = (event: RequestEvent<{ id: string }>) => visibleLot(event, event.params.id, 'document:read');
 
 /** GET /api/v1/lots/{id}/documents — the lot's documents (metadata only). */
 export const GET: RequestHandler = api(async (event) => {
-	const { lot } = await visibleLot(event);
+	const { lot } = await documentsLot(event);
 	const docs = await listDocuments(getDb(), lot.id);
 	return json({ documents: docs.map(documentJson) });
 });

@@ -1,9 +1,8 @@
 import { json } from '@sveltejs/kit';
 import { z } from 'zod';
 import { getDb } from '$lib/server/db';
-import { api, authorize, notFound, readJson } from '$lib/server/http';
-import { ownOrganisation } from '$lib/server/policy';
-import { getLotForUser } from '$lib/server/services/lots';
+import { api, readJson } from '$lib/server/http';
+import { visibleLot } from '$lib/server/route-helpers';
 import { addReadings, listReadings } from '$lib/server/services/readings';
 import type { RequestHandler } from './$types';
 
@@ -12,12 +11,8 @@ const envelope = z.object({ readings: z.array(z.unknown()) });
 
 /** GET /api/v1/lots/{id}/readings — every stored reading, oldest first. */
 export const GET: RequestHandler = api(async (event) => {
-	const user = authorize(event, 'lot:read', ownOrganisation(event.locals.user));
-	const db = getDb();
-	const lot = await getLotForUser(db, user, event.params.id);
-	if (!lot) throw notFound('lot');
-	authorize(event, 'lot:read', { supplierId: lot.supplierId });
-	const readings = await listReadings(db, lot.id);
+	const { lot } = await visibleLot(event, event.params.id, 'lot:read');
+	const readings = await listReadings(getDb(), lot.id);
 	return json({ lot_id: lot.id, count: readings.length, readings });
 });
 
@@ -26,11 +21,8 @@ export const GET: RequestHandler = api(async (event) => {
  * lot_status, arrived, stored: [{client_key, id}] for the rows sent with a client_key}.
  */
 export const POST: RequestHandler = api(async (event) => {
-	const user = authorize(event, 'reading:write');
+	const { user, lot } = await visibleLot(event, event.params.id, 'reading:write');
 	const db = getDb();
-	const lot = await getLotForUser(db, user, event.params.id);
-	if (!lot) throw notFound('lot');
-	authorize(event, 'reading:write', { supplierId: lot.supplierId });
 	const body = await readJson(event.request, envelope);
 	const source = event.locals.authMethod === 'token' ? 'api' : 'keyboard';
 	const result = await addReadings(db, user, lot.id, body.readings, source);
