@@ -1,6 +1,7 @@
 /**
- * Quality reviews a held lot in Chromium and releases it with an e-signature (reason + password);
- * the supplier then reads the notice in the portal, opens the PDF report, acknowledges the notice
+ * Quality reviews a held lot in Chromium and releases it with an e-signature (reason + password),
+ * choosing the disposition itself (nothing is pre-selected); the engine's hold and its safety
+ * reject sent the supplier nothing. The supplier then reads the one notice in the portal, opens the PDF report, acknowledges the notice
  * and replies with a corrective-action document, which the buyer sees on the lot page.
  * Screenshots go to tests/artifacts/screens/review; the report and tag PDFs are saved beside them.
  */
@@ -55,6 +56,11 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	await page.goto(`${app.url}/review`);
 	const item = page.locator(`[data-lot-code="${held.lot_code}"]`);
 	await expect(item).toContainText('Missing: UN 38.3 test summary');
+	await expect(item.getByTestId('proposal')).toContainText('Engine proposes hold');
+	// The engine's safety reject waits here too, quarantined, until quality confirms it.
+	const safetyItem = page.locator(`[data-lot-code="${other.lot_code}"]`);
+	await expect(safetyItem.getByTestId('proposal')).toContainText('Engine proposes reject');
+	await expect(safetyItem.getByTestId('proposal')).toContainText('safety finding');
 	await shot(page, 'review-queue');
 
 	await item.getByRole('link', { name: held.lot_code }).click();
@@ -62,11 +68,26 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	await expect(page.getByRole('heading', { name: 'Plots' })).toBeVisible();
 	await expect(page.locator('svg').first()).toBeVisible();
 
-	// Without a password nothing is signed.
-	await page.getByLabel('Release (accept)').check();
+	// No disposition is chosen for the manager; signing without one is refused.
+	const dispositions = page.getByRole('radio');
+	await expect(dispositions).toHaveCount(5);
+	await expect(page.getByRole('radio', { checked: true })).toHaveCount(0);
+	await shot(page, 'review-form-nothing-chosen');
+	await page.getByLabel(/^Reason/).fill('UN 38.3 summary received by mail and checked');
+	await page.getByLabel('Your password (signature)').fill('restvolt-demo-2026');
+	await page.getByRole('button', { name: 'Sign disposition and notify supplier' }).click();
+	await expect(page.getByText('Choose a disposition')).toBeVisible();
+	// A disposition that asks something of the supplier asks for a due date.
+	await page.getByLabel('Return to supplier').check();
+	await expect(page.getByLabel('Supplier to act by')).toBeVisible();
+	await shot(page, 'review-form-return-due-date');
+
+	// Without the right password nothing is signed.
+	await page.getByLabel('Release', { exact: false }).first().check();
+	await expect(page.getByLabel('Supplier to act by')).toHaveCount(0);
 	await page.getByLabel(/^Reason/).fill('UN 38.3 summary received by mail and checked');
 	await page.getByLabel('Your password (signature)').fill('wrong-password');
-	await page.getByRole('button', { name: 'Sign and record decision' }).click();
+	await page.getByRole('button', { name: 'Sign disposition and notify supplier' }).click();
 	await expect(page.getByText('The password is not correct; nothing was decided.')).toBeVisible();
 	await shot(page, 'review-wrong-password');
 
@@ -78,7 +99,7 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	form.set('file', new Blob([Buffer.from(`%PDF-1.4\n% supplier letter ${held.id}\n%%EOF\n`)], { type: 'application/pdf' }), 'letter.pdf');
 	expect((await call(buyer, `/api/v1/lots/${held.id}/documents`, { form })).status).toBe(201);
 	await page.getByLabel('Your password (signature)').fill('restvolt-demo-2026');
-	await page.getByRole('button', { name: 'Sign and record decision' }).click();
+	await page.getByRole('button', { name: 'Sign disposition and notify supplier' }).click();
 	await expect(page.getByTestId('decision-message')).toContainText('The lot changed since the signing challenge was issued');
 	// The page reloads with fresh challenges for the lot's new revision before it signs again.
 	const revision = await withClient(
@@ -89,12 +110,12 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	await shot(page, 'review-lot-changed');
 
 	// The reloaded form starts over: the manager reviews the lot again and signs anew.
-	await page.getByLabel('Release (accept)').check();
+	await page.getByLabel('Release', { exact: false }).first().check();
 	await page.getByLabel(/^Reason/).fill('UN 38.3 summary received by mail and checked; supplier letter read');
 	await page.getByLabel('Your password (signature)').fill('restvolt-demo-2026');
-	await page.getByRole('button', { name: 'Sign and record decision' }).click();
-	await expect(page.getByTestId('decision-message')).toContainText('released (accepted)');
-	await expect(page.getByRole('button', { name: 'Sign and record decision' })).toHaveCount(0);
+	await page.getByRole('button', { name: 'Sign disposition and notify supplier' }).click();
+	await expect(page.getByTestId('decision-message')).toContainText('release; the lot is now accepted');
+	await expect(page.getByRole('button', { name: 'Sign disposition and notify supplier' })).toHaveCount(0);
 	await shot(page, 'review-released');
 	const status = await withClient(db.url, async (c) => (await c.query('select status from lots where id = $1', [held.id])).rows[0].status);
 	expect(status).toBe('accepted');
@@ -107,9 +128,10 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	expect(signature.content_sha256).toMatch(/^[0-9a-f]{64}$/);
 	expect(used).toBeTruthy();
 
-	// The safety-rejected lot is not in the queue; its review page offers no release.
+	// The released lot has left the queue; the safety reject still waits for quality.
 	await page.goto(`${app.url}/review`);
-	await expect(page.locator(`[data-lot-code="${other.lot_code}"]`)).toHaveCount(0);
+	await expect(page.locator(`[data-lot-code="${held.lot_code}"]`)).toHaveCount(0);
+	await expect(page.locator(`[data-lot-code="${other.lot_code}"]`)).toHaveCount(1);
 
 	await savePdf(page.request, `/api/v1/lots/${held.id}/report.pdf`, 'report-released');
 	await savePdf(page.request, `/api/v1/lots/${other.id}/quarantine-tag.pdf`, 'tag-safety-reject');
@@ -119,8 +141,11 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 test('the supplier reads the notice and the report, acknowledges and replies', async ({ page }) => {
 	await waitUntil(
 		async () => {
-			const rows = await withClient(db.url, async (c) => (await c.query(`select status from notices where lot_id = $1`, [held.id])).rows);
-			return rows.length === 2 && rows.every((r) => r.status === 'sent');
+			const rows = await withClient(
+				db.url,
+				async (c) => (await c.query(`select status from notices where lot_id = $1 and kind <> 'alert'`, [held.id])).rows
+			);
+			return rows.length === 1 && rows.every((r) => r.status === 'sent');
 		},
 		20_000,
 		'notices sent'
@@ -132,14 +157,15 @@ test('the supplier reads the notice and the report, acknowledges and replies', a
 	await page.getByRole('link', { name: held.lot_code }).click();
 	await expect(page.getByRole('heading', { name: `Lot ${held.lot_code}`, exact: true })).toBeVisible();
 	const notices = page.getByTestId('portal-notice');
-	await expect(notices).toHaveCount(2);
+	await expect(notices).toHaveCount(1);
 	await expect(notices.first()).toContainText('Quality decision');
+	await expect(notices.first()).not.toContainText('on hold for your review'); // quality's alert stays internal
 	const report = await page.request.get(`${app.url}/api/v1/lots/${held.id}/report.pdf?inline=1`);
 	expect(report.status()).toBe(200);
 	expect(report.headers()['content-type']).toBe('application/pdf');
 	await shot(page, 'portal-lot');
 
-	const holdNotice = notices.filter({ hasText: 'ON HOLD' });
+	const holdNotice = notices.first();
 	await holdNotice.getByRole('button', { name: 'Acknowledge this notice' }).click();
 	await expect(holdNotice.getByText(/Acknowledged/)).toBeVisible();
 	await holdNotice.getByLabel(/^Reply to/).fill('Our UN 38.3 summary for this cell type is attached; the shipping desk has been reminded.');
@@ -170,6 +196,33 @@ test('the buyer sees the decisions, notices and the reply on the lot page', asyn
 	await expect(panel.getByRole('link', { name: 'corrective-action.pdf' })).toBeVisible();
 	await panel.scrollIntoViewIfNeeded();
 	await shot(page, 'lot-decision-panel');
+});
+
+test('quality confirms the safety reject: only return or scrap, with a due date; then the supplier is told', async ({ page }) => {
+	await signInPage(page, app.url, 'quality@kestrel-mobility.example');
+	await page.goto(`${app.url}/review/${other.id}`);
+	await expect(page.getByRole('note').first()).toContainText('cannot be released');
+	for (const label of ['Release', 'Use as is under a deviation', 'Sort or rework']) {
+		await expect(page.getByRole('radio', { name: new RegExp(label) })).toBeDisabled();
+	}
+	await expect(page.getByRole('radio', { checked: true })).toHaveCount(0);
+	await page.getByRole('radio', { name: /Scrap/ }).check();
+	const due = new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10);
+	await page.getByLabel('Supplier to act by').fill(due);
+	await page.getByLabel(/^Reason/).fill('Deep-discharged cell in the sample: the lot is scrapped through the licensed recycler.');
+	await page.getByLabel('Your password (signature)').fill('restvolt-demo-2026');
+	await shot(page, 'review-safety-scrap');
+	await page.getByRole('button', { name: 'Sign disposition and notify supplier' }).click();
+	await expect(page.getByTestId('decision-message')).toContainText('scrap; the lot is now rejected');
+	await shot(page, 'review-safety-scrapped');
+	const notices = await withClient(
+		db.url,
+		async (c) => (await c.query(`select kind, body_text from notices where lot_id = $1 and kind <> 'alert'`, [other.id])).rows
+	);
+	expect(notices).toHaveLength(1);
+	expect(notices[0].body_text).toContain(`Issue a credit note for the scrapped lot to our buyer by ${due}.`);
+	expect(notices[0].body_text).toMatch(/: 2\.000 V, rested below its minimum safe voltage/);
+	await savePdf(page.request, `/api/v1/lots/${other.id}/quarantine-tag.pdf`, 'tag-safety-reject');
 });
 
 test('the buyer reads the supplier scorecard, rendered by the server', async ({ page }) => {
@@ -206,7 +259,7 @@ test('an administrator retries a notice that gave up', async ({ page }) => {
 		async (c) =>
 			(
 				await c.query(
-					`update notices set status = 'failed', attempts = 8, last_error = 'relay refused (set by the test)' where lot_id = $1 and kind = 'reject' returning id`,
+					`update notices set status = 'failed', attempts = 8, last_error = 'relay refused (set by the test)' where lot_id = $1 and kind = 'override' returning id`,
 					[other.id]
 				)
 			).rows
@@ -229,13 +282,4 @@ test('an administrator retries a notice that gave up', async ({ page }) => {
 	await page.getByRole('button', { name: 'Refresh' }).click();
 	await expect(page.locator(`tr[data-notice-id="${notice.id}"]`)).toHaveCount(1); // now under "Recently sent"
 	await shot(page, 'outbox-after-retry');
-});
-
-test('a safety-rejected lot explains why it cannot be released', async ({ page }) => {
-	await signInPage(page, app.url, 'quality@kestrel-mobility.example');
-	await page.goto(`${app.url}/review/${other.id}`);
-	await expect(page.getByRole('note')).toContainText('cannot be released');
-	await expect(page.getByRole('button', { name: 'Sign and record decision' })).toHaveCount(0);
-	await shot(page, 'review-safety-reject');
-	await savePdf(page.request, `/api/v1/lots/${other.id}/quarantine-tag.pdf`, 'tag-safety-reject');
 });

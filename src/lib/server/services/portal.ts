@@ -2,7 +2,7 @@
  * Supplier isolation for lot-scoped reads and the supplier portal's queries. A supplier asking
  * for another organisation's lot, report or notice gets 404, as if it did not exist.
  */
-import { asc, desc, eq, inArray } from 'drizzle-orm';
+import { and, asc, desc, eq, inArray } from 'drizzle-orm';
 import type { Database } from '../db';
 import { documents, lots, noticeResponses, notices, parts } from '../db/schema';
 import type { IncomingFile } from '$lib/uploads/rules';
@@ -48,7 +48,11 @@ export async function portalLots(db: Database, user: SessionUser) {
 		.limit(500);
 	const ids = rows.map((r) => r.id);
 	const open = ids.length
-		? await db.select({ lotId: notices.lotId, ack: notices.acknowledgedAt }).from(notices).where(inArray(notices.lotId, ids))
+		? await db
+				.select({ lotId: notices.lotId, ack: notices.acknowledgedAt })
+				.from(notices)
+				// Only notices sent to this supplier: staff alerts about its lots are internal.
+				.where(and(inArray(notices.lotId, ids), eq(notices.organisationId, user.organisationId)))
 		: [];
 	return rows.map((r) => ({
 		...r,
@@ -120,7 +124,12 @@ export interface PortalNotice {
 export async function portalNotices(db: Database, user: SessionUser, lotId: string): Promise<PortalNotice[]> {
 	const lot = await getLotForUser(db, user, lotId);
 	if (!lot) throw new NotFound('lot');
-	const rows = await db.select().from(notices).where(eq(notices.lotId, lot.id)).orderBy(desc(notices.createdAt));
+	// Only notices sent to the lot's supplier: staff alerts about the lot are internal.
+	const rows = await db
+		.select()
+		.from(notices)
+		.where(and(eq(notices.lotId, lot.id), eq(notices.organisationId, lot.supplierId)))
+		.orderBy(desc(notices.createdAt));
 	const replies = await repliesFor(
 		db,
 		rows.map((n) => n.id)
