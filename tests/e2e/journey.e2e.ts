@@ -8,10 +8,12 @@
  *      and UN 38.3 summary, and releases it for arrival;
  *   3. the new inspector records the sample: part by keyboard (serial + Enter, OCV, Tab, temperature,
  *      Enter), the rest from a CSV meter file (mapping → preview → import);
- *   4. submit → the lot is on hold (air-shipped lithium-ion whose readings do not show SOC at or below the 30 % limit);
- *   5. the new quality manager releases it with reason + password (e-signature);
- *   6. the supplier signs in by e-mailed link, reads both notices and the PDF report, acknowledges
- *      and replies;
+ *   4. submit → the lot is on hold (air-shipped lithium-ion whose readings do not show SOC at or below the 30 % limit); the
+ *      engine only proposes, so the supplier hears nothing yet;
+ *   5. the new quality manager signs a disposition (use as is under a deviation, with a due date)
+ *      with reason + password (e-signature);
+ *   6. the supplier gets exactly one notice, after that decision: signs in by e-mailed link, reads
+ *      it and the PDF report, acknowledges and replies;
  *   7. the buyer sees the acknowledgement and the reply on the lot page.
  * Screenshots: tests/artifacts/screens/journey (with the report PDF and its first page as PNG).
  */
@@ -23,7 +25,7 @@ import { PDFDocument, StandardFonts } from 'pdf-lib';
 import { startApp, type RunningApp } from '../helpers/app';
 import { signInPage, signInSupplierByLink } from '../helpers/auth';
 import { freshDatabase } from '../helpers/db';
-import { waitForMail, type ReceivedMail } from '../helpers/mail';
+import { readMail, waitForMail, type ReceivedMail } from '../helpers/mail';
 import { screens } from '../helpers/screens';
 import { evaluateReading, getLibraryModel, ocvAt } from '../../src/lib/electrochem';
 import { AIR_SOC_LIMIT, samplingPlan } from '../../src/lib/inspection';
@@ -79,6 +81,8 @@ const KEYED = SAMPLE.slice(0, 4);
 const METER = SAMPLE.slice(4);
 const unverifiedText = (n: number) => `for ${n} unit(s) the reading does not show SOC at or below 30 %`;
 const HOLD_TEXT = unverifiedText(PLAN.sample_size);
+/** The date quality gives the supplier to act by: two weeks from the run. */
+const DUE_DATE = new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10);
 
 let lot: { id: string; code: string };
 
@@ -369,11 +373,13 @@ test('4. the inspector submits the lot, which goes on hold with its reasons', as
 	);
 	await expect(page.getByTestId('evaluation-panel').locator('svg').first()).toBeVisible();
 	// Reached by client-side navigation (no load event for networkidle): wait for the paper trail instead.
-	await expect(page.getByRole('region', { name: 'Disposition and paper trail' })).toContainText('Inspection result');
+	await expect(page.getByRole('region', { name: 'Disposition and paper trail' })).toContainText("waiting for quality's disposition");
 	await shot(page, 'inspector-lot-on-hold');
 });
 
-test('5. the new quality manager reviews the hold and releases the lot with an e-signature', async ({ page }) => {
+test('5. the new quality manager reviews the hold and signs a disposition (use as is under a deviation, due date) with an e-signature', async ({
+	page
+}) => {
 	await signInPage(page, app.url, PEOPLE.quality.email, PEOPLE.quality.password);
 	await expect(page).toHaveURL(`${app.url}/review`);
 	const item = page.locator(`[data-lot-code="${lot.code}"]`);
@@ -387,7 +393,10 @@ test('5. the new quality manager reviews the hold and releases the lot with an e
 	await expect(page.getByRole('heading', { name: 'Plots' })).toBeVisible();
 	await expect(page.getByRole('region', { name: 'Plots' }).locator('svg')).toHaveCount(2);
 	await expect(page.getByText(HOLD_TEXT).first()).toBeVisible();
-	await page.getByLabel('Release (accept)').check();
+	// Nothing is chosen for the manager; the disposition that asks something of the supplier needs a due date.
+	await expect(page.getByRole('radio', { checked: true })).toHaveCount(0);
+	await page.getByLabel('Use as is under a deviation').check();
+	await page.getByLabel('Supplier to act by').fill(DUE_DATE);
 	await page
 		.getByLabel(/^Reason/)
 		.fill(
@@ -396,10 +405,10 @@ test('5. the new quality manager reviews the hold and releases the lot with an e
 		);
 	await page.getByLabel('Your password (signature)').fill(PEOPLE.quality.password);
 	await shot(page, 'quality-review-decision');
-	await page.getByRole('button', { name: 'Sign and record decision' }).click();
-	await expect(page.getByTestId('decision-message')).toContainText('released (accepted)');
+	await page.getByRole('button', { name: 'Sign disposition and notify supplier' }).click();
+	await expect(page.getByTestId('decision-message')).toContainText('use as is under a deviation; the lot is now accepted');
 	await expect(page.getByText('This lot is accepted; only a lot on hold can be released or rejected here.')).toBeVisible();
-	await expect(page.getByRole('button', { name: 'Sign and record decision' })).toHaveCount(0);
+	await expect(page.getByRole('button', { name: 'Sign disposition and notify supplier' })).toHaveCount(0);
 	await shot(page, 'quality-released');
 
 	await page.getByRole('link', { name: 'Lot page' }).click();
@@ -407,40 +416,49 @@ test('5. the new quality manager reviews the hold and releases the lot with an e
 	const panel = page.getByRole('region', { name: 'Disposition and paper trail' });
 	await expect(panel).toContainText('e-signed');
 	await expect(panel).toContainText(PEOPLE.quality.name);
+	await expect(panel.getByTestId('decision-disposition')).toContainText(`Use as is under a deviation · supplier to act by ${DUE_DATE}`);
 	await shot(page, 'quality-lot-accepted');
 });
 
-test('6. the supplier signs in by e-mailed link, reads the notices and the report, acknowledges and replies', async ({ page }) => {
-	// Both notices reach the supplier's contacts by mail (from the local SMTP peer), the report attached.
-	const holdMail = await newestMail('supplier@voltaria-cells.example', (s) => s.startsWith(`Inspection result: lot ${lot.code} ON HOLD`));
-	const acceptMail = await newestMail('supplier@voltaria-cells.example', (s) => s.startsWith(`Quality decision: lot ${lot.code} ACCEPTED`));
-	expect(holdMail.text).toContain(HOLD_TEXT);
-	expect(acceptMail.attachments.map((a) => a.contentType)).toContain('application/pdf');
+test('6. the supplier gets one notice, after the decision; signs in by e-mailed link, reads it and the report, acknowledges and replies', async ({
+	page
+}) => {
+	// Exactly one notice reaches the supplier's contacts by mail (from the local SMTP peer), after
+	// quality's decision, the report attached; the engine's hold itself sent nothing.
+	const decisionMail = await newestMail('supplier@voltaria-cells.example', (s) =>
+		s.startsWith(`Quality decision: lot ${lot.code} ACCEPTED (use as is under a deviation)`)
+	);
+	expect(decisionMail.text).toContain(HOLD_TEXT);
+	expect(decisionMail.text).toContain(`by ${DUE_DATE}.`);
+	expect(decisionMail.attachments.map((a) => a.contentType)).toContain('application/pdf');
+	const toSupplier = (await readMail()).filter(
+		(m) => m.envelope.to.includes('supplier@voltaria-cells.example') && m.subject.includes(lot.code)
+	);
+	expect(toSupplier.map((m) => m.subject)).toEqual([decisionMail.subject]);
 
 	await signInSupplierByLink(page, app.url, SUPPLIER_USER);
 	await expect(page.getByRole('heading', { name: 'Your lots and notices' })).toBeVisible();
-	// The seeded scenario leaves other notices open too; this lot adds its two.
+	// The seeded scenario leaves other notices open too; this lot adds its one.
 	const openHeading = page.getByRole('heading', { name: /^Notices to acknowledge \(\d+\)$/ });
 	const openCount = Number(/\((\d+)\)/.exec((await openHeading.textContent())!)![1]);
 	const ours = page.getByRole('listitem').filter({ hasText: `lot ${lot.code}` });
-	await expect(ours).toHaveCount(2);
-	await expect(ours.filter({ hasText: 'ON HOLD' })).toHaveCount(1);
+	await expect(ours).toHaveCount(1);
 	await expect(ours.filter({ hasText: 'Quality decision' })).toContainText('ACCEPTED');
 	const lotRow = page.getByRole('row').filter({ hasText: lot.code });
 	await expect(lotRow).toContainText('Accepted');
 	await shot(page, 'supplier-portal-home');
 
-	await ours.filter({ hasText: 'ON HOLD' }).getByRole('link', { name: 'Read and acknowledge' }).click();
+	await ours.getByRole('link', { name: 'Read and acknowledge' }).click();
 	await expect(page.getByRole('heading', { name: `Lot ${lot.code}`, exact: true })).toBeVisible();
 	const notices = page.getByTestId('portal-notice');
-	await expect(notices).toHaveCount(2);
-	const hold = notices.filter({ hasText: 'ON HOLD' });
+	await expect(notices).toHaveCount(1);
 	const accept = notices.filter({ hasText: 'Quality decision' });
-	await expect(hold).toContainText('The lot is on hold in our quarantine area');
-	await expect(hold).toContainText(HOLD_TEXT);
-	await expect(hold).not.toContainText('from memory'); // a source marker belongs in code, not in the supplier's notice
-	await expect(accept).toContainText('The lot was accepted after review by our quality team');
+	await expect(accept).toContainText('After review by our quality team the lot is used as is under a deviation.');
+	await expect(accept).toContainText(HOLD_TEXT);
 	await expect(accept).toContainText('told to ship at ≤ 30 % SOC');
+	await expect(accept).toContainText(`Send a corrective-action report (for example an 8D) so the finding does not recur by ${DUE_DATE}.`);
+	await expect(accept).not.toContainText('No action');
+	await expect(accept).not.toContainText('from memory'); // a source marker belongs in code, not in the supplier's notice
 	await shot(page, 'supplier-portal-lot');
 
 	// The report opens in a new tab; its answer is a PDF that names the lot.
@@ -459,25 +477,23 @@ test('6. the supplier signs in by e-mailed link, reads the notices and the repor
 	execFileSync('pdftoppm', ['-png', '-r', '60', file, resolve(artefacts, 'report')]);
 	for (const tab of page.context().pages()) if (tab !== page) await tab.close();
 
-	await hold.getByRole('button', { name: 'Acknowledge this notice' }).click();
-	await expect(hold.getByText(/✓ Acknowledged/)).toBeVisible();
-	await hold
+	await accept.getByRole('button', { name: 'Acknowledge this notice' }).click();
+	await expect(accept.getByText(/✓ Acknowledged/)).toBeVisible();
+	await accept
 		.getByLabel(/^Reply to/)
 		.fill('Noted: from the next shipment on we set the SOC to 30 % before air freight. Our charge record is attached.');
-	await hold.getByLabel(/^Document/).setInputFiles({
+	await accept.getByLabel(/^Document/).setInputFiles({
 		name: 'charge-record-vc42j.pdf',
 		mimeType: 'application/pdf',
 		buffer: await pdf('Charge record', `${PART.number}, shipped at 28 % SOC, corrected procedure`)
 	});
-	await hold.getByRole('button', { name: 'Send reply' }).click();
-	await expect(hold.getByText('Reply sent.')).toBeVisible();
-	await expect(hold.getByRole('link', { name: 'charge-record-vc42j.pdf' })).toBeVisible();
-	await accept.getByRole('button', { name: 'Acknowledge this notice' }).click();
-	await expect(accept.getByText(/✓ Acknowledged/)).toBeVisible();
+	await accept.getByRole('button', { name: 'Send reply' }).click();
+	await expect(accept.getByText('Reply sent.')).toBeVisible();
+	await expect(accept.getByRole('link', { name: 'charge-record-vc42j.pdf' })).toBeVisible();
 	await shot(page, 'supplier-acknowledged');
 
 	await page.getByRole('link', { name: 'Your lots' }).click();
-	await expect(page.getByRole('heading', { name: `Notices to acknowledge (${openCount - 2})` })).toBeVisible();
+	await expect(page.getByRole('heading', { name: `Notices to acknowledge (${openCount - 1})` })).toBeVisible();
 	await expect(ours).toHaveCount(0);
 	await expect(lotRow.getByRole('cell').last()).toHaveText('—'); // no open notice left for this lot
 	await shot(page, 'supplier-portal-done');
@@ -489,7 +505,7 @@ test('7. the buyer sees the acknowledgements and the reply on the lot page', asy
 	await expect(page.locator('h1 + [data-status]')).toHaveText('Accepted');
 	const panel = page.getByRole('region', { name: 'Disposition and paper trail' });
 	await expect(panel).toContainText('Quality decision');
-	await expect(panel.getByText(/^✓ Acknowledged \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} UTC by Mira Okonkwo \(Supplier\)$/)).toHaveCount(2); // src/lib/people.ts: name and role
+	await expect(panel.getByText(/^✓ Acknowledged \d{4}-\d{2}-\d{2} \d{2}:\d{2}:\d{2} UTC by Mira Okonkwo \(Supplier\)$/)).toHaveCount(1); // src/lib/people.ts: name and role
 	await expect(panel).toContainText('from the next shipment on we set the SOC to 30 % before air freight');
 	await expect(panel.getByRole('link', { name: 'charge-record-vc42j.pdf' })).toBeVisible();
 	await shot(page, 'buyer-lot-acknowledged');
