@@ -377,7 +377,8 @@ beforeAll(async () => {
 			submitByInspector: ready1.id,
 			submitByQuality: ready2.id,
 			readingId: Number((await q('select min(id) as id from readings where lot_id = $1', [open.id])).id),
-			notice: (await q('select id from notices where lot_id = $1 order by created_at limit 1', [read.id])).id,
+			// A notice sent to supplier A (quality's review alerts about its lots are internal, not A's).
+			notice: (await q('select id from notices where organisation_id = $1 order by created_at limit 1', [ids.supplier.a])).id,
 			document: (await q('select id from documents where lot_id = $1 order by id limit 1', [read.id])).id
 		};
 	});

@@ -11,7 +11,7 @@ import { DEMO_PASSWORD, postForm, signInApi, tokenFor } from '../helpers/auth';
 import { freshDatabase, withClient } from '../helpers/db';
 import { DISPOSITION, type MaterialDisposition } from '../../src/lib/schemas/disposition';
 import { readMail } from '../helpers/mail';
-import { measuredLot, mailsForNotice, parsedMail, pdfText, VOLTARIA_CONTACTS, waitUntil } from './decisions-fixtures';
+import { PART, measuredLot, mailsForNotice, parsedMail, pdfText, VOLTARIA_CONTACTS, waitUntil } from './decisions-fixtures';
 import { call, type Caller } from './readings-fixtures';
 
 let app: RunningApp;
@@ -85,7 +85,11 @@ async function supplierMailsFor(lotCode: string) {
 		(await c.query('select id from notices')).rows.map((r) => `<notice-${r.id}@restvolt.local>`)
 	);
 	return (await readMail()).filter(
-		(m) => ours.includes(m.messageId) && m.subject.includes(lotCode) && m.envelope.to.some((to) => VOLTARIA_CONTACTS.includes(to))
+		(m) =>
+			!!m.messageId &&
+			ours.includes(m.messageId) &&
+			m.subject.includes(lotCode) &&
+			m.envelope.to.some((to) => VOLTARIA_CONTACTS.includes(to))
 	);
 }
 const inTwoWeeks = () => new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10);
@@ -175,6 +179,28 @@ describe('submit → automatic disposition with a notice', () => {
 		expect(notice.message_id).toBe(`<notice-${notice.id}@restvolt.local>`);
 	});
 
+	it('holds an engine accept for quality when the part is released only by quality (auto_release_accept off)', async () => {
+		const setAuto = (on: boolean) =>
+			withClient(db.url, (c) => c.query('update parts set auto_release_accept = $1 where part_number = $2', [on, PART]));
+		await setAuto(false);
+		try {
+			const lot = await measuredLot(buyer, inspector, 'accept');
+			const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
+			expect(res.json.evaluation.status).toBe('accept');
+			expect(res.json.status).toBe('on_hold');
+			expect(res.json.noticeId).toBeNull();
+			await expectReviewWithoutSupplierMail(lot.id, lot.lot_code);
+			const ok = await decide(lot.id, { disposition: 'release', reason: 'Checked the readings; release', password: DEMO_PASSWORD });
+			expect(ok.status).toBe(200);
+			expect(ok.json.status).toBe('accepted');
+			const { parsed } = await readNotice(ok.json.noticeId, lot.lot_code, /ACCEPTED/);
+			expect(parsed.text).toContain('No action is needed');
+			expect(await supplierMailsFor(lot.lot_code)).toHaveLength(1);
+		} finally {
+			await setAuto(true);
+		}
+	});
+
 	it('an automatic reject (deep discharge) e-mails nobody at the supplier until quality confirms it; then exactly once', async () => {
 		const lot = await measuredLot(buyer, inspector, 'safety');
 		const res = await call(inspector, `/api/v1/lots/${lot.id}/submit`, { method: 'POST' });
@@ -216,6 +242,10 @@ describe('submit → automatic disposition with a notice', () => {
 		);
 		expect(parsed.text).not.toMatch(/No action/);
 		expect(text).toMatch(/REJECT/);
+		// The attached report states the disposition and what is asked, by when.
+		expect(text.replace(/\s+/g, ' ')).toContain(
+			`Disposition: Return to supplier. Asked of the supplier by ${due}: Arrange the return shipment`
+		);
 		// Exactly one message reached the supplier for this lot: the confirmed disposition.
 		const reached = await supplierMailsFor(lot.lot_code);
 		expect(reached.map((m) => m.messageId)).toEqual([mail.messageId]);

@@ -44,10 +44,17 @@ it('discontinues after five lots not accepted on tightened, alerts staff, holds 
 		expect(await severity()).toBe(i < 1 ? 'normal' : i < 6 ? 'tightened' : 'discontinued');
 	}
 
-	// One alert, to every active buyer and quality manager, never to the supplier.
+	// One discontinuation alert, to every active buyer and quality manager, never to the supplier
+	// (each held lot also alerted quality that it waits for review: seven of those).
 	const alerts = await q<{ kind: string; recipients: string[]; organisation: string }>(
-		`select n.kind, n.recipients, o.kind::text as organisation from notices n join organisations o on o.id = n.organisation_id where n.kind = 'alert'`
+		`select n.kind, n.recipients, o.kind::text as organisation from notices n join organisations o on o.id = n.organisation_id
+		 where n.kind = 'alert' and n.subject like 'Inspection discontinued:%'`
 	);
+	const reviewAlerts = await q<{ recipients: string[] }>(
+		`select recipients from notices where kind = 'alert' and subject like 'Lot % on hold for your review%'`
+	);
+	expect(reviewAlerts).toHaveLength(7);
+	expect(reviewAlerts.every((a) => !a.recipients.includes('buyer@kestrel-mobility.example'))).toBe(true);
 	expect(alerts).toHaveLength(1);
 	expect(alerts[0].organisation).toBe('own');
 	expect([...alerts[0].recipients].sort()).toEqual([

@@ -2,6 +2,7 @@
  * Builds the plain ReportData handed to the PDF report, the quarantine tag and the XLSX export,
  * from the latest stored evaluation (or, before any decision, a preliminary evaluation computed now).
  */
+import { DISPOSITION, type MaterialDisposition } from '$lib/schemas/disposition';
 import { and, desc, eq, lte } from 'drizzle-orm';
 import { dateTime, fixed } from '$lib/format';
 import { modelErrorSummary, type OcvModel } from '$lib/electrochem';
@@ -120,6 +121,15 @@ function signatureOf(stored: unknown): ReportSignature | null {
 	};
 }
 
+/** Quality's material disposition and what it asks of the supplier, by when: one line of the report. */
+function dispositionReason(disposition: MaterialDisposition, dueDate: string | null): ReportReason {
+	const info = DISPOSITION[disposition];
+	const asks = info.asks.length
+		? ` Asked of the supplier${dueDate ? ` by ${dueDate}` : ''}: ${info.asks.join(' ')}`
+		: ' Nothing is asked of the supplier.';
+	return { code: 'quality_disposition', severity: 'info', message: `Disposition: ${info.label}.${asks}` };
+}
+
 /** The given decision, or the lot's latest one. */
 async function decisionFor(db: Db, lotId: string, decisionId: string | null) {
 	const [d] = await db
@@ -136,7 +146,9 @@ async function decisionFor(db: Db, lotId: string, decisionId: string | null) {
 	return {
 		view: { by, at: d.d.decidedAt.toISOString(), kind: d.d.kind, reason: d.d.reason, signature },
 		toStatus: d.d.toStatus,
-		evaluationId: d.d.evaluationId
+		evaluationId: d.d.evaluationId,
+		disposition: d.d.disposition,
+		dueDate: d.d.supplierDueDate
 	};
 }
 
@@ -173,6 +185,7 @@ export async function buildReportData(db: Db, lotId: string, opts: { decisionId?
 			severity: 'info',
 			message: `Quality decision by ${decision.by} (e-signed): “${said}”${stop} The engine's evaluation was ${engineWord}.`
 		});
+		if (chosen?.disposition) reasons.splice(1, 0, dispositionReason(chosen.disposition, chosen.dueDate));
 	}
 	const units = unitsOf(engine, new Map(acRows.map((r) => [r.id, r.ac])));
 	return {
