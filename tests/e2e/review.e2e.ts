@@ -61,6 +61,9 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	const safetyItem = page.locator(`[data-lot-code="${other.lot_code}"]`);
 	await expect(safetyItem.getByTestId('proposal')).toContainText('Engine proposes reject');
 	await expect(safetyItem.getByTestId('proposal')).toContainText('safety finding');
+	// In the app, quality sees how many lots wait for it beside "Hold review".
+	const waiting = page.getByRole('navigation', { name: 'Main' }).getByTestId('nav-count');
+	await expect(waiting).toHaveText(/^2\s*waiting$/);
 	await shot(page, 'review-queue');
 
 	await item.getByRole('link', { name: held.lot_code }).click();
@@ -132,6 +135,7 @@ test('quality releases a held lot with an e-signature', async ({ page }) => {
 	await page.goto(`${app.url}/review`);
 	await expect(page.locator(`[data-lot-code="${held.lot_code}"]`)).toHaveCount(0);
 	await expect(page.locator(`[data-lot-code="${other.lot_code}"]`)).toHaveCount(1);
+	await expect(waiting).toHaveText(/^1\s*waiting$/);
 
 	await savePdf(page.request, `/api/v1/lots/${held.id}/report.pdf`, 'report-released');
 	await savePdf(page.request, `/api/v1/lots/${other.id}/quarantine-tag.pdf`, 'tag-safety-reject');

@@ -420,6 +420,15 @@ export async function decideOverride(
 	});
 }
 
+/** How many lots wait for quality's disposition: the count beside "Hold review" in the header. */
+export async function reviewCount(): Promise<number> {
+	const [row] = await getDb()
+		.select({ n: sql<number>`count(*)::int` })
+		.from(lots)
+		.where(eq(lots.status, 'on_hold'));
+	return row?.n ?? 0;
+}
+
 /**
  * Lots in material review (on hold: quarantined, the supplier not yet told), oldest first, with the
  * engine's proposal, whether it is a safety finding, and the latest evaluation's reasons.
