@@ -73,9 +73,7 @@ interface HistoryRow extends Record<string, unknown> {
 const iso = (d: Date | string) => (d instanceof Date ? d : new Date(d)).toISOString();
 
 /** The lot state an engine result stands for (an accept that waits for quality still counts as accepted). */
-const ORIGINAL_OF_EVALUATION = sql.raw(
-	`case e.disposition when 'accept' then 'accepted' when 'hold' then 'on_hold' when 'reject' then 'rejected' end`
-);
+const ORIGINAL_OF_EVALUATION = sql`case e.disposition when 'accept' then 'accepted' when 'hold' then 'on_hold' when 'reject' then 'rejected' end`;
 
 async function decidedLots(db: Database | Tx, supplierId: string, partId: string, opts: SeverityOptions): Promise<HistoryRow[]> {
 	const before = opts.before ?? null;
