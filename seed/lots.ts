@@ -48,7 +48,7 @@ async function attachDocuments(db: Database, buyer: SessionUser, lotId: string, 
 
 /** The day of a lot's demo history an audit action belongs to: registration (0), bench (½), decision (1). */
 const BENCH_ACTIONS = new Set(['lot.arrival', 'readings.added', 'lot.sample_complete', 'reading.corrected']);
-const DECISION_ACTIONS = ['lot.decided', 'lot.override_signed', 'lot.reevaluated', 'notice.', 'decision.'];
+const DECISION_ACTIONS = ['lot.decided', 'lot.review_alerted', 'lot.override_signed', 'lot.reevaluated', 'notice.', 'decision.'];
 function historyDay(action: string): number {
 	if (BENCH_ACTIONS.has(action)) return 0.5;
 	return DECISION_ACTIONS.some((prefix) => action.startsWith(prefix)) ? 1 : 0;
