@@ -431,8 +431,13 @@ test('6. the supplier gets one notice, after the decision; signs in by e-mailed 
 	expect(decisionMail.text).toContain(HOLD_TEXT);
 	expect(decisionMail.text).toContain(`by ${DUE_DATE}.`);
 	expect(decisionMail.attachments.map((a) => a.contentType)).toContain('application/pdf');
+	// The mail peer keeps earlier runs' messages (same lot codes): count this run's, for this PO.
 	const toSupplier = (await readMail()).filter(
-		(m) => m.envelope.to.includes('supplier@voltaria-cells.example') && m.subject.includes(lot.code)
+		(m) =>
+			m.envelope.to.includes('supplier@voltaria-cells.example') &&
+			m.subject.includes(lot.code) &&
+			m.subject.includes('PO PO-2026-0912') &&
+			Number(m.id.split('-')[0]) >= startedAt
 	);
 	expect(toSupplier.map((m) => m.subject)).toEqual([decisionMail.subject]);
 
