@@ -27,7 +27,7 @@ test('an inspector types the cell-group voltages of a measured pack', async ({ p
 	const lotId = await withClient(db.url, async (c) => (await c.query(`select id from lots where lot_code = 'L-2026-00024'`)).rows[0].id);
 	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
 	await page.goto(`${app.url}/lots/${lotId}/inspect`);
-	await expect(page.getByText(/weakest cell group: VCEB36-024-00003 group 6 at 2\.100 V/)).toBeVisible();
+	await expect(page.getByTestId('server-evaluation').getByText(/weakest cell group: VCEB36-024-00003 group 6 at 2\.100 V/)).toBeVisible();
 	const entry = page.getByTestId('cell-groups-entry');
 	await entry.getByText('Cell groups (10 in series)').click();
 	await entry.getByLabel('Serial', { exact: true }).fill('VCEB36-024-00001');

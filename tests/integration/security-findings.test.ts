@@ -141,7 +141,14 @@ describe('throttles hold under concurrency', () => {
 			fetch(`${app.url}/api/v1/lots/${held.id}/decision`, {
 				method: 'POST',
 				headers,
-				body: JSON.stringify({ decision: 'reject', reason: 'Parallel signature attempt', password: `wrong-${i}`, challenge_id })
+				body: JSON.stringify({
+					decision: 'reject',
+					disposition: 'scrap',
+					due_date: new Date(Date.now() + 14 * 86_400_000).toISOString().slice(0, 10),
+					reason: 'Parallel signature attempt',
+					password: `wrong-${i}`,
+					challenge_id
+				})
 			});
 		const statuses = (await Promise.all(Array.from({ length: 30 }, (_, i) => sign(i)))).map((r) => r.status);
 		expect(statuses.filter((s) => s === 429)).toHaveLength(25);
