@@ -41,3 +41,23 @@ test('an inspector types the cell-group voltages of a measured pack', async ({ p
 	);
 	expect(row.cell_group_voltages).toHaveLength(10);
 });
+
+test('at 1440 px the pack bench keeps Save and the saved/imported mark of each stored row in view (issue 22 item 7)', async ({ page }) => {
+	await page.setViewportSize({ width: 1440, height: 900 });
+	const lotId = await withClient(db.url, async (c) => (await c.query(`select id from lots where lot_code = 'L-2026-00024'`)).rows[0].id);
+	await signInPage(page, app.url, 'inspector@kestrel-mobility.example');
+	await page.goto(`${app.url}/lots/${lotId}/inspect`);
+	const save = page.getByTestId('entry-row').getByRole('button', { name: /^Save/ });
+	await expect(save).toBeInViewport({ ratio: 1 });
+	const mark = page
+		.getByTestId('stored-row')
+		.first()
+		.locator('td', { hasText: /✓\s+(imported|saved)/ });
+	await expect(mark).toBeVisible();
+	// Within the width of the window (the row may sit partly below the fold; nothing is cut off at the side).
+	const box = (await mark.boundingBox())!;
+	expect(box.x + box.width).toBeLessThanOrEqual(1440);
+	// Nothing of the page scrolls sideways at this width.
+	expect(await page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+	await shot(page, 'pack-bench-1440');
+});
