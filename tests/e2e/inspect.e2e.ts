@@ -116,6 +116,11 @@ test('keyboard entry, live feedback, retry after a network error, meter import a
 	await expect(page.getByTestId('stored-row')).toHaveCount(2);
 	await shot(page, 'sample-complete');
 
+	// Choosing the same meter file again says it was already imported, and when (issue 22 item 7).
+	await page.locator('input[type="file"]').setInputFiles({ name: 'bench-meter.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
+	await expect(page.getByText(/This file was already imported on \d{4}-\d{2}-\d{2}/)).toBeVisible();
+	await shot(page, 'meter-file-again');
+
 	await page.getByTestId('submit-lot').click();
 	await page.waitForURL(`${app.url}/lots/${lot.id}`);
 	await expect(page.getByTestId('evaluation-status')).toHaveAttribute('data-status', 'accept');
